@@ -1,0 +1,38 @@
+// Run-time values come from NUXT_* variables (see scripts/env.sh); nothing here reads process.env.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-06-01',
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  devtools: { enabled: false },
+  telemetry: false,
+  css: [
+    '@fontsource/inter/400.css',
+    '@fontsource/inter/600.css',
+    '@fontsource/inter/700.css',
+    '@fontsource/merriweather/400.css',
+    '@fontsource/merriweather/700.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Trapline',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Timing, inspection and sealed evidence for speed-record attempts' },
+        { name: 'theme-color', content: '#0b1d2a' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    databaseUrl: '',
+    publicUrl: 'http://localhost:3000',
+    seedDemo: false,
+    mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>' },
+    session: {
+      maxAge: 60 * 60 * 12,
+      cookie: { sameSite: 'lax', httpOnly: true },
+    },
+  },
+  typescript: { strict: true },
+})

@@ -1,0 +1,78 @@
+import type { Rounding } from './exact'
+
+/** How sure we are of a rule value, always printed beside it. */
+export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settled' | 'not known'
+
+/** A rule value with where it comes from. */
+export interface Sourced<T> {
+  value: T
+  source: string
+  certainty: Certainty
+}
+
+export type WindowAnchor = 'start-first' | 'finish-first' | 'start-second' | 'finish-second'
+
+export type RunWindow =
+  | { kind: 'elapsed'; minutes: number; from: WindowAnchor; to: WindowAnchor }
+  /** The record run on the calendar day after the qualifying run, in the event's time zone. */
+  | { kind: 'next-day' }
+
+export interface MeasuredDistanceSpec {
+  label: string
+  metres: string // exact decimal
+  start: 'flying' | 'standing'
+}
+
+export interface MassClass {
+  label: string
+  /** Upper mass limit in kg, inclusive; null for the open class. */
+  maxKg: number | null
+}
+
+export interface RuleProfile {
+  id: string
+  version: number
+  name: string
+  summary: string
+  runs: Sourced<{ count: 2; directions: 'opposite' | 'same' }>
+  window: Sourced<RunWindow>
+  /** Informational: minutes within which a qualified machine goes into impound. */
+  impoundMinutes: Sourced<number | null>
+  averaging: Sourced<'mean-of-times' | 'mean-of-speeds'>
+  figures: Sourced<{ decimals: number; rounding: Rounding }>
+  /** The improvement needed over the standing record. */
+  margin: Sourced<{ percent: number; inclusive: boolean }>
+  gradientMaxPercent: Sourced<number | null>
+  distances: Sourced<MeasuredDistanceSpec[]>
+  /** The largest tail-wind component in m/s; null for no limit. */
+  tailWindLimitMs: Sourced<number | null>
+  bestPerDayOnly: Sourced<boolean | null>
+  massClasses: Sourced<MassClass[] | null>
+  witnessStatements: Sourced<number>
+}
+
+export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
+  runs: 'Runs',
+  window: 'Time window',
+  impoundMinutes: 'Impound after a qualifying run',
+  averaging: 'Result',
+  figures: 'Figures',
+  margin: 'Improvement needed',
+  gradientMaxPercent: 'Course gradient',
+  distances: 'Distances',
+  tailWindLimitMs: 'Tail-wind limit',
+  bestPerDayOnly: 'Best result per day',
+  massClasses: 'Mass classes',
+  witnessStatements: 'Witness statements',
+}
+
+export function describeWindow(w: RunWindow): string {
+  if (w.kind === 'next-day') return 'record run on the calendar day after the qualifying run'
+  const name: Record<WindowAnchor, string> = {
+    'start-first': 'start of the first run',
+    'finish-first': 'finish of the first run',
+    'start-second': 'start of the second run',
+    'finish-second': 'finish of the second run',
+  }
+  return `${w.minutes} min from the ${name[w.from]} to the ${name[w.to]}`
+}

@@ -1,0 +1,41 @@
+import type { RuleProfile } from '../profile'
+
+const CLUB_PAGES = 'club record procedure pages'
+
+export const clubSameDirection: RuleProfile = {
+  id: 'club-same-direction',
+  version: 1,
+  name: 'Club, two runs in the same direction',
+  summary: 'A qualifying run, then a record run the next morning in the same direction; average of the two.',
+  runs: {
+    value: { count: 2, directions: 'same' },
+    source: `${CLUB_PAGES}: qualifying run, then a record run the next morning, same direction`,
+    certainty: 'seen',
+  },
+  window: {
+    value: { kind: 'next-day' },
+    source: `${CLUB_PAGES}: record run the next morning`,
+    certainty: 'seen',
+  },
+  impoundMinutes: { value: 60, source: `${CLUB_PAGES}: machine into impound within 1 h of its time slip`, certainty: 'seen' },
+  averaging: {
+    value: 'mean-of-times',
+    source: 'average of the two runs; whether of times or speeds is not settled: a profile setting, default mean of times',
+    certainty: 'not settled',
+  },
+  figures: { value: { decimals: 3, rounding: 'truncate' }, source: 'as the international profiles', certainty: 'from memory' },
+  margin: { value: { percent: 0, inclusive: false }, source: 'exceed the standing record', certainty: 'from memory' },
+  gradientMaxPercent: { value: null, source: 'as surveyed', certainty: 'seen' },
+  distances: {
+    value: [
+      { label: 'Flying mile', metres: '1609.344', start: 'flying' },
+      { label: 'Flying kilometre', metres: '1000', start: 'flying' },
+    ],
+    source: 'per club: flying mile, flying km',
+    certainty: 'common practice',
+  },
+  tailWindLimitMs: { value: null, source: 'no published wind limit found', certainty: 'not known' },
+  bestPerDayOnly: { value: null, source: 'not known', certainty: 'not known' },
+  massClasses: { value: null, source: 'class limits by mass to be set from the club rulebook', certainty: 'not known' },
+  witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
+}

@@ -1,0 +1,53 @@
+import type { RuleProfile } from '../profile'
+
+const APPENDIX_D = 'FIA International Sporting Code, Appendix D'
+
+export const intlAutomobile: RuleProfile = {
+  id: 'intl-automobile',
+  version: 1,
+  name: 'International automobile',
+  summary: 'Two runs in opposite directions within 60 minutes; at least 1 % over the standing record.',
+  runs: {
+    value: { count: 2, directions: 'opposite' },
+    source: `${APPENDIX_D}; seen in press reports of 1997 homologations`,
+    certainty: 'seen',
+  },
+  window: {
+    value: { kind: 'elapsed', minutes: 60, from: 'start-first', to: 'finish-second' },
+    source: `${APPENDIX_D} as reported: 60 min between the runs (runs 61 min apart were refused); the anchors are not settled, default start of the first run to finish of the second`,
+    certainty: 'seen',
+  },
+  impoundMinutes: { value: null, source: 'no rule found', certainty: 'not known' },
+  averaging: {
+    value: 'mean-of-times',
+    source: 'distance ÷ mean of the two times (harmonic mean of the speeds), checked against published records',
+    certainty: 'seen',
+  },
+  figures: {
+    value: { decimals: 3, rounding: 'truncate' },
+    source: 'speeds to 3 decimals, truncated, in km/h and mph: published records only fit truncation',
+    certainty: 'seen',
+  },
+  margin: {
+    value: { percent: 1, inclusive: true },
+    source: 'at least 1 % over the standing record: 1983 case reported by a motor-sport magazine',
+    certainty: 'seen',
+  },
+  gradientMaxPercent: { value: null, source: 'straight course; no gradient limit known', certainty: 'from memory' },
+  distances: {
+    value: [
+      { label: 'Flying kilometre', metres: '1000', start: 'flying' },
+      { label: 'Flying mile', metres: '1609.344', start: 'flying' },
+    ],
+    source: 'flying km and flying mile',
+    certainty: 'seen',
+  },
+  tailWindLimitMs: {
+    value: null,
+    source: 'motor-sport record rules rely on the two-way average; no published wind limit found',
+    certainty: 'not known',
+  },
+  bestPerDayOnly: { value: null, source: 'not known', certainty: 'not known' },
+  massClasses: { value: null, source: 'class limits by mass to be set from the rulebook in force', certainty: 'not known' },
+  witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
+}

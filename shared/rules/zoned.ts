@@ -1,0 +1,48 @@
+// Calendar days in a named time zone, with the platform's Intl data only (no clock is read).
+
+const formatters = new Map<string, Intl.DateTimeFormat>()
+
+function formatter(timeZone: string) {
+  let f = formatters.get(timeZone)
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-CA', {
+      timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+    })
+    formatters.set(timeZone, f)
+  }
+  return f
+}
+
+export function isTimeZone(timeZone: string): boolean {
+  try { formatter(timeZone); return true } catch { return false }
+}
+
+function parts(ms: number, timeZone: string) {
+  const p = Object.fromEntries(formatter(timeZone).formatToParts(new Date(ms)).map(x => [x.type, x.value]))
+  return { y: Number(p.year), m: Number(p.month), d: Number(p.day), h: Number(p.hour), mi: Number(p.minute), s: Number(p.second) }
+}
+
+/** The local calendar date, YYYY-MM-DD. */
+export function localDate(ms: number, timeZone: string): string {
+  const { y, m, d } = parts(ms, timeZone)
+  return `${String(y).padStart(4, '0')}-${String(m).padStart(2, '0')}-${String(d).padStart(2, '0')}`
+}
+
+function offsetMs(ms: number, timeZone: string) {
+  const { y, m, d, h, mi, s } = parts(ms, timeZone)
+  return Date.UTC(y, m - 1, d, h, mi, s) - Math.floor(ms / 1000) * 1000
+}
+
+/** The instant of local midnight that starts a date (YYYY-MM-DD) in a time zone. */
+export function localMidnight(date: string, timeZone: string): number {
+  const [y, m, d] = date.split('-').map(Number) as [number, number, number]
+  const guess = Date.UTC(y, m - 1, d)
+  let t = guess - offsetMs(guess, timeZone)
+  t = guess - offsetMs(t, timeZone)
+  return t
+}
+
+export function addDays(date: string, days: number): string {
+  const [y, m, d] = date.split('-').map(Number) as [number, number, number]
+  return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10)
+}

@@ -1,0 +1,34 @@
+import { z } from 'zod'
+import { PROFILE_IDS } from '../rules/profiles'
+import { isoDateTime, positiveDecimal, positiveNumber, timeZoneName } from './fields'
+
+export const calculatorRunSchema = z.object({
+  direction: z.enum(['out', 'back'], { error: 'must be "out" or "back"' }),
+  startedAt: isoDateTime,
+  elapsedS: positiveDecimal,
+})
+
+export const calculatorRequestSchema = z.object({
+  profile: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
+  distanceM: positiveNumber,
+  runs: z.array(calculatorRunSchema).min(1, { error: 'needs at least one run' }).max(2, { error: 'takes at most two runs' }),
+  recordKmh: positiveNumber.optional(),
+  recordMph: positiveNumber.optional(),
+  timeZone: timeZoneName.optional(),
+}).refine(x => !(x.recordKmh && x.recordMph), { error: 'give the standing record in km/h or in mph, not both', path: ['recordMph'] })
+
+export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
+
+export interface CalculatorResponse {
+  profile: { id: string; version: number; name: string; decimals: number }
+  runs: { direction: 'out' | 'back'; elapsedS: string; speedKmh: string; speedMph: string }[]
+  meanTimeS: string | null
+  resultKmh: string | null
+  resultMph: string | null
+  windowOk: boolean
+  window: { rule: string; usedS: string | null; deadline: string | null; opens: string | null }
+  beatsRecord: boolean | null
+  required: { figure: string; unit: string } | null
+  returnTargetS: string | null
+  findings: { code: string; severity: string; message: string; rule?: { name: string; value: string; source: string; certainty: string } }[]
+}

@@ -1,0 +1,193 @@
+import { describe, expect, it } from 'vitest'
+import { calculate } from '#shared/rules/calculator'
+import { evaluateAttempt } from '#shared/rules/attempt'
+import { fromDecimal } from '#shared/rules/exact'
+import { profiles } from '#shared/rules/profiles'
+
+const MILE = 1609.344
+const at = (iso: string) => Date.parse(iso)
+
+describe('two-way result, 1983 flying mile', () => {
+  // Source: 1983 land speed record published by the Royal Automobile Club and others: runs of
+  // 624.241 and 642.971 mph over the flying mile, official average 633.468 mph; mile times 5.767 s
+  // and 5.599 s.
+  const res = calculate({
+    profile: 'intl-automobile',
+    distanceM: MILE,
+    runs: [
+      { direction: 'out', startedAt: '1983-10-04T09:00:00Z', elapsedS: '5.767' },
+      { direction: 'back', startedAt: '1983-10-04T09:40:00Z', elapsedS: '5.599' },
+    ],
+  })
+
+  it('gives each run the published figure (truncated)', () => {
+    expect(res.runs.map(r => r.speedMph)).toEqual(['624.241', '642.971'])
+  })
+
+  it('gives the published two-way average', () => {
+    expect(res.meanTimeS).toBe('5.683')
+    expect(res.resultMph).toBe('633.468')
+  })
+
+  it('is not the arithmetic mean of the speeds (633.606)', () => {
+    // Source: domain notes; (624.2413 + 642.9719) / 2 = 633.606…, the wrong method printed by the press.
+    expect(res.resultMph).not.toBe('633.606')
+    expect(Number(res.resultMph)).toBeLessThan((3600 / 5.767 + 3600 / 5.599) / 2)
+  })
+
+  it('km/h figures follow from the same exact value', () => {
+    // 633.4682… mph × 1.609344 = 1019.4683… km/h (mph to km/h is exact: 0.44704 × 3.6); checked with Python's fractions module.
+    expect(res.resultKmh).toBe('1019.468')
+    expect(res.windowOk).toBe(true)
+  })
+})
+
+describe('record margin', () => {
+  it('634.050 against 630.388 mph is not enough under 1 % (automobile profile)', () => {
+    // Source: 1983 case reported by a motor-sport magazine: ratio 1.0058 was refused under the 1 % rule.
+    // Mile times chosen to give 634.050 mph: 3600 / 634.05 = 5.677785… s; we use a mean time giving it.
+    const res = calculate({
+      profile: 'intl-automobile',
+      distanceM: MILE,
+      runs: [
+        { direction: 'out', startedAt: '1983-10-04T09:00:00Z', elapsedS: '5.6777' },
+        { direction: 'back', startedAt: '1983-10-04T09:30:00Z', elapsedS: '5.6778' },
+      ],
+      recordMph: 630.388,
+    })
+    expect(res.resultMph!.startsWith('634.0')).toBe(true)
+    expect(res.beatsRecord).toBe(false)
+    expect(res.required).toEqual({ figure: '636.692', unit: 'mph' }) // 630.388 × 1.01 = 636.69188 → at least 636.692
+    expect(res.findings.map(f => f.code)).toContain('record.margin-not-met')
+  })
+
+  it('the same figures beat the record under the motorcycle profile (exceed, no margin)', () => {
+    // Source: FIM world records page (seen): exceed the standing record; no margin known (from memory).
+    const res = calculate({
+      profile: 'intl-motorcycle',
+      distanceM: MILE,
+      runs: [
+        { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '5.6777' },
+        { direction: 'back', startedAt: '2026-08-14T09:30:00Z', elapsedS: '5.6778' },
+      ],
+      recordMph: 630.388,
+    })
+    expect(res.beatsRecord).toBe(true)
+    expect(res.required).toEqual({ figure: '630.389', unit: 'mph' })
+  })
+
+  it('equal to the standing record is not a record where it must be exceeded', () => {
+    // 3600 / 5.6 = 642.857142… mph → 642.857, exactly the record: not exceeded (from memory: "exceed").
+    const res = calculate({
+      profile: 'intl-motorcycle',
+      distanceM: MILE,
+      runs: [
+        { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '5.6' },
+        { direction: 'back', startedAt: '2026-08-14T09:30:00Z', elapsedS: '5.6' },
+      ],
+      recordMph: 642.857,
+    })
+    expect(res.resultMph).toBe('642.857')
+    expect(res.beatsRecord).toBe(false)
+    expect(res.findings.map(f => f.code)).toContain('record.not-beaten')
+  })
+})
+
+describe('return-run target', () => {
+  it('is the longest time that still counts, t2 ≤ 2d / V − t1', () => {
+    // Source: domain notes, return-run target. Record 400 km/h over 1 km, first run 9.000 s (400.000 km/h):
+    // to exceed, the pair needs ≥ 400.001 km/h, so t2 ≤ 2 × 3.6 / 400.001 h·km… = 17.99995500… − 9 = 8.999955 s
+    // → at 1/1000 s, 8.999 s.
+    const res = calculate({
+      profile: 'intl-motorcycle',
+      distanceM: 1000,
+      runs: [{ direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '9.000' }],
+      recordKmh: 400,
+    })
+    expect(res.resultKmh).toBeNull()
+    expect(res.returnTargetS).toBe('8.999')
+    // Check the target counts and one tick slower does not.
+    const pair = (t2: string) => calculate({
+      profile: 'intl-motorcycle', distanceM: 1000, recordKmh: 400,
+      runs: [
+        { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '9.000' },
+        { direction: 'back', startedAt: '2026-08-14T09:40:00Z', elapsedS: t2 },
+      ],
+    }).beatsRecord
+    expect(pair('8.999')).toBe(true)
+    expect(pair('9.000')).toBe(false)
+  })
+
+  it('says when no return run can reach the target', () => {
+    const res = calculate({
+      profile: 'intl-motorcycle', distanceM: 1000, recordKmh: 400,
+      runs: [{ direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '30' }],
+    })
+    // 2 × 1000 m / (400.001 km/h) = 17.99995… s < 30 s already used.
+    expect(res.returnTargetS).toBeNull()
+    expect(res.findings.map(f => f.code)).toContain('return.unreachable')
+  })
+})
+
+describe('time windows, a minute inside and a minute outside', () => {
+  const two = (profile: 'intl-motorcycle' | 'intl-automobile' | 'club-same-direction', second: string, elapsed = '30', directions: ['out' | 'back', 'out' | 'back'] = ['out', 'back'], timeZone?: string) =>
+    calculate({
+      profile, distanceM: 1000, timeZone,
+      runs: [
+        { direction: directions[0], startedAt: '2026-08-14T09:00:00Z', elapsedS: '30' },
+        { direction: directions[1], startedAt: second, elapsedS: elapsed },
+      ],
+    })
+
+  it('international motorcycle: start of the first to finish of the second within 2 h', () => {
+    // Source: FIM world records page (seen): the whole attempt within 2 h.
+    expect(two('intl-motorcycle', '2026-08-14T10:58:30Z').windowOk).toBe(true) // finishes 10:59:00
+    expect(two('intl-motorcycle', '2026-08-14T11:00:30Z').windowOk).toBe(false) // finishes 11:01:00
+    expect(two('intl-motorcycle', '2026-08-14T11:00:30Z').findings.map(f => f.code)).toContain('window.exceeded')
+  })
+
+  it('international automobile: 60 min, default anchors start of first to finish of second', () => {
+    // Source: FIA International Sporting Code, Appendix D as reported (runs 61 min apart were refused).
+    expect(two('intl-automobile', '2026-08-14T09:58:30Z').windowOk).toBe(true) // finishes 09:59:00
+    expect(two('intl-automobile', '2026-08-14T10:00:30Z').windowOk).toBe(false) // finishes 10:01:00
+  })
+
+  it('club: the record run on the next calendar day in the event time zone', () => {
+    // Source: club record procedure pages (seen): record run the next morning.
+    const same = ['out', 'out'] as ['out', 'out']
+    expect(two('club-same-direction', '2026-08-15T00:01:00Z', '30', same).windowOk).toBe(true)
+    expect(two('club-same-direction', '2026-08-15T23:59:00Z', '30', same).windowOk).toBe(true)
+    expect(two('club-same-direction', '2026-08-14T23:59:00Z', '30', same).windowOk).toBe(false)
+    expect(two('club-same-direction', '2026-08-16T00:01:00Z', '30', same).windowOk).toBe(false)
+    // In a time zone 6 h behind UTC (America/Denver in August, UTC−6), the first run is on 14 August
+    // at 03:00 local; the next local day runs from 2026-08-15T06:00Z.
+    expect(two('club-same-direction', '2026-08-15T05:59:00Z', '30', same, 'America/Denver').windowOk).toBe(false)
+    expect(two('club-same-direction', '2026-08-15T06:01:00Z', '30', same, 'America/Denver').windowOk).toBe(true)
+  })
+})
+
+describe('pairing', () => {
+  it('flags two runs the same way under an opposite-direction profile', () => {
+    const res = calculate({
+      profile: 'intl-motorcycle', distanceM: 1000,
+      runs: [
+        { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '10' },
+        { direction: 'out', startedAt: '2026-08-14T09:30:00Z', elapsedS: '10' },
+      ],
+    })
+    expect(res.findings.find(f => f.code === 'pair.direction')?.rule?.source).toMatch(/FIM world records page/)
+  })
+
+  it('mean of speeds only where a profile says so', () => {
+    const profile = { ...profiles['club-same-direction'], averaging: { ...profiles['club-same-direction'].averaging, value: 'mean-of-speeds' as const } }
+    const r = evaluateAttempt({
+      profile, distanceM: fromDecimal('1609.344'),
+      runs: [
+        { direction: 'out', startedAtMs: at('2026-08-14T09:00:00Z'), elapsedS: fromDecimal('5.767') },
+        { direction: 'out', startedAtMs: at('2026-08-15T08:00:00Z'), elapsedS: fromDecimal('5.599') },
+      ],
+    })
+    // Arithmetic mean of 624.2413… and 642.9719… = 633.6066… mph (domain notes: 633.606).
+    expect(r.result!.mph).toBe('633.606')
+  })
+})

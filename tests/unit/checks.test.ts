@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest'
+import { checkGradient, crossCheck, massClass, windComponents } from '#shared/rules/checks'
+import { fromDecimal, toFixed } from '#shared/rules/exact'
+import { profiles } from '#shared/rules/profiles'
+import { parseTimeOfDay, segmentTime } from '#shared/rules/timing'
+
+describe('wind components', () => {
+  it('resolves head, tail and cross wind against the heading', () => {
+    // Source: vector resolution, θ = β − h; head = W·cos θ, cross = W·sin θ (domain notes).
+    expect(windComponents(5, 90, 90)).toEqual({ headMs: 5, crossMs: 0 }) // wind from ahead
+    expect(windComponents(5, 270, 90).headMs).toBeCloseTo(-5, 12) // from behind: tail-wind
+    expect(windComponents(4, 180, 90).crossMs).toBeCloseTo(4, 12)
+    const w = windComponents(3, 30, 0)
+    expect(w.headMs).toBeCloseTo(3 * Math.sqrt(3) / 2, 12)
+    expect(w.crossMs).toBeCloseTo(1.5, 12)
+  })
+
+  it('the return run, heading + 180°, turns a head-wind into the same tail-wind', () => {
+    const out = windComponents(3, 10, 0)
+    const back = windComponents(3, 10, 180)
+    expect(back.headMs).toBeCloseTo(-out.headMs, 12)
+  })
+})
+
+describe('gradient', () => {
+  it('flags more than 1 % under the motorcycle profile', () => {
+    // Source: FIM world records page (seen): gradient at most 1 %. 11 m over 1000 m is 1.1 %.
+    expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('1.1'))[0]?.code).toBe('course.gradient-over-limit')
+    expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('-1.0'))).toEqual([])
+  })
+})
+
+describe('timing', () => {
+  it('subtracts integer ticks, never floats of time of day', () => {
+    const tps = 10_000n
+    const a = parseTimeOfDay('10:15:02.1234', tps)
+    const b = parseTimeOfDay('10:15:07.9011', tps)
+    expect(toFixed(segmentTime(a, b, tps), 4)).toBe('5.7777')
+    expect(() => parseTimeOfDay('10:15:07.90111', tps)).toThrow(/resolves/)
+    expect(() => segmentTime(b, a, tps)).toThrow()
+  })
+
+  it('cross-checks primary against backup within a tolerance', () => {
+    expect(crossCheck(fromDecimal('5.767'), fromDecimal('5.7675'), fromDecimal('0.001')).ok).toBe(true)
+    const bad = crossCheck(fromDecimal('5.767'), fromDecimal('5.770'), fromDecimal('0.001'))
+    expect(bad.ok).toBe(false)
+    expect(bad.findings[0]?.code).toBe('timing.cross-check')
+  })
+
+  it('finds the class from a measured mass where a profile defines classes', () => {
+    const classes = [{ label: 'open', maxKg: null }, { label: 'up to 150 kg', maxKg: 150 }, { label: 'up to 300 kg', maxKg: 300 }]
+    expect(massClass(classes, 150)?.label).toBe('up to 150 kg')
+    expect(massClass(classes, 150.1)?.label).toBe('up to 300 kg')
+    expect(massClass(classes, 900)?.label).toBe('open')
+    expect(massClass(null, 100)).toBeNull()
+  })
+})
