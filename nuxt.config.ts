@@ -26,7 +26,8 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     databaseUrl: '',
-    publicUrl: 'http://localhost:3000',
+    siteUrl: 'http://localhost:3000',
+    public: { inboxUrl: '' },
     seedDemo: false,
     mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>' },
     session: {

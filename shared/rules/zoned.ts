@@ -46,3 +46,16 @@ export function addDays(date: string, days: number): string {
   const [y, m, d] = date.split('-').map(Number) as [number, number, number]
   return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10)
 }
+
+/** The instant of a wall-clock time ("YYYY-MM-DDTHH:MM[:SS[.fff]]") in a time zone, epoch ms. */
+export function localToInstant(local: string, timeZone: string): number {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,3}))?)?$/.exec(local)
+  if (!m) throw new SyntaxError(`not a local date and time: ${local}`)
+  const [y, mo, d, h, mi] = m.slice(1, 6).map(Number) as [number, number, number, number, number]
+  const s = Number(m[6] ?? 0)
+  const ms = Number((m[7] ?? '0').padEnd(3, '0'))
+  const guess = Date.UTC(y, mo - 1, d, h, mi, s, ms)
+  let t = guess - offsetMs(guess, timeZone)
+  t = guess - offsetMs(t, timeZone)
+  return t
+}

@@ -1,0 +1,4 @@
+export default defineNuxtRouteMiddleware(() => {
+  const { user } = useUserSession()
+  if (!user.value?.isAdmin) return navigateTo('/home')
+})

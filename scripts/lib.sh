@@ -1,0 +1,110 @@
+# Shared by start.sh and test.sh: dependencies, a private PostgreSQL cluster on 127.0.0.1, migrations.
+# Everything here prints what it does and stops with a readable message when it cannot.
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+DATA="$ROOT/.data"
+mkdir -p "$DATA"
+
+say() { printf '\033[1;36m[trapline]\033[0m %s\n' "$*"; }
+die() { printf '\033[1;31m[trapline] cannot continue:\033[0m %s\n' "$*" >&2; exit 1; }
+
+port_busy() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+free_port() { # first free port from $1 upwards
+  local p=$1
+  while port_busy "$p"; do p=$((p + 1)); done
+  echo "$p"
+}
+
+ensure_node_modules() {
+  if [ ! -x "$ROOT/node_modules/.bin/nuxt" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    say "installing npm dependencies (npm ci)…"
+    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error) || die "npm ci failed; see the messages above."
+  fi
+}
+
+apt_install() { # apt_install PACKAGE…
+  command -v apt-get >/dev/null || die "apt-get is not available to install $*; install it by hand."
+  local sudo=""
+  [ "$(id -u)" -eq 0 ] || sudo="sudo"
+  say "installing $* from Debian's packages…"
+  $sudo apt-get update -qq >/dev/null 2>&1 || true
+  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq "$@" >/dev/null || die "apt-get could not install $*."
+}
+
+ensure_postgres() {
+  PGBIN="$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1)"
+  if [ -z "$PGBIN" ] || [ ! -x "$PGBIN/initdb" ]; then
+    apt_install postgresql
+    PGBIN="$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1)"
+    [ -x "$PGBIN/initdb" ] || die "PostgreSQL's server binaries are still missing after installing."
+  fi
+  export PGBIN
+}
+
+# PostgreSQL refuses to run as root; as root we run it as the postgres user, who must be able to
+# reach the data folder. Where it cannot, the cluster lives under the system's temporary folder.
+as_pg() { if [ "$(id -u)" -eq 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi; }
+
+cluster_dir() { # cluster_dir NAME
+  local dir="$DATA/pg-$1"
+  if [ "$(id -u)" -eq 0 ] && ! runuser -u postgres -- test -x "$DATA"; then
+    local hash
+    hash="$(printf '%s' "$ROOT" | sha1sum | cut -c1-12)"
+    dir="${TMPDIR:-/tmp}/trapline-$hash/pg-$1"
+  fi
+  echo "$dir"
+}
+
+pg_running() { as_pg "$PGBIN/pg_ctl" -D "$1" status >/dev/null 2>&1; }
+
+# pg_up NAME PORT: initialise the cluster once, then start it on 127.0.0.1:PORT (TCP only).
+pg_up() {
+  local name=$1 port=$2 dir
+  dir="$(cluster_dir "$name")"
+  PGDIR="$dir"
+  if [ ! -f "$dir/PG_VERSION" ]; then
+    say "creating a private PostgreSQL cluster in $dir…"
+    mkdir -p "$dir"
+    [ "$(id -u)" -eq 0 ] && chown -R postgres:postgres "$(dirname "$dir")"
+    as_pg "$PGBIN/initdb" -D "$dir" --auth=trust -E UTF8 --locale=C.UTF-8 -U postgres >"$DATA/initdb-$name.log" 2>&1 \
+      || die "initdb failed; see $DATA/initdb-$name.log"
+  fi
+  if pg_running "$dir"; then
+    say "PostgreSQL ($name) is already running."
+  else
+    port_busy "$port" && die "port $port on 127.0.0.1 is taken by another program; set TRAPLINE_PG_PORT to a free port."
+    say "starting PostgreSQL ($name) on 127.0.0.1:$port…"
+    as_pg "$PGBIN/pg_ctl" -D "$dir" -w -t 60 -l "$dir/server.log" \
+      -o "-c listen_addresses=127.0.0.1 -p $port -c unix_socket_directories='' -c fsync=${PG_FSYNC:-on}" start >/dev/null \
+      || die "PostgreSQL did not start; see $dir/server.log"
+  fi
+  "$PGBIN/pg_isready" -h 127.0.0.1 -p "$port" -t 30 >/dev/null || die "PostgreSQL does not answer on port $port."
+}
+
+pg_down() { # pg_down NAME
+  local dir
+  dir="$(cluster_dir "$1")"
+  if [ -f "$dir/PG_VERSION" ] && pg_running "$dir"; then
+    say "stopping PostgreSQL ($1)…"
+    as_pg "$PGBIN/pg_ctl" -D "$dir" -m fast -w stop >/dev/null 2>&1 || true
+  fi
+}
+
+ensure_database() { # ensure_database PORT NAME
+  local exists
+  exists="$("$PGBIN/psql" -h 127.0.0.1 -p "$1" -U postgres -tAc "select 1 from pg_database where datname='$2'" postgres 2>/dev/null || true)"
+  [ -n "$exists" ] || "$PGBIN/createdb" -h 127.0.0.1 -p "$1" -U postgres "$2" || die "could not create database $2."
+}
+
+migrate() { # migrate DATABASE_URL
+  say "applying database migrations…"
+  (cd "$ROOT" && DATABASE_URL="$1" node node_modules/drizzle-kit/bin.cjs migrate >"$DATA/migrate.log" 2>&1) \
+    || { cat "$DATA/migrate.log" >&2; die "migrations failed."; }
+}
+
+secret_file() { # secret_file NAME: a random 64-hex secret kept under .data, made once
+  local f="$DATA/$1"
+  [ -s "$f" ] || { node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" >"$f"; chmod 600 "$f"; }
+  cat "$f"
+}

@@ -1,0 +1,19 @@
+import { eq } from 'drizzle-orm'
+import { forgotSchema } from '#shared/schemas/auth'
+
+// public route: always the same answer, so it does not tell which addresses have accounts.
+export default defineEventHandler(async (event) => {
+  const { email } = await validBody(event, forgotSchema)
+  const [user] = await useDb().select().from(tables.users).where(eq(tables.users.email, email))
+  if (user) {
+    const token = await issueToken(user.id, 'reset')
+    await sendMail({
+      to: user.email,
+      subject: 'Trapline: set a new password',
+      text: `Hello ${user.name},\n\nSomeone asked to reset the Trapline password of this address. If it was you, `
+        + `set a new password with this link (valid for 1 hour, usable once):\n\n${linkFor(token)}\n\nIf not, ignore this message.\n`,
+    })
+  }
+  setResponseStatus(event, 202)
+  return { message: 'If this address has an account, a link to set a new password is on its way.' }
+})

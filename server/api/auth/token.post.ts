@@ -1,0 +1,10 @@
+import { setPasswordSchema } from '#shared/schemas/auth'
+
+// public route: the holder of a single-use link sets a password and is signed in.
+export default defineEventHandler(async (event) => {
+  const { token, password, name } = await validBody(event, setPasswordSchema)
+  const user = await spendToken(token, await hashPassword(password), name)
+  const sessionUser = { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }
+  await setUserSession(event, { user: sessionUser, loggedInAt: new Date().toISOString() })
+  return { user: sessionUser }
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const access = await requireEventRole(event, 'any', { admin: true })
+  return eventOverview(access)
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const { eventId } = await requireEventRole(event, ['organiser'], { admin: true })
+  return peopleAt(eventId)
+})

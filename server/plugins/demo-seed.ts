@@ -1,0 +1,4 @@
+export default defineNitroPlugin(() => {
+  const { seedDemo } = useRuntimeConfig()
+  if (seedDemo === true || String(seedDemo) === 'true') startDemoSeed()
+})

@@ -1,0 +1,59 @@
+import { and, eq } from 'drizzle-orm'
+import type { EventRole } from '../database/schema'
+import { roleLabels } from '#shared/schemas/events'
+
+interface Invitation {
+  eventId: number
+  email: string
+  name: string
+  role: EventRole
+  teamName?: string
+  invitedBy: number | null
+}
+
+/**
+ * Gives a person a role at an event, creating the account if it is new, and e-mails them: an
+ * invitation link to set a password when they have none yet, else a note of the new role.
+ */
+export async function invitePerson(inv: Invitation) {
+  const db = useDb()
+  const { users, memberships, teams, events } = tables
+  const result = await db.transaction(async (tx) => {
+    const [event] = await tx.select({ name: events.name }).from(events).where(eq(events.id, inv.eventId))
+    if (!event) throw createError({ statusCode: 404, statusMessage: 'No such event' })
+    await tx.insert(users).values({ email: inv.email, name: inv.name }).onConflictDoNothing()
+    const [user] = await tx.select().from(users).where(eq(users.email, inv.email))
+    let teamId: number | null = null
+    if (inv.role === 'team' && inv.teamName) {
+      await tx.insert(teams).values({ eventId: inv.eventId, name: inv.teamName }).onConflictDoNothing()
+      const [team] = await tx.select({ id: teams.id }).from(teams).where(and(eq(teams.eventId, inv.eventId), eq(teams.name, inv.teamName)))
+      teamId = team!.id
+    }
+    const inserted = await tx.insert(memberships)
+      .values({ eventId: inv.eventId, userId: user!.id, role: inv.role, teamId, invitedBy: inv.invitedBy })
+      .onConflictDoNothing()
+      .returning({ id: memberships.id })
+    if (!inserted.length) {
+      throw createError({ statusCode: 409, statusMessage: `${inv.email} already holds the role of ${inv.role} at this event` })
+    }
+    return { user: user!, membershipId: inserted[0]!.id, eventName: event.name }
+  })
+
+  const role = roleLabels[inv.role].toLowerCase()
+  if (!result.user.passwordHash) {
+    const token = await issueToken(result.user.id, 'invite')
+    await sendMail({
+      to: inv.email,
+      subject: `Trapline: you are invited as ${role} at ${result.eventName}`,
+      text: `Hello ${result.user.name},\n\nYou have been invited to ${result.eventName} on Trapline as ${role}.\n`
+        + `Set your password with this link (valid for 7 days, usable once):\n\n${linkFor(token)}\n`,
+    })
+  } else {
+    await sendMail({
+      to: inv.email,
+      subject: `Trapline: you are now ${role} at ${result.eventName}`,
+      text: `Hello ${result.user.name},\n\nYou now hold the role of ${role} at ${result.eventName} on Trapline. Sign in as usual to see what is next.\n`,
+    })
+  }
+  return { userId: result.user.id, membershipId: result.membershipId, invited: !result.user.passwordHash }
+}
