@@ -1,4 +1,5 @@
-// Run-time values come from NUXT_* variables (see scripts/env.sh); nothing here reads process.env.
+// Run-time values come from NUXT_* variables set by scripts/start.sh and the tests. The only
+// build-time variable is the output folder, so the tests build beside a running npm start.
 export default defineNuxtConfig({
   compatibilityDate: '2026-06-01',
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
@@ -35,5 +36,6 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
   },
+  nitro: process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {},
   typescript: { strict: true },
 })

@@ -3,7 +3,8 @@ import { fileURLToPath } from 'node:url'
 
 const shared = fileURLToPath(new URL('./shared', import.meta.url))
 
-// Three projects: pure unit tests, API tests against the built server and PostgreSQL, browser tests.
+// Two projects: pure unit tests, and end-to-end tests (API and browser) against the built server
+// and a real PostgreSQL, started once by the global setup.
 export default defineConfig({
   resolve: { alias: { '#shared': shared } },
   test: {
@@ -12,19 +13,8 @@ export default defineConfig({
       {
         extends: true,
         test: {
-          name: 'api',
-          include: ['tests/api/**/*.test.ts'],
-          globalSetup: ['tests/support/global-setup.ts'],
-          testTimeout: 30_000,
-          hookTimeout: 120_000,
-          fileParallelism: false,
-        },
-      },
-      {
-        extends: true,
-        test: {
-          name: 'browser',
-          include: ['tests/browser/**/*.test.ts'],
+          name: 'e2e',
+          include: ['tests/api/**/*.test.ts', 'tests/browser/**/*.test.ts'],
           globalSetup: ['tests/support/global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,

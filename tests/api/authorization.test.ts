@@ -1,0 +1,86 @@
+import { readdirSync } from 'node:fs'
+import { join, relative, resolve } from 'node:path'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { call, demoEmail, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
+
+// Every API route file × every role and anonymous → the expected status. A route file with no entry
+// here fails the first test, so no route is ever forgotten. "outsider" holds a role at another
+// event only: the demo event's routes must answer 404 to them.
+const WHO = ['anonymous', 'admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official', 'outsider'] as const
+type Who = (typeof WHO)[number]
+
+const all = (status: number) => Object.fromEntries(WHO.map(w => [w, status])) as Record<Who, number>
+const signedIn = (status: number) => ({ ...all(status), anonymous: 401 })
+const eventMembers = (status: number) => ({ ...signedIn(status), outsider: 404 })
+const organiserOnly = (status: number) => ({ ...eventMembers(403), admin: status, organiser: status })
+const adminOnly = (status: number) => ({ ...signedIn(403), admin: status })
+
+// Bodies are empty on purpose: past the role check a write answers 422, which shows the gate let it through.
+const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
+  'GET /api/health': { expect: all(200) },
+  'GET /api/profiles': { expect: all(200) },
+  'POST /api/calculator': { expect: all(422), body: {} },
+  'POST /api/auth/login': { expect: all(422), body: {} },
+  'POST /api/auth/logout': { expect: all(204) },
+  'POST /api/auth/forgot': { expect: all(422), body: {} },
+  'GET /api/auth/token': { expect: all(422) },
+  'POST /api/auth/token': { expect: all(422), body: {} },
+  'POST /api/auth/password': { expect: signedIn(422), body: {} },
+  'GET /api/me': { expect: signedIn(200) },
+  'GET /api/home': { expect: signedIn(200) },
+  'GET /api/events': { expect: signedIn(200) },
+  'POST /api/events': { expect: adminOnly(422), body: {} },
+  'GET /api/events/[id]': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/people': { expect: organiserOnly(200) },
+  'POST /api/events/[id]/people': { expect: organiserOnly(422), body: {} },
+}
+
+function routeFiles(): string[] {
+  const dir = resolve(import.meta.dirname, '../../server/api')
+  const walk = (d: string): string[] => readdirSync(d, { withFileTypes: true })
+    .flatMap(e => (e.isDirectory() ? walk(join(d, e.name)) : [join(d, e.name)]))
+  return walk(dir).map((f) => {
+    const m = /^(.*?)\.(get|post|patch|put|delete)\.ts$/.exec(relative(dir, f))
+    if (!m) throw new Error(`route file without a method in its name: ${f}`)
+    const path = `/api/${m[1]!.replace(/(^|\/)index$/, '')}`.replace(/\/$/, '')
+    return `${m[2]!.toUpperCase()} ${path}`
+  })
+}
+
+describe('authorization table', async () => {
+  await useTestServer()
+  const cookies = {} as Record<Who, string>
+  let eventId = 0
+
+  beforeAll(async () => {
+    for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
+    cookies.anonymous = ''
+    const events = await call<{ id: number; name: string }[]>('GET', '/api/events', { cookie: cookies.organiser })
+    eventId = events.body[0]!.id
+    // The outsider: organiser of a second event created by the site administrator, signed in through the invitation.
+    const email = unique('outsider')
+    const created = await call('POST', '/api/events', {
+      cookie: cookies.admin,
+      body: { name: 'Second test event', venue: 'Test course', startsOn: '2026-09-01', endsOn: '2026-09-02', timeZone: 'UTC', profileId: 'intl-automobile', organiserEmail: email, organiserName: 'Outside Organiser' },
+    })
+    expect(created.status).toBe(201)
+    const token = linkToken((await mailTo(email, 'invited')).text)
+    const set = await call('POST', '/api/auth/token', { body: { token, password: 'outsider-password-1' } })
+    expect(set.status).toBe(200)
+    cookies.outsider = await login(email, 'outsider-password-1')
+  })
+
+  it('has an entry for every route file, and no entry without a file', () => {
+    expect(routeFiles().sort()).toEqual(Object.keys(TABLE).sort())
+  })
+
+  for (const [route, spec] of Object.entries(TABLE)) {
+    for (const who of WHO) {
+      it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
+        const [method, path] = route.split(' ') as [string, string]
+        const r = await call(method, path.replace('[id]', String(eventId)), { cookie: cookies[who], body: spec.body })
+        expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
+      })
+    }
+  }
+})

@@ -1,0 +1,55 @@
+import { $fetch as testFetch, setup, url } from '@nuxt/test-utils/e2e'
+import { inject } from 'vitest'
+import demo from '../../server/database/demo-people.json'
+
+/** Every API test targets the one server the global setup started, through @nuxt/test-utils. */
+export async function useTestServer() {
+  await setup({ host: inject('baseUrl') })
+}
+
+export { testFetch, url }
+export const DEMO_PASSWORD = demo.password
+export const demoEmail = (role: string) => demo.people.find(p => (role === 'admin' ? p.admin : p.role === role))!.email
+
+export interface Reply<T = any> {
+  status: number
+  body: T
+  headers: Headers
+}
+
+/** A raw request: the status and body whatever they are, with an optional session cookie. */
+export async function call<T = any>(method: string, path: string, options: { body?: unknown; cookie?: string; raw?: string } = {}): Promise<Reply<T>> {
+  const headers: Record<string, string> = {}
+  if (options.cookie) headers.cookie = options.cookie
+  let body: string | undefined
+  if (options.raw !== undefined) { body = options.raw; headers['content-type'] = 'application/json' }
+  else if (options.body !== undefined) { body = JSON.stringify(options.body); headers['content-type'] = 'application/json' }
+  const r = await fetch(url(path), { method, headers, body, redirect: 'manual' })
+  const text = await r.text()
+  let parsed: unknown = text
+  try { parsed = text ? JSON.parse(text) : null } catch { /* not JSON */ }
+  return { status: r.status, body: parsed as T, headers: r.headers }
+}
+
+export async function login(email: string, password = DEMO_PASSWORD): Promise<string> {
+  const r = await call('POST', '/api/auth/login', { body: { email, password } })
+  if (r.status !== 200) throw new Error(`sign-in of ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
+  return r.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+}
+
+interface CaughtMail { id: string; to: string; subject: string; text: string }
+
+/** The newest message the mail catcher holds for an address, waiting briefly for it. */
+export async function mailTo(address: string, subjectHas = ''): Promise<CaughtMail> {
+  for (let i = 0; i < 50; i++) {
+    const list = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as CaughtMail[]
+    const hit = list.find(m => m.to.includes(address) && m.subject.includes(subjectHas))
+    if (hit) return hit
+    await new Promise(r => setTimeout(r, 100))
+  }
+  throw new Error(`no mail to ${address} with "${subjectHas}"`)
+}
+
+export const linkToken = (text: string) => /set-password\?token=([\w-]+)/.exec(text)?.[1] ?? ''
+
+export const unique = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}@example.test`
