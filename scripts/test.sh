@@ -29,6 +29,9 @@ if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server s
   say "built in $((SECONDS - build_start)) s"
 fi
 
+say "type-checking…"
+node_modules/.bin/nuxt typecheck >"$DATA/typecheck.log" 2>&1 || { cat "$DATA/typecheck.log" >&2; die "type errors; see above."; }
+
 say "running the tests…"
 node node_modules/vitest/vitest.mjs run "$@"
 say "npm test took $((SECONDS - started)) s"

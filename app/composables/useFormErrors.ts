@@ -27,5 +27,5 @@ export function useFormErrors() {
     if (issue) fields[path] = issue.message
     else delete fields[path]
   }
-  return { fields, general, clear, take, check }
+  return reactive({ fields, general, clear, take, check })
 }

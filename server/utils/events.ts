@@ -34,7 +34,7 @@ export async function listEventsFor(user: User) {
   return db.select(cols).from(events).where(inArray(events.id, mine)).orderBy(asc(events.startsOn))
 }
 
-export async function createEvent(input: z.infer<typeof createEventSchema>, adminId: number) {
+export async function createEventWithOrganiser(input: z.infer<typeof createEventSchema>, adminId: number) {
   const { organiserEmail, organiserName, ...fields } = input
   const [created] = await useDb().insert(tables.events)
     .values({ ...fields, profile: copyProfile(profiles[input.profileId]), createdBy: adminId })

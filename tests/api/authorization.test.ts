@@ -3,6 +3,8 @@ import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { call, demoEmail, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
 
+await useTestServer()
+
 // Every API route file × every role and anonymous → the expected status. A route file with no entry
 // here fails the first test, so no route is ever forgotten. "outsider" holds a role at another
 // event only: the demo event's routes must answer 404 to them.
@@ -47,8 +49,7 @@ function routeFiles(): string[] {
   })
 }
 
-describe('authorization table', async () => {
-  await useTestServer()
+describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
 

@@ -3,7 +3,7 @@ import { createEventSchema } from '#shared/schemas/events'
 export default defineEventHandler(async (event) => {
   const admin = await requireAdmin(event)
   const input = await validBody(event, createEventSchema)
-  const created = await createEvent(input, admin.id)
+  const created = await createEventWithOrganiser(input, admin.id)
   setResponseStatus(event, 201)
   return created
 })
