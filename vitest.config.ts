@@ -9,7 +9,7 @@ export default defineConfig({
   resolve: { alias: { '#shared': shared } },
   test: {
     projects: [
-      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', benchmark: { include: ['tests/bench/**/*.bench.ts'] } } },
       {
         extends: true,
         test: {

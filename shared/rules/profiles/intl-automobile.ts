@@ -30,7 +30,7 @@ export const intlAutomobile: RuleProfile = {
   },
   margin: {
     value: { percent: 1, inclusive: true },
-    source: 'at least 1 % over the standing record: 1983 case reported by a motor-sport magazine',
+    source: '1983 case reported by a motor-sport magazine',
     certainty: 'seen',
   },
   gradientMaxPercent: { value: null, source: 'straight course; no gradient limit known', certainty: 'from memory' },
