@@ -1,6 +1,6 @@
 import pg from 'pg'
 import { afterAll, describe, expect, inject, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
+import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 
 await useTestServer()
 
@@ -32,6 +32,18 @@ describe('sign-in', () => {
     expect(cookie).toMatch(/HttpOnly/i)
     expect(cookie).toMatch(/SameSite=Lax/i)
     expect(cookie).not.toContain(DEMO_PASSWORD)
+    // Served over plain http here, so not Secure (a browser on the timing-hut network must keep it).
+    expect(cookie).not.toMatch(/;\s*Secure/i)
+  })
+
+  it('marks the cookie Secure when the request came over https through a proxy', async () => {
+    const r = await fetch(url('/api/auth/login'), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'x-forwarded-proto': 'https' },
+      body: JSON.stringify({ email: demoEmail('timekeeper'), password: DEMO_PASSWORD }),
+    })
+    expect(r.status).toBe(200)
+    expect(r.headers.getSetCookie().join('\n')).toMatch(/;\s*Secure/i)
   })
 
   it('accepts the address in any case', async () => {

@@ -13,7 +13,5 @@ export default defineEventHandler(async (event) => {
   const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, password) : (await verifyPassword(await decoyHash, password), false)
   await recordLoginAttempt(email, ok)
   if (!ok || !user) throw createError({ statusCode: 401, statusMessage: 'Wrong e-mail address or password' })
-  const sessionUser = { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }
-  await setUserSession(event, { user: sessionUser, loggedInAt: new Date().toISOString() })
-  return { user: sessionUser }
+  return { user: await signIn(event, user) }
 })

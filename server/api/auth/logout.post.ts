@@ -1,6 +1,6 @@
 // public route: signing out without a session is harmless.
 export default defineEventHandler(async (event) => {
-  await clearUserSession(event)
+  await signOut(event)
   setResponseStatus(event, 204)
   return null
 })

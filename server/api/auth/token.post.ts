@@ -4,7 +4,5 @@ import { setPasswordSchema } from '#shared/schemas/auth'
 export default defineEventHandler(async (event) => {
   const { token, password, name } = await validBody(event, setPasswordSchema)
   const user = await spendToken(token, await hashPassword(password), name)
-  const sessionUser = { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }
-  await setUserSession(event, { user: sessionUser, loggedInAt: new Date().toISOString() })
-  return { user: sessionUser }
+  return { user: await signIn(event, user) }
 })
