@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
-  bigserial, boolean, date, index, integer, jsonb, numeric, pgEnum, pgTable, serial, text, timestamp, uniqueIndex,
+  bigint, bigserial, boolean, date, index, integer, jsonb, numeric, pgEnum, pgTable, serial, text, timestamp, uniqueIndex,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
 
@@ -10,6 +10,11 @@ export const eventRole = pgEnum('event_role', ['organiser', 'timekeeper', 'scrut
 export const tokenPurpose = pgEnum('token_purpose', ['invite', 'reset'])
 export const powerSource = pgEnum('power_source', ['electric', 'combustion', 'hybrid'])
 export const streamlining = pgEnum('streamlining', ['none', 'partial', 'full'])
+export const startKind = pgEnum('start_kind', ['flying', 'standing'])
+export const systemRole = pgEnum('system_role', ['primary', 'backup'])
+export const runDirection = pgEnum('run_direction', ['out', 'back'])
+export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
+export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened'])
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),
@@ -82,6 +87,8 @@ export const courses = pgTable('courses', {
   /** Direction of travel of the "out" runs, degrees from true north. */
   headingDeg: numeric('heading_deg', { precision: 6, scale: 2 }).notNull(),
   surface: text('surface').notNull(),
+  /** From the survey certificate: how far a measured distance may differ from its nominal length. */
+  surveyToleranceMm: integer('survey_tolerance_mm').notNull().default(10),
   createdAt: createdAt(),
 })
 
@@ -112,6 +119,130 @@ export const riders = pgTable('riders', {
   licenceExpires: date('licence_expires').notNull(),
   createdAt: createdAt(),
 })
+
+/** A measured distance between two traps of one course (flying kilometre, flying mile, standing start). */
+export const measuredDistances = pgTable('measured_distances', {
+  id: serial('id').primaryKey(),
+  courseId: integer('course_id').notNull().references(() => courses.id),
+  label: text('label').notNull(),
+  start: startKind('start').notNull(),
+  nominalM: numeric('nominal_m', { precision: 12, scale: 3 }).notNull(),
+  entryTrapId: integer('entry_trap_id').notNull().references(() => traps.id),
+  exitTrapId: integer('exit_trap_id').notNull().references(() => traps.id),
+}, t => [uniqueIndex('distances_course_label').on(t.courseId, t.label)])
+
+export const timingSystems = pgTable('timing_systems', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  name: text('name').notNull(),
+  role: systemRole('role').notNull(),
+  /** Resolution: 1000 is 1/1000 s. Readings are kept as integers of these ticks. */
+  ticksPerSecond: integer('ticks_per_second').notNull(),
+  description: text('description').notNull().default(''),
+  /** The equipment's stated agreement with an independent system, seconds. */
+  toleranceS: numeric('tolerance_s', { precision: 8, scale: 6 }).notNull(),
+  calibratedOn: date('calibrated_on').notNull(),
+  calibrationExpires: date('calibration_expires').notNull(),
+}, t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role)])
+
+/** The organiser's copy of the record book: the standing record per class and distance. */
+export const standingRecords = pgTable('standing_records', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  className: text('class_name').notNull(),
+  distanceLabel: text('distance_label').notNull(),
+  speedKmh: numeric('speed_kmh', { precision: 10, scale: 3 }).notNull(),
+  setOn: date('set_on'),
+  note: text('note').notNull().default(''),
+}, t => [uniqueIndex('standing_records_event_class_distance').on(t.eventId, t.className, t.distanceLabel)])
+
+/** A machine and rider entered for a record: a class at a measured distance. */
+export const entries = pgTable('entries', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  teamId: integer('team_id').notNull().references(() => teams.id),
+  machineId: integer('machine_id').notNull().references(() => machines.id),
+  riderId: integer('rider_id').notNull().references(() => riders.id),
+  className: text('class_name').notNull(),
+  distanceId: integer('distance_id').notNull().references(() => measuredDistances.id),
+  createdAt: createdAt(),
+})
+
+/** A pair of runs under the profile frozen when the attempt opened. */
+export const attempts = pgTable('attempts', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  entryId: integer('entry_id').notNull().references(() => entries.id),
+  profile: jsonb('profile').$type<RuleProfile>().notNull(),
+  createdAt: createdAt(),
+})
+
+export const runs = pgTable('runs', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
+  direction: runDirection('direction').notNull(),
+  startedAt: timestamp('started_at', { withTimezone: true }).notNull(),
+  status: runStatus('status').notNull().default('open'),
+  abortedReason: text('aborted_reason'),
+  abortedBy: integer('aborted_by').references(() => users.id),
+  createdBy: integer('created_by').notNull().references(() => users.id),
+  createdAt: createdAt(),
+}, t => [index('runs_event').on(t.eventId)])
+
+/**
+ * A trap time of one timing system, as integer ticks since local midnight of the run's day.
+ * Never updated: a correction is a new row naming the one it supersedes, with a reason.
+ */
+export const readings = pgTable('readings', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  runId: integer('run_id').notNull().references(() => runs.id),
+  trapId: integer('trap_id').notNull().references(() => traps.id),
+  systemId: integer('system_id').notNull().references(() => timingSystems.id),
+  ticks: bigint('ticks', { mode: 'bigint' }).notNull(),
+  supersedesId: bigint('supersedes_id', { mode: 'number' }),
+  reason: text('reason'),
+  enteredBy: integer('entered_by').notNull().references(() => users.id),
+  enteredAt: timestamp('entered_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  index('readings_run').on(t.runId),
+  uniqueIndex('readings_supersedes_once').on(t.supersedesId),
+  uniqueIndex('readings_first_entry').on(t.runId, t.trapId, t.systemId).where(sql`supersedes_id is null`),
+])
+
+/** Weather at a run from the course anemometer; the latest reading of a run counts. */
+export const weather = pgTable('weather', {
+  id: serial('id').primaryKey(),
+  runId: integer('run_id').notNull().references(() => runs.id),
+  windSpeedMs: numeric('wind_speed_ms', { precision: 6, scale: 2 }).notNull(),
+  windFromDeg: numeric('wind_from_deg', { precision: 6, scale: 2 }).notNull(),
+  temperatureC: numeric('temperature_c', { precision: 5, scale: 1 }),
+  pressureHpa: numeric('pressure_hpa', { precision: 6, scale: 1 }),
+  enteredBy: integer('entered_by').notNull().references(() => users.id),
+  enteredAt: timestamp('entered_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/**
+ * One signing mechanism for everything signed: who, when, the typed name, and the SHA-256 of the
+ * record's canonical content (kept beside it). PostgreSQL refuses UPDATE and DELETE of these rows.
+ */
+export const signatures = pgTable('signatures', {
+  id: serial('id').primaryKey(),
+  kind: signedKind('kind').notNull(),
+  subjectId: integer('subject_id').notNull(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  signerId: integer('signer_id').notNull().references(() => users.id),
+  typedName: text('typed_name').notNull(),
+  content: jsonb('content').notNull(),
+  contentSha256: text('content_sha256').notNull(),
+  /** Why a signed record is superseded or reopened. */
+  reason: text('reason'),
+  supersedesId: integer('supersedes_id'),
+  signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  index('signatures_subject').on(t.kind, t.subjectId),
+  uniqueIndex('signatures_supersedes_once').on(t.supersedesId),
+])
 
 export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect

@@ -1,7 +1,8 @@
-import { and, eq } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { EventRole } from '../database/schema'
 import { eventIdParams } from '#shared/schemas/events'
+import { idParams } from '#shared/schemas/event-day'
 
 /** Signed in, else 401. */
 export async function requireUser(event: H3Event) {
@@ -45,9 +46,35 @@ export async function requireEventRole(
     const found = await useDb().select({ id: tables.events.id }).from(tables.events).where(eq(tables.events.id, eventId))
     if (found.length) return { user, eventId, roles, teamIds, asAdmin: true }
   }
-  if (!roles.length) throw createError({ statusCode: 404, statusMessage: 'No such event' })
-  if (allowed !== 'any' && !roles.some(r => allowed.includes(r))) {
+  return gate({ user, eventId, roles, teamIds, asAdmin: false }, allowed, 'No such event')
+}
+
+function gate(access: EventAccess, allowed: readonly EventRole[] | 'any', notFound: string): EventAccess {
+  if (!access.roles.length) throw createError({ statusCode: 404, statusMessage: notFound })
+  if (allowed !== 'any' && !access.roles.some(r => allowed.includes(r))) {
     throw createError({ statusCode: 403, statusMessage: `This needs the role of ${allowed.join(' or ')} at this event` })
   }
-  return { user, eventId, roles, teamIds, asAdmin: false }
+  return access
+}
+
+const OWNER = {
+  run: sql`select event_id from runs where id = `,
+  attempt: sql`select event_id from attempts where id = `,
+  reading: sql`select r.event_id from readings x join runs r on r.id = x.run_id where x.id = `,
+} as const
+
+/**
+ * The same question for a record that belongs to an event (a run, an attempt, a reading) named by
+ * the route's `id`: the user's roles at the record's event, found in one query; none is 404.
+ */
+export async function requireRoleOn(event: H3Event, kind: keyof typeof OWNER, allowed: readonly EventRole[] | 'any'): Promise<EventAccess & { recordId: number }> {
+  const user = await requireUser(event)
+  const { id } = validParams(event, idParams)
+  const { rows } = await useDb().execute<{ event_id: number; role: EventRole; team_id: number | null }>(sql`
+    select m.event_id, m.role, m.team_id from memberships m
+    where m.user_id = ${user.id} and m.event_id = (${OWNER[kind]}${id})`)
+  const access = gate({
+    user, eventId: rows[0]?.event_id ?? 0, roles: rows.map(r => r.role), teamIds: rows.flatMap(r => (r.team_id ? [r.team_id] : [])), asAdmin: false,
+  }, allowed, `No such ${kind}`)
+  return { ...access, recordId: id }
 }

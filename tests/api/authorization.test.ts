@@ -16,6 +16,8 @@ const signedIn = (status: number) => ({ ...all(status), anonymous: 401 })
 const eventMembers = (status: number) => ({ ...signedIn(status), outsider: 404 })
 const organiserOnly = (status: number) => ({ ...eventMembers(403), admin: status, organiser: status })
 const adminOnly = (status: number) => ({ ...signedIn(403), admin: status })
+/** Only these roles at the event; the site administrator holds no role there, so 404. */
+const rolesOnly = (status: number, ...roles: Who[]) => ({ ...eventMembers(403), admin: 404, ...Object.fromEntries(roles.map(r => [r, status])) })
 
 // Bodies are empty on purpose: past the role check a write answers 422, which shows the gate let it through.
 const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
@@ -35,6 +37,25 @@ const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
   'GET /api/events/[id]': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/people': { expect: organiserOnly(200) },
   'POST /api/events/[id]/people': { expect: organiserOnly(422), body: {} },
+  'POST /api/events/[id]/courses': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/traps': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/distances': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/timing-systems': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/records': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'PUT /api/events/[id]/profile': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/entries': { expect: rolesOnly(422, 'team'), body: {} },
+  'GET /api/events/[id]/setup': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/live': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/run-sheet': { expect: rolesOnly(200, 'timekeeper', 'organiser', 'official') },
+  'POST /api/events/[id]/runs': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/events/[id]/imports': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/runs/[id]/readings': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/runs/[id]/abort': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/runs/[id]/weather': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/readings/[id]/corrections': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/attempts/[id]/signatures': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'POST /api/attempts/[id]/reopen': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'GET /api/attempts/[id]/timing-sheet': { expect: { ...eventMembers(200), admin: 404 } },
 }
 
 function routeFiles(): string[] {
@@ -52,12 +73,17 @@ function routeFiles(): string[] {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
+  const ids = { runs: 0, readings: 0, attempts: 0 }
 
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
     cookies.anonymous = ''
     const events = await call<{ id: number; name: string }[]>('GET', '/api/events', { cookie: cookies.organiser })
     eventId = events.body[0]!.id
+    const sheet = await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookies.timekeeper })
+    ids.attempts = sheet.body.attempts[0].id
+    ids.runs = sheet.body.attempts[0].runs[0].id
+    ids.readings = sheet.body.history[0].id
     // The outsider: organiser of a second event created by the site administrator, signed in through the invitation.
     const email = unique('outsider')
     const created = await call('POST', '/api/events', {
@@ -79,7 +105,8 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const r = await call(method, path.replace('[id]', String(eventId)), { cookie: cookies[who], body: spec.body })
+        const owner = /^\/api\/(runs|readings|attempts)\//.exec(path)?.[1] as keyof typeof ids | undefined
+        const r = await call(method, path.replace('[id]', String(owner ? ids[owner] : eventId)), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })
     }

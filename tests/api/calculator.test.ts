@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { call, useTestServer } from '../support/api'
+import { call, testFetch, useTestServer } from '../support/api'
 
 await useTestServer()
 
@@ -27,6 +27,14 @@ describe('POST /api/calculator', () => {
     expect(r.body.windowOk).toBe(true)
     // 633.468 over 630.388 is 0.49 %: under the 1 % margin of the automobile profile (1983 case, motor-sport magazine).
     expect(r.body.beatsRecord).toBe(false)
+  })
+
+  it('answers through @nuxt/test-utils $fetch as well', async () => {
+    // 1000 m in 10 s is 100 m/s = 360 km/h exactly, 223.693… mph (360 / 1.609344).
+    const r = await testFetch<{ runs: { speedKmh: string; speedMph: string }[] }>('/api/calculator', {
+      method: 'POST', body: { profile: 'intl-motorcycle', distanceM: 1000, runs: [{ direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: 10 }] },
+    })
+    expect(r.runs[0]).toEqual({ direction: 'out', elapsedS: '10.000', speedKmh: '360.000', speedMph: '223.693' })
   })
 
   it('with one run gives the longest return time that beats the record, and null results', async () => {

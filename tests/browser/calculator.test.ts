@@ -1,6 +1,6 @@
 import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
-import { launchBrowser } from '../support/browser'
+import { launchBrowser, open } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { ctx = await launchBrowser() })
@@ -8,8 +8,7 @@ afterAll(async () => { await ctx?.close() })
 
 it('computes the 1983 flying mile as one types, without signing in', async () => {
   // Source: 1983 land speed record (Royal Automobile Club and others): 5.767 s and 5.599 s → 633.468 mph.
-  const page = await (ctx.browser as BrowserContext).newPage()
-  await page.goto(`${ctx.baseUrl}/calculator`)
+  const page = await open(ctx.browser as BrowserContext, `${ctx.baseUrl}/calculator`)
   await page.selectOption('#c-profile', 'intl-automobile')
   await page.selectOption('#c-distance', '1609.344')
   await page.getByRole('button', { name: 'mph' }).click()

@@ -1,7 +1,7 @@
 import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
-import { launchBrowser } from '../support/browser'
+import { launchBrowser, open } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { ctx = await launchBrowser() })
@@ -10,8 +10,7 @@ afterAll(async () => { await ctx?.close() })
 async function signIn(email: string, password: string) {
   const context = ctx.browser as BrowserContext
   await context.clearCookies()
-  const page = await context.newPage()
-  await page.goto(`${ctx.baseUrl}/login`)
+  const page = await open(context, `${ctx.baseUrl}/login`)
   await page.fill('#email', email)
   await page.fill('#password', password)
   await page.click('button[type=submit]')

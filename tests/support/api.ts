@@ -1,4 +1,4 @@
-import { $fetch as testFetch, setup, url } from '@nuxt/test-utils/e2e'
+import { $fetch as testFetch, setup } from '@nuxt/test-utils/e2e'
 import { inject } from 'vitest'
 import demo from '../../server/database/demo-people.json'
 
@@ -7,7 +7,10 @@ export async function useTestServer() {
   await setup({ host: inject('baseUrl') })
 }
 
-export { testFetch, url }
+export { testFetch }
+
+/** An address on the test server; usable in any hook (the test-utils context exists only inside tests). */
+export const url = (path: string) => new URL(path, inject('baseUrl')).toString()
 export const DEMO_PASSWORD = demo.password
 export const demoEmail = (role: string) => demo.people.find(p => (role === 'admin' ? p.admin : p.role === role))!.email
 

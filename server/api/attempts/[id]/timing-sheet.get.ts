@@ -1,0 +1,15 @@
+// The printable timing sheet: its canonical content now, and each signature with whether the
+// content it signed still hashes to what was stored.
+export default defineEventHandler(async (event) => {
+  const { recordId, eventId } = await requireRoleOn(event, 'attempt', 'any')
+  const day = await loadEventDay(eventId, { history: true })
+  const content = timingSheetContent(day, recordId)
+  const nowHash = sha256(canonicalJson(content))
+  const signatures = day.signatures.filter(x => x.s.subjectId === recordId).map(x => ({
+    id: x.s.id, kind: x.s.kind, by: x.signerName, typedName: x.s.typedName, at: x.s.signedAt, reason: x.s.reason,
+    sha256: x.s.contentSha256,
+    storedContentMatches: sha256(canonicalJson(x.s.content)) === x.s.contentSha256,
+    matchesCurrent: x.s.contentSha256 === nowHash,
+  }))
+  return { content, sha256: nowHash, signatures, sheet: sheetState(day, recordId) }
+})

@@ -1,0 +1,13 @@
+// The timekeeper's sheet: every reading with its corrections, newest state computed.
+export default defineEventHandler(async (event) => {
+  const { eventId } = await requireEventRole(event, ['timekeeper', 'organiser', 'official'])
+  const day = await loadEventDay(eventId, { history: true })
+  return {
+    now: new Date().toISOString(),
+    attempts: computeLive(day),
+    history: day.readings.map(r => ({ ...r, ticks: r.ticks.toString() })),
+    entries: day.entries.map(e => ({ id: e.entry.id, teamName: e.teamName, machineName: e.machine.name, riderName: e.rider.name, className: e.entry.className, distanceId: e.entry.distanceId })),
+    traps: day.traps,
+    systems: day.systems,
+  }
+})

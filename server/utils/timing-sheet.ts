@@ -1,0 +1,77 @@
+import { createHash } from 'node:crypto'
+import { eq, sql } from 'drizzle-orm'
+import { formatTimeOfDay } from '#shared/rules/timing'
+import type { EventDay } from './event-day-load'
+import { computeLive } from './live'
+
+export const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
+
+/** The canonical content of an attempt's timing sheet: every reading with its history, and the result. */
+export function timingSheetContent(day: EventDay, attemptId: number) {
+  const attempt = day.attempts.find(a => a.id === attemptId)
+  if (!attempt) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  const live = computeLive({ ...day, attempts: [attempt] })[0]!
+  const trapLabel = new Map(day.traps.map(t => [t.id, t.label]))
+  const system = new Map(day.systems.map(s => [s.id, s]))
+  const runs = day.runs.filter(r => r.attemptId === attemptId)
+  return {
+    attempt: attemptId,
+    event: { id: day.event.id, name: day.event.name, timeZone: day.event.timeZone },
+    entry: live.entry,
+    profile: attempt.profile,
+    timingSystems: day.systems.map(s => ({ id: s.id, name: s.name, role: s.role, ticksPerSecond: s.ticksPerSecond, calibratedOn: s.calibratedOn, calibrationExpires: s.calibrationExpires })),
+    runs: runs.map(r => ({
+      id: r.id, direction: r.direction, startedAt: r.startedAt.toISOString(), status: r.status, abortedReason: r.abortedReason,
+      readings: day.readings.filter(x => x.runId === r.id).map(x => ({
+        id: x.id, trap: trapLabel.get(x.trapId), system: system.get(x.systemId)!.name,
+        time: formatTimeOfDay(x.ticks, BigInt(system.get(x.systemId)!.ticksPerSecond)), ticks: x.ticks.toString(),
+        supersedes: x.supersedesId, reason: x.reason, enteredBy: x.enteredBy, enteredAt: x.enteredAt.toISOString(),
+      })),
+      official: live.runs.find(lr => lr.id === r.id)?.official ?? null,
+    })),
+    result: live.result,
+    window: live.window,
+    findings: live.findings.map(f => f.code),
+  }
+}
+
+/** Locks the attempt row so that signing and entering readings never interleave. */
+export async function lockAttempt(tx: Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0], attemptId: number) {
+  await tx.execute(sql`select id from attempts where id = ${attemptId} for update`)
+  const { rows } = await tx.execute<{ kind: string }>(sql`select kind from signatures where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by id desc limit 1`)
+  return { signed: rows[0]?.kind === 'timing-sheet' }
+}
+
+export async function assertPassword(userId: number, password: string) {
+  const [user] = await useDb().select().from(tables.users).where(eq(tables.users.id, userId))
+  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, password))) {
+    throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'password: is not your password; nothing was signed', data: { issues: [{ path: 'password', message: 'is not your password; nothing was signed' }] } })
+  }
+}
+
+/** Signs (or reopens) the timing sheet of an attempt: who, when, typed name, SHA-256 of the content. */
+export async function signTimingSheet(input: { eventId: number; attemptId: number; userId: number; password: string; typedName: string; reopen?: string }) {
+  await assertPassword(input.userId, input.password)
+  return useDb().transaction(async (tx) => {
+    const { signed } = await lockAttempt(tx, input.attemptId)
+    if (input.reopen ? !signed : signed) {
+      throw createError({ statusCode: 409, statusMessage: input.reopen ? 'The timing sheet is not signed, so there is nothing to reopen' : 'The timing sheet is already signed; reopen it with a reason to correct it' })
+    }
+    const day = await loadEventDay(input.eventId, { history: true })
+    const content = timingSheetContent(day, input.attemptId)
+    const text = canonicalJson(content)
+    const previous = day.signatures.filter(x => x.s.subjectId === input.attemptId).at(-1)
+    const [row] = await tx.insert(tables.signatures).values({
+      kind: input.reopen ? 'timing-sheet-reopened' : 'timing-sheet',
+      subjectId: input.attemptId,
+      eventId: input.eventId,
+      signerId: input.userId,
+      typedName: input.typedName,
+      content,
+      contentSha256: sha256(text),
+      reason: input.reopen ?? null,
+      supersedesId: previous?.s.id ?? null,
+    }).returning()
+    return { id: row!.id, kind: row!.kind, sha256: row!.contentSha256, signedAt: row!.signedAt }
+  })
+}

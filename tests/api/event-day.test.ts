@@ -1,0 +1,207 @@
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { call, demoEmail, DEMO_PASSWORD, login, useTestServer } from '../support/api'
+
+await useTestServer()
+const db = new pg.Client({ connectionString: inject('databaseUrl') })
+await db.connect()
+afterAll(() => db.end())
+
+let eventId = 0
+const cookie = {} as Record<'organiser' | 'timekeeper' | 'team' | 'team2' | 'official', string>
+let setup: any
+const trapId = (label: string) => setup.courses[0].traps.find((t: { label: string }) => t.label === label).id
+const system = (role: string) => setup.systems.find((s: { role: string }) => s.role === role)
+
+beforeAll(async () => {
+  for (const who of ['organiser', 'timekeeper', 'official'] as const) cookie[who] = await login(demoEmail(who))
+  cookie.team = await login('team@trapline.test')
+  cookie.team2 = await login('team2@trapline.test')
+  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
+})
+
+/** Starts a run for an entry and enters the four traps on one system, given as times of day. */
+async function runWith(entryId: number, direction: 'out' | 'back', times: Record<string, string>, role = 'primary') {
+  const run = await call('POST', `/api/events/${eventId}/runs`, { cookie: cookie.timekeeper, body: { entryId, direction, startedAt: new Date().toISOString() } })
+  expect(run.status).toBe(201)
+  for (const [label, time] of Object.entries(times)) {
+    const r = await call('POST', `/api/runs/${run.body.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId(label), systemId: system(role).id, time } })
+    expect(r.status, JSON.stringify(r.body)).toBe(201)
+  }
+  return run.body as { id: number; attemptId: number }
+}
+
+const live = async () => (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body.attempts as any[]
+
+describe('the demo attempt', () => {
+  it('computed from the stored readings equals POST /api/calculator for the same times', async () => {
+    const attempt = (await live()).find(a => a.runs.length === 2 && a.entry.distanceLabel === 'Flying mile')
+    expect(attempt.result).not.toBeNull()
+    const calc = await call('POST', '/api/calculator', {
+      body: {
+        profile: 'intl-motorcycle', distanceM: 1609.344, recordKmh: Number(attempt.standingRecordKmh),
+        runs: attempt.runs.map((r: any) => ({ direction: r.direction, startedAt: r.startedAt, elapsedS: r.official.timeS })),
+      },
+    })
+    expect(calc.status).toBe(200)
+    expect(attempt.result.kmh).toBe(calc.body.resultKmh)
+    expect(attempt.result.mph).toBe(calc.body.resultMph)
+    expect(attempt.beatsRecord).toBe(calc.body.beatsRecord)
+    expect(attempt.runs.map((r: any) => r.official.kmh)).toEqual(calc.body.runs.map((r: any) => r.speedKmh))
+    // Both timing systems agree within their stated tolerance on every run.
+    expect(attempt.runs.every((r: any) => r.crossChecks.length === 2 && r.crossChecks.every((c: any) => c.ok))).toBe(true)
+    // Wind resolved against the heading: 2.4 m/s from 200° on heading 172° is a head-wind of 2.4·cos 28° = 2.119 m/s.
+    expect(attempt.runs[0].wind.headMs).toBeCloseTo(2.4 * Math.cos((28 * Math.PI) / 180), 9)
+  })
+
+  it('a first run alone shows the return-run target and the window deadline', async () => {
+    const attempt = (await live()).find(a => a.runs.length === 1 && a.entry.distanceLabel === 'Flying kilometre')
+    expect(attempt.returnTargetS).toMatch(/^\d+\.\d{4}$/)
+    expect(attempt.window.deadline).toBe(new Date(Date.parse(attempt.runs[0].startedAt) + 120 * 60_000).toISOString())
+  })
+})
+
+describe('the run sheet', () => {
+  it('appends corrections, keeps the history, and refuses a second correction of the same value', async () => {
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const run = await runWith(entryId, 'back', { 'K-out': '11:00:00.0000', 'K-in': '11:00:10.7000' })
+    const dup = await call('POST', `/api/runs/${run.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId('K-out'), systemId: system('primary').id, time: '11:00:00.0001' } })
+    expect(dup.status).toBe(409)
+    const sheet = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.timekeeper })).body
+    const reading = sheet.history.find((h: any) => h.runId === run.id && h.trapId === trapId('K-in'))
+    const body = { time: '11:00:10.7123', reason: 'misread the printout', expectedCurrentId: reading.id }
+    const first = await call('POST', `/api/readings/${reading.id}/corrections`, { cookie: cookie.timekeeper, body })
+    expect(first.status).toBe(201)
+    const second = await call('POST', `/api/readings/${reading.id}/corrections`, { cookie: cookie.timekeeper, body: { ...body, time: '11:00:10.7999' } })
+    expect(second.status).toBe(409)
+    expect(second.body.data.current.id).toBe(String(first.body.id)) // the value that is current now
+    const after = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.timekeeper })).body
+    const cell = after.history.filter((h: any) => h.runId === run.id && h.trapId === trapId('K-in'))
+    expect(cell.map((h: any) => [h.ticks, h.current, h.reason])).toEqual([['396107000', false, null], ['396107123', true, 'misread the printout']])
+    // 1000 m in 10.7123 s = 336.063… km/h (3.6 × 1000 / 10.7123), truncated.
+    const lr = after.attempts.flatMap((a: any) => a.runs).find((r: any) => r.id === run.id)
+    expect(lr.official).toMatchObject({ timeS: '10.7123', kmh: '336.062' })
+    // Readings are append-only in PostgreSQL itself.
+    await expect(db.query('update readings set ticks = 1 where id = $1', [reading.id])).rejects.toThrow(/append-only/)
+    await expect(db.query('delete from readings where id = $1', [reading.id])).rejects.toThrow(/append-only/)
+  })
+
+  it('flags times out of order and implausible speeds beside the reading', async () => {
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const run = await runWith(entryId, 'out', { 'M-in': '12:00:00.0000', 'K-in': '11:59:59.0000', 'K-out': '12:00:01.0000' })
+    const lr = (await live()).flatMap(a => a.runs).find(r => r.id === run.id)
+    const codes = lr.findings.map((f: any) => `${f.code}@${f.trapId}`)
+    expect(codes).toContain(`reading.out-of-order@${trapId('K-in')}`)
+    // 1000 m in 2 s is 1800 km/h: beyond any land speed record.
+    expect(codes).toContain(`reading.implausible-speed@${trapId('K-out')}`)
+  })
+
+  it('refuses a reading for a trap of another course with 422 naming the field', async () => {
+    const course = await call('POST', `/api/events/${eventId}/courses`, { cookie: cookie.organiser, body: { name: 'South course', headingDeg: '10', surface: 'clay', surveyToleranceMm: 10 } })
+    expect(course.status).toBe(201)
+    const trap = await call('POST', `/api/events/${eventId}/traps`, { cookie: cookie.organiser, body: { courseId: course.body.id, label: 'S1', positionM: '100', elevationM: '1180' } })
+    const runId = (await live())[0].runs[0].id
+    const r = await call('POST', `/api/runs/${runId}/readings`, { cookie: cookie.timekeeper, body: { trapId: trap.body.id, systemId: system('primary').id, time: '10:00:00.0000' } })
+    expect(r.status).toBe(422)
+    expect(r.body.data.issues[0].path).toBe('trapId')
+  })
+
+  it('refuses a measured distance that does not match the survey', async () => {
+    const r = await call('POST', `/api/events/${eventId}/distances`, {
+      cookie: cookie.organiser,
+      body: { courseId: setup.courses[0].id, label: 'Bad mile', start: 'flying', nominalM: '1609.000', entryTrapId: trapId('M-in'), exitTrapId: trapId('M-out') },
+    })
+    expect(r.status).toBe(422)
+    expect(r.body.data.issues[0].path).toBe('nominalM')
+    expect(r.body.data.issues[0].message).toMatch(/344 mm from the nominal/)
+    // The demo mile is surveyed exactly; its gradient is (1187.339 − 1187.412) / 1609.344 = −0.0045 %.
+    expect(setup.distances.find((d: any) => d.label === 'Flying mile').check).toMatchObject({ differenceMm: '0', gradientPercent: '-0.0045', withinTolerance: true })
+  })
+})
+
+describe('signing the timing sheet', () => {
+  it('locks the readings, keeps every signature, and can be reopened with a reason', async () => {
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Larkspur LS-3 streamliner').id
+    const run = await runWith(entryId, 'out', { 'M-in': '13:00:00.0000', 'M-out': '13:00:14.6000' })
+    const wrong = await call('POST', `/api/attempts/${run.attemptId}/signatures`, { cookie: cookie.timekeeper, body: { password: 'not-it', typedName: 'Tobias Tick' } })
+    expect(wrong.status).toBe(422)
+    expect(wrong.body.data.issues[0].path).toBe('password')
+    const signed = await call('POST', `/api/attempts/${run.attemptId}/signatures`, { cookie: cookie.timekeeper, body: { password: DEMO_PASSWORD, typedName: 'Tobias Tick' } })
+    expect(signed.status).toBe(201)
+    expect(signed.body.sha256).toMatch(/^[0-9a-f]{64}$/)
+
+    const late = await call('POST', `/api/runs/${run.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId('K-in'), systemId: system('primary').id, time: '13:00:02.0000' } })
+    expect(late.status).toBe(409)
+    const again = await call('POST', `/api/attempts/${run.attemptId}/signatures`, { cookie: cookie.timekeeper, body: { password: DEMO_PASSWORD, typedName: 'Tobias Tick' } })
+    expect(again.status).toBe(409)
+    await expect(db.query(`update signatures set typed_name = 'X' where id = $1`, [signed.body.id])).rejects.toThrow(/append-only/)
+
+    const reopened = await call('POST', `/api/attempts/${run.attemptId}/reopen`, { cookie: cookie.timekeeper, body: { password: DEMO_PASSWORD, typedName: 'Tobias Tick', reason: 'kilometre traps were left out' } })
+    expect(reopened.status).toBe(201)
+    expect((await call('POST', `/api/runs/${run.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId('K-in'), systemId: system('primary').id, time: '13:00:02.0000' } })).status).toBe(201)
+    const resigned = await call('POST', `/api/attempts/${run.attemptId}/signatures`, { cookie: cookie.timekeeper, body: { password: DEMO_PASSWORD, typedName: 'Tobias Tick' } })
+    expect(resigned.status).toBe(201)
+
+    const sheet = await call('GET', `/api/attempts/${run.attemptId}/timing-sheet`, { cookie: cookie.official })
+    expect(sheet.body.signatures.map((s: any) => [s.kind, s.storedContentMatches, s.matchesCurrent])).toEqual([
+      ['timing-sheet', true, false], ['timing-sheet-reopened', true, false], ['timing-sheet', true, true],
+    ])
+    expect(sheet.body.sha256).toBe(resigned.body.sha256)
+  })
+})
+
+describe('CSV import', () => {
+  let runId = 0
+  let freshRunId = 0
+  const count = async () => Number((await db.query('select count(*) from readings')).rows[0].count)
+  beforeAll(async () => {
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    runId = (await runWith(entryId, 'out', {})).id
+    freshRunId = (await runWith(entryId, 'back', {})).id
+  })
+  const send = (csv: string, commit = false, columns = { run: 'run', trap: 'trap', time: 'time' }) =>
+    call('POST', `/api/events/${eventId}/imports`, { cookie: cookie.timekeeper, body: { csv, columns, systemId: system('backup').id, commit } })
+
+  it('previews a valid file, then writes every row', async () => {
+    const csv = `run,trap,time\n${runId},M-in,14:00:00.000\n${runId},K-in,14:00:03.250\n${runId},K-out,14:00:13.960\n${runId},M-out,14:00:17.210\n`
+    const before = await count()
+    const preview = await send(csv)
+    expect(preview.status).toBe(200)
+    expect(preview.body).toMatchObject({ ok: true, written: 0 })
+    expect(preview.body.rows).toHaveLength(4)
+    expect(await count()).toBe(before)
+    const written = await send(csv, true)
+    expect(written.body.written).toBe(4)
+    expect(await count()).toBe(before + 4)
+  })
+
+  it.each([
+    ['the wrong delimiter', (id: number) => `run;trap;time\n${id};M-in;14:00:00.000`, { line: 1, column: 'run', message: /delimiter/ }],
+    ['a missing column', (id: number) => `run,trap\n${id},M-in`, { line: 1, column: 'time', message: /missing/ }],
+    ['an unknown run', (id: number) => `run,trap,time\n${id},M-in,15:00:00.000\n999999,K-in,15:00:03.000`, { line: 3, column: 'run', message: /no run "999999"/ }],
+    ['an impossible time', (id: number) => `run,trap,time\n${id},M-in,15:00:00.000\n${id},K-in,25:61:00.000`, { line: 3, column: 'time', message: /out of range/ }],
+  ])('refuses a file with %s, naming line and column, and writes nothing', async (_what, make, expected) => {
+    const before = await count()
+    const r = await send(make(freshRunId), true)
+    expect(r.status).toBe(422)
+    expect(r.body.written).toBe(0)
+    expect(r.body.errors[0]).toMatchObject({ line: expected.line, column: expected.column })
+    expect(r.body.errors[0].message).toMatch(expected.message)
+    expect(await count()).toBe(before)
+  })
+})
+
+describe('entries', () => {
+  it('a team enters a new machine and rider; another team\'s machine is refused', async () => {
+    const distanceId = setup.distances[0].id
+    const ok = await call('POST', `/api/events/${eventId}/entries`, {
+      cookie: cookie.team2,
+      body: { machine: { name: 'Ember Mk III', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId },
+    })
+    expect(ok.status).toBe(201)
+    const other = await call('POST', `/api/events/${eventId}/entries`, { cookie: cookie.team, body: { machineId: ok.body.machineId, riderId: ok.body.riderId, className: 'x', distanceId } })
+    expect(other.status).toBe(422)
+    expect(other.body.data.issues[0].path).toBe('machineId')
+  })
+})
