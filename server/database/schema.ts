@@ -36,6 +36,8 @@ export const events = pgTable('events', {
   profileId: text('profile_id').notNull(),
   /** The rule profile in force, frozen when the event was created or its profile last set. */
   profile: jsonb('profile').$type<RuleProfile>().notNull(),
+  /** Bumped by triggers whenever anything the live results read changes (drizzle/0002). */
+  dataVersion: bigint('data_version', { mode: 'number' }).notNull().default(0),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),
 })

@@ -18,7 +18,7 @@ export function sheetState(day: EventDay, attemptId: number) {
 }
 
 /** Computes every run and attempt of the event from its stored readings with the shared engine. */
-export function computeLive(day: EventDay) {
+export function computeLive(day: EventDay, options: { readings?: boolean } = {}) {
   const entryById = new Map(day.entries.map(e => [e.entry.id, e]))
   const distanceById = new Map(day.distances.map(d => [d.id, d]))
   const courseById = new Map(day.courses.map(c => [c.id, c]))
@@ -77,13 +77,9 @@ export function computeLive(day: EventDay) {
         abortedReason: run.abortedReason,
         counted: counted.slice(0, 2).some(x => x.run.id === run.id),
         official: official ? c.systems.find(s => s.systemId === official.systemId)!.distances.find(d => d.distanceId === distance.id)! : null,
-        systems: c.systems.map(s => ({
-          systemId: s.systemId,
-          role: s.role,
-          segments: s.segments.map(({ exactS: _, ...x }) => x),
-          distances: s.distances.map(({ exactS: _, ...x }) => x),
-        })),
-        readings: readings.map(r => ({ id: r.id, trapId: r.trapId, systemId: r.systemId, time: formatTimeOfDay(r.ticks, tpsOf.get(r.systemId)!) })),
+        /** Segment speeds of the primary system along the course, for the chart. */
+        segments: (c.systems.find(s => s.role === 'primary') ?? c.systems[0])?.segments.map(({ exactS: _, ...x }) => x) ?? [],
+        readings: options.readings ? readings.map(r => ({ id: r.id, trapId: r.trapId, systemId: r.systemId, time: formatTimeOfDay(r.ticks, tpsOf.get(r.systemId)!) })) : [],
         crossChecks: c.crossChecks,
         wind: c.wind,
         weather: weather ? { windSpeedMs: weather.windSpeedMs, windFromDeg: weather.windFromDeg, temperatureC: weather.temperatureC, pressureHpa: weather.pressureHpa } : null,

@@ -10,7 +10,7 @@ export const sha256 = (text: string) => createHash('sha256').update(text).digest
 export function timingSheetContent(day: EventDay, attemptId: number) {
   const attempt = day.attempts.find(a => a.id === attemptId)
   if (!attempt) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
-  const live = computeLive({ ...day, attempts: [attempt] })[0]!
+  const live = computeLive({ ...day, attempts: [attempt] }, { readings: true })[0]!
   const trapLabel = new Map(day.traps.map(t => [t.id, t.label]))
   const system = new Map(day.systems.map(s => [s.id, s]))
   const runs = day.runs.filter(r => r.attemptId === attemptId)

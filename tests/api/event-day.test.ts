@@ -1,6 +1,6 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, login, useTestServer } from '../support/api'
+import { call, demoEmail, DEMO_PASSWORD, login, url, useTestServer } from '../support/api'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -32,7 +32,7 @@ async function runWith(entryId: number, direction: 'out' | 'back', times: Record
   return run.body as { id: number; attemptId: number }
 }
 
-const live = async () => (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body.attempts as any[]
+const live = async () => (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body as any[]
 
 describe('the demo attempt', () => {
   it('computed from the stored readings equals POST /api/calculator for the same times', async () => {
@@ -59,6 +59,22 @@ describe('the demo attempt', () => {
     const attempt = (await live()).find(a => a.runs.length === 1 && a.entry.distanceLabel === 'Flying kilometre')
     expect(attempt.returnTargetS).toMatch(/^\d+\.\d{4}$/)
     expect(attempt.window.deadline).toBe(new Date(Date.parse(attempt.runs[0].startedAt) + 120 * 60_000).toISOString())
+  })
+})
+
+describe('polling the live results', () => {
+  it('answers 304 to an unchanged poll and 200 with a new ETag after a new reading', async () => {
+    const first = await fetch(url(`/api/events/${eventId}/live`), { headers: { cookie: cookie.team } })
+    const etag = first.headers.get('etag')!
+    expect(first.status).toBe(200)
+    expect(Date.parse(first.headers.get('date')!)).toBeGreaterThan(0)
+    const again = await fetch(url(`/api/events/${eventId}/live`), { headers: { cookie: cookie.team, 'if-none-match': etag } })
+    expect(again.status).toBe(304)
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    await runWith(entryId, 'out', { 'M-in': '16:00:00.0000' })
+    const changed = await fetch(url(`/api/events/${eventId}/live`), { headers: { cookie: cookie.team, 'if-none-match': etag } })
+    expect(changed.status).toBe(200)
+    expect(changed.headers.get('etag')).not.toBe(etag)
   })
 })
 

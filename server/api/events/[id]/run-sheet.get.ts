@@ -4,7 +4,7 @@ export default defineEventHandler(async (event) => {
   const day = await loadEventDay(eventId, { history: true })
   return {
     now: new Date().toISOString(),
-    attempts: computeLive(day),
+    attempts: computeLive(day, { readings: true }),
     history: day.readings.map(r => ({ ...r, ticks: r.ticks.toString() })),
     entries: day.entries.map(e => ({ id: e.entry.id, teamName: e.teamName, machineName: e.machine.name, riderName: e.rider.name, className: e.entry.className, distanceId: e.entry.distanceId })),
     traps: day.traps,

@@ -1,0 +1,35 @@
+#!/usr/bin/env bash
+# npm run bench: figures, never pass/fail. The engine (vitest bench), then 50 clients polling the
+# live results of an event with 200 runs and 2,000 readings against the built server and a
+# PostgreSQL cluster of its own.
+set -euo pipefail
+source "$(dirname "$0")/lib.sh"
+cd "$ROOT"
+ensure_node_modules
+ensure_postgres
+
+say "rules engine"
+node node_modules/vitest/vitest.mjs bench --run --project unit
+
+pg_down bench
+rm -rf "$(cluster_dir bench)"
+trap 'kill ${SERVER_PID:-0} 2>/dev/null || true; pg_down bench' EXIT
+PG_PORT="$(free_port 54500)"
+PG_FSYNC=off pg_up bench "$PG_PORT"
+ensure_database "$PG_PORT" trapline_bench
+DB="postgres://postgres@127.0.0.1:$PG_PORT/trapline_bench"
+migrate "$DB"
+
+export TRAPLINE_OUTPUT_DIR="$ROOT/.output-test"
+if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared nuxt.config.ts -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit)" ]; then
+  say "building…"
+  node_modules/.bin/nuxt build >"$DATA/bench-build.log" 2>&1 || die "the build failed; see $DATA/bench-build.log"
+fi
+APP_PORT="$(free_port 3400)"
+NUXT_DATABASE_URL="$DB" NUXT_SESSION_PASSWORD="bench-session-password-at-least-32-characters" NUXT_SEED_DEMO=true \
+  PORT="$APP_PORT" HOST=127.0.0.1 NUXT_MAIL_PORT=1 node "$TRAPLINE_OUTPUT_DIR/server/index.mjs" >"$DATA/bench-server.log" 2>&1 &
+SERVER_PID=$!
+for _ in $(seq 1 100); do curl -fs "http://127.0.0.1:$APP_PORT/api/health" >/dev/null 2>&1 && break; sleep 0.2; done
+
+say "live results under load"
+node scripts/bench/live-load.mjs --url "http://127.0.0.1:$APP_PORT" --db "$DB" --psql "$PGBIN/psql"

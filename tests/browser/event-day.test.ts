@@ -1,0 +1,61 @@
+import type { BrowserContext, Page } from 'playwright-core'
+import { afterAll, beforeAll, expect, it } from 'vitest'
+import demo from '../../server/database/demo-people.json'
+import { launchBrowser, open } from '../support/browser'
+
+// Two people at once, each in a browser of their own: the timekeeper in the hut, the team in the pits.
+let hut: Awaited<ReturnType<typeof launchBrowser>>
+let pits: Awaited<ReturnType<typeof launchBrowser>>
+beforeAll(async () => { [hut, pits] = await Promise.all([launchBrowser(), launchBrowser()]) })
+afterAll(async () => { await hut?.close(); await pits?.close() })
+
+async function signIn(ctx: Awaited<ReturnType<typeof launchBrowser>>, email: string) {
+  const page = await open(ctx.browser as BrowserContext, `${ctx.baseUrl}/login`)
+  await page.fill('#email', email)
+  await page.fill('#password', demo.password)
+  await page.click('button[type=submit]')
+  await page.waitForURL('**/home')
+  return page
+}
+
+/** Starts a run for the streamliner and types the primary system's four trap times, Enter after each. */
+async function enterRun(page: Page, direction: 'out' | 'back', times: string[]) {
+  await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
+  await page.selectOption('#sr-direction', direction)
+  await page.click('button:has-text("Start the run")')
+  await page.locator(`h2:has-text("· ${direction}")`).first().waitFor()
+  const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
+  await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
+  for (const [i, label] of order.entries()) {
+    await page.keyboard.type(times[i]!)
+    await page.keyboard.press('Enter')
+    await page.locator(`[data-test="value-${label}-primary"]`).waitFor()
+  }
+}
+
+it('the timekeeper enters two runs on the run sheet; the team sees the return-run target, then the two-way result', async () => {
+  const tk = await signIn(hut, 'timekeeper@trapline.test')
+  await tk.goto(`${hut.baseUrl}/events/1/run-sheet`)
+  await tk.waitForSelector('html[data-hydrated="true"]')
+  const team = await signIn(pits, 'team@trapline.test')
+  await team.goto(`${pits.baseUrl}/events/1/live`)
+  await team.waitForSelector('html[data-hydrated="true"]')
+  const before = await team.locator('article[data-test^="attempt-"]').count()
+
+  // Out: the mile in 14.5000 s (399.555… km/h); the kilometre inside it in 9.0000 s.
+  await enterRun(tk, 'out', ['10:00:00.0000', '10:00:02.7500', '10:00:11.7500', '10:00:14.5000'])
+  await expect.poll(() => team.locator('article[data-test^="attempt-"]').count(), { timeout: 10_000 }).toBe(before + 1)
+  const card = team.locator('article[data-test^="attempt-"]').first()
+  // Standing record 385.000 km/h (demo book): to exceed it, at least 385.001 km/h;
+  // t2 ≤ 2 × 1609.344 m / 385.001 km/h − 14.5 s = 15.59674… s → 15.5967 s at 1/10 000 s (checked with Python's fractions).
+  await expect.poll(() => card.locator('[data-test="live-target"]').innerText(), { timeout: 10_000 }).toContain('15.5967 s')
+  expect(await card.locator('[data-test="live-window"]').innerText()).toMatch(/window closes in\s+1 h 5\d min/i)
+
+  // Back: the mile in 14.3000 s. Mean 14.4000 s → 1609.344 / 14.4 × 3.6 = 402.336 km/h exactly.
+  await enterRun(tk, 'back', ['10:30:00.0000', '10:30:02.7000', '10:30:11.5500', '10:30:14.3000'])
+  await expect.poll(() => card.locator('[data-test="live-result"]').innerText(), { timeout: 10_000 }).toContain('402.336')
+  expect(await card.innerText()).toContain('Beats the standing record')
+  await team.getByRole('button', { name: 'mph' }).click()
+  // 402.336 km/h ÷ 1.609344 = 250.000 mph exactly (the mile in 14.4 s is 3600 / 14.4 mph).
+  await expect.poll(() => card.locator('[data-test="live-result"]').innerText()).toContain('250.000')
+})
