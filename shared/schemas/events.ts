@@ -35,3 +35,11 @@ export const inviteSchema = z.object({
 }).refine(x => x.role !== 'team' || !!x.teamName, { error: 'name the team this person enters for', path: ['teamName'] })
 
 export const eventIdParams = z.object({ id: z.coerce.number({ error: 'must be a number' }).int().positive() })
+
+export const updateEventSchema = z.object({
+  name: z.string().trim().min(3, { error: 'must be at least 3 characters' }).max(160).optional(),
+  venue: z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(160).optional(),
+  startsOn: day.optional(),
+  endsOn: day.optional(),
+  timeZone: timeZoneName.optional(),
+}).refine(x => !x.startsOn || !x.endsOn || x.endsOn >= x.startsOn, { error: 'must not be before the first day', path: ['endsOn'] })

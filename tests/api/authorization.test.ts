@@ -35,6 +35,7 @@ const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
   'GET /api/events': { expect: signedIn(200) },
   'POST /api/events': { expect: adminOnly(422), body: {} },
   'GET /api/events/[id]': { expect: { ...eventMembers(200), admin: 200 } },
+  'PATCH /api/events/[id]': { expect: organiserOnly(200), body: {} },
   'GET /api/events/[id]/people': { expect: organiserOnly(200) },
   'POST /api/events/[id]/people': { expect: organiserOnly(422), body: {} },
   'POST /api/events/[id]/courses': { expect: rolesOnly(422, 'organiser'), body: {} },

@@ -221,3 +221,14 @@ describe('entries', () => {
     expect(other.body.data.issues[0].path).toBe('machineId')
   })
 })
+
+describe('event details', () => {
+  it('the organiser changes the venue; a last day before the first is refused naming the field', async () => {
+    const ok = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue: 'Tamsel Flat dry lake (fictional), north shore' } })
+    expect(ok.status).toBe(200)
+    expect(ok.body.venue).toBe('Tamsel Flat dry lake (fictional), north shore')
+    const bad = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { endsOn: '2026-08-01' } })
+    expect(bad.status).toBe(422)
+    expect(bad.body.data.issues[0].path).toBe('endsOn')
+  })
+})
