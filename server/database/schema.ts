@@ -3,6 +3,7 @@ import {
   bigint, bigserial, boolean, date, index, integer, jsonb, numeric, pgEnum, pgTable, serial, text, timestamp, uniqueIndex,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
+import type { ChecklistTemplate } from '#shared/inspection/template'
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 
@@ -14,7 +15,8 @@ export const startKind = pgEnum('start_kind', ['flying', 'standing'])
 export const systemRole = pgEnum('system_role', ['primary', 'backup'])
 export const runDirection = pgEnum('run_direction', ['out', 'back'])
 export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
-export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened'])
+export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement'])
+export const itemResult = pgEnum('item_result', ['pass', 'fail', 'na'])
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),
@@ -239,12 +241,72 @@ export const signatures = pgTable('signatures', {
   contentSha256: text('content_sha256').notNull(),
   /** Why a signed record is superseded or reopened. */
   reason: text('reason'),
+  /** A signature drawn on a canvas, as a PNG data URL, when the signer drew one. */
+  drawingPng: text('drawing_png'),
   supersedesId: integer('supersedes_id'),
   signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [
   index('signatures_subject').on(t.kind, t.subjectId),
   uniqueIndex('signatures_supersedes_once').on(t.supersedesId),
 ])
+
+/** An event's copy of a checklist template, adapted by the organiser; versions are kept. */
+export const checklists = pgTable('checklists', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  baseId: text('base_id').notNull(),
+  content: jsonb('content').$type<ChecklistTemplate>().notNull(),
+  note: text('note').notNull().default(''),
+  createdBy: integer('created_by').notNull().references(() => users.id),
+  createdAt: createdAt(),
+})
+
+/**
+ * A technical inspection of an entry against the checklist version it used (kept in the row). A
+ * re-inspection is a new row pointing at the previous one. Signed rows are immutable (trigger).
+ */
+export const inspections = pgTable('inspections', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  entryId: integer('entry_id').notNull().references(() => entries.id),
+  checklist: jsonb('checklist').$type<ChecklistTemplate>().notNull(),
+  busVoltageV: numeric('bus_voltage_v', { precision: 7, scale: 1 }),
+  busKind: text('bus_kind'),
+  previousId: integer('previous_id'),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdBy: integer('created_by').notNull().references(() => users.id),
+  createdAt: createdAt(),
+}, t => [index('inspections_entry').on(t.entryId)])
+
+export const inspectionAnswers = pgTable('inspection_answers', {
+  id: serial('id').primaryKey(),
+  inspectionId: integer('inspection_id').notNull().references(() => inspections.id),
+  itemKey: text('item_key').notNull(),
+  result: itemResult('result').notNull(),
+  /** A measurement in the item's unit; `enteredAs` keeps what was typed. */
+  value: numeric('value', { precision: 16, scale: 6 }),
+  enteredAs: text('entered_as'),
+  note: text('note'),
+  updatedBy: integer('updated_by').notNull().references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [uniqueIndex('inspection_answers_item').on(t.inspectionId, t.itemKey)])
+
+/** An official's signed statement on an attempt; withdrawn only by a new signed statement. */
+export const statements = pgTable('witness_statements', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
+  authorId: integer('author_id').notNull().references(() => users.id),
+  runsSeen: text('runs_seen').notNull(),
+  position: text('position').notNull(),
+  conditions: text('conditions').notNull(),
+  irregularities: text('irregularities').notNull(),
+  /** For a withdrawal: the statement it withdraws and why. */
+  withdrawsId: integer('withdraws_id'),
+  reason: text('reason'),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+}, t => [uniqueIndex('statements_withdrawn_once').on(t.withdrawsId)])
 
 export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect

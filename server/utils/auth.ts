@@ -61,6 +61,9 @@ const OWNER = {
   run: sql`select event_id from runs where id = `,
   attempt: sql`select event_id from attempts where id = `,
   reading: sql`select r.event_id from readings x join runs r on r.id = x.run_id where x.id = `,
+  inspection: sql`select event_id from inspections where id = `,
+  statement: sql`select event_id from witness_statements where id = `,
+  signature: sql`select event_id from signatures where id = `,
 } as const
 
 /**

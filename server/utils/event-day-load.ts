@@ -40,9 +40,16 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
       .innerJoin(t.runs, eq(t.runs.id, t.weather.runId))
       .where(eq(t.runs.eventId, eventId))
       .orderBy(t.weather.runId, desc(t.weather.enteredAt), desc(t.weather.id)),
-    db.select({ s: t.signatures, signerName: t.users.name }).from(t.signatures)
+    db.select({
+      s: {
+        id: t.signatures.id, kind: t.signatures.kind, subjectId: t.signatures.subjectId, typedName: t.signatures.typedName,
+        signedAt: t.signatures.signedAt, contentSha256: t.signatures.contentSha256, reason: t.signatures.reason,
+      },
+      signerName: t.users.name,
+    }).from(t.signatures)
       .innerJoin(t.users, eq(t.users.id, t.signatures.signerId))
-      .where(eq(t.signatures.eventId, eventId)).orderBy(asc(t.signatures.id)),
+      .where(and(eq(t.signatures.eventId, eventId), inArray(t.signatures.kind, ['timing-sheet', 'timing-sheet-reopened'])))
+      .orderBy(asc(t.signatures.id)),
   ])
   return {
     event, courses, traps, distances, systems, records, attempts, runs, readings, signatures,

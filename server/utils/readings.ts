@@ -115,7 +115,7 @@ export async function importReadings(eventId: number, input: { csv: string; colu
       join entries e on e.id = a.entry_id join measured_distances d on d.id = e.distance_id where r.event_id = ${eventId}`),
     db.execute<{ id: number; course_id: number; label: string }>(sql`select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id where c.event_id = ${eventId}`),
     db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, eventId)),
-    db.execute<{ subject_id: number; kind: string }>(sql`select distinct on (subject_id) subject_id, kind from signatures where event_id = ${eventId} order by subject_id, id desc`),
+    db.execute<{ subject_id: number; kind: string }>(sql`select distinct on (subject_id) subject_id, kind from signatures where event_id = ${eventId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by subject_id, id desc`),
     db.execute<{ key: string }>(sql`select x.run_id || '/' || x.trap_id || '/' || x.system_id as key from readings x join runs r on r.id = x.run_id where r.event_id = ${eventId}`),
   ])
   const taken = new Set(existing.rows.map(r => r.key))

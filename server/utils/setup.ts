@@ -88,10 +88,12 @@ export async function startRun(eventId: number, input: { entryId: number; direct
   return useDb().transaction(async (tx) => {
     const [entry] = await tx.select().from(tables.entries).where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId))).for('update')
     if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
+    const clearance = (await clearanceOf([entry.id])).get(entry.id)!
+    if (!clearance.cleared) throw createError({ statusCode: 409, statusMessage: `This entry is not cleared to run: ${clearance.why}`, data: clearance })
     const [event] = await tx.select({ profile: tables.events.profile }).from(tables.events).where(eq(tables.events.id, eventId))
     const attempts = await tx.select().from(tables.attempts).where(eq(tables.attempts.entryId, entry.id))
     const runs = attempts.length ? await tx.select().from(tables.runs).where(inArray(tables.runs.attemptId, attempts.map(a => a.id))) : []
-    const signed = attempts.length ? await tx.select({ subjectId: tables.signatures.subjectId }).from(tables.signatures).where(inArray(tables.signatures.subjectId, attempts.map(a => a.id))) : []
+    const signed = attempts.length ? await tx.select({ subjectId: tables.signatures.subjectId }).from(tables.signatures).where(and(eq(tables.signatures.kind, 'timing-sheet'), inArray(tables.signatures.subjectId, attempts.map(a => a.id)))) : []
     const open = attempts.findLast(a => runs.filter(r => r.attemptId === a.id && r.status !== 'aborted').length < 2 && !signed.some(s => s.subjectId === a.id))
     const attemptId = open?.id ?? (await tx.insert(tables.attempts).values({ eventId, entryId: entry.id, profile: event!.profile }).returning())[0]!.id
     const [run] = await tx.insert(tables.runs).values({ eventId, attemptId, direction: input.direction, startedAt: new Date(input.startedAt), createdBy: userId }).returning()

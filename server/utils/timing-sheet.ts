@@ -1,10 +1,7 @@
-import { createHash } from 'node:crypto'
-import { eq, sql } from 'drizzle-orm'
+import { sql } from 'drizzle-orm'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import type { EventDay } from './event-day-load'
 import { computeLive } from './live'
-
-export const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
 
 /** The canonical content of an attempt's timing sheet: every reading with its history, and the result. */
 export function timingSheetContent(day: EventDay, attemptId: number) {
@@ -42,15 +39,8 @@ export async function lockAttempt(tx: Parameters<Parameters<ReturnType<typeof us
   return { signed: rows[0]?.kind === 'timing-sheet' }
 }
 
-export async function assertPassword(userId: number, password: string) {
-  const [user] = await useDb().select().from(tables.users).where(eq(tables.users.id, userId))
-  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, password))) {
-    throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'password: is not your password; nothing was signed', data: { issues: [{ path: 'password', message: 'is not your password; nothing was signed' }] } })
-  }
-}
-
 /** Signs (or reopens) the timing sheet of an attempt: who, when, typed name, SHA-256 of the content. */
-export async function signTimingSheet(input: { eventId: number; attemptId: number; userId: number; password: string; typedName: string; reopen?: string }) {
+export async function signTimingSheet(input: { eventId: number; attemptId: number; userId: number; password: string; typedName: string; reopen?: string; drawingPng?: string }) {
   await assertPassword(input.userId, input.password)
   return useDb().transaction(async (tx) => {
     const { signed } = await lockAttempt(tx, input.attemptId)
@@ -59,19 +49,12 @@ export async function signTimingSheet(input: { eventId: number; attemptId: numbe
     }
     const day = await loadEventDay(input.eventId, { history: true })
     const content = timingSheetContent(day, input.attemptId)
-    const text = canonicalJson(content)
-    const previous = day.signatures.filter(x => x.s.subjectId === input.attemptId).at(-1)
-    const [row] = await tx.insert(tables.signatures).values({
+    const previous = day.signatures.filter(x => x.s.subjectId === input.attemptId && x.s.kind.startsWith('timing-sheet')).at(-1)
+    const row = await insertSignature(tx, {
       kind: input.reopen ? 'timing-sheet-reopened' : 'timing-sheet',
-      subjectId: input.attemptId,
-      eventId: input.eventId,
-      signerId: input.userId,
-      typedName: input.typedName,
-      content,
-      contentSha256: sha256(text),
-      reason: input.reopen ?? null,
-      supersedesId: previous?.s.id ?? null,
-    }).returning()
-    return { id: row!.id, kind: row!.kind, sha256: row!.contentSha256, signedAt: row!.signedAt }
+      subjectId: input.attemptId, eventId: input.eventId, signerId: input.userId, typedName: input.typedName,
+      content, reason: input.reopen, supersedesId: previous?.s.id, drawingPng: input.drawingPng,
+    })
+    return { id: row.id, kind: row.kind, sha256: row.contentSha256, signedAt: row.signedAt }
   })
 }

@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, demoEmail, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
+import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
 
 await useTestServer()
 
@@ -57,6 +57,18 @@ const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
   'POST /api/attempts/[id]/signatures': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/attempts/[id]/reopen': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'GET /api/attempts/[id]/timing-sheet': { expect: { ...eventMembers(200), admin: 404 } },
+  'GET /api/events/[id]/checklists': { expect: { ...eventMembers(200), admin: 200 } },
+  'POST /api/events/[id]/checklists': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'GET /api/events/[id]/inspections': { expect: { ...eventMembers(200), admin: 200 } },
+  'POST /api/events/[id]/inspections': { expect: rolesOnly(422, 'scrutineer'), body: {} },
+  'GET /api/events/[id]/statements': { expect: { ...eventMembers(200), admin: 200 } },
+  'POST /api/events/[id]/statements': { expect: rolesOnly(422, 'official'), body: {} },
+  'POST /api/statements/[id]/withdrawals': { expect: rolesOnly(422, 'official'), body: {} },
+  'GET /api/inspections/[id]': { expect: { ...eventMembers(200), admin: 404 } },
+  'PATCH /api/inspections/[id]': { expect: rolesOnly(422, 'scrutineer'), body: {} },
+  'POST /api/inspections/[id]/answers': { expect: rolesOnly(422, 'scrutineer'), body: {} },
+  'POST /api/inspections/[id]/signatures': { expect: rolesOnly(422, 'scrutineer'), body: {} },
+  'GET /api/signatures/[id]': { expect: { ...eventMembers(200), admin: 404 } },
 }
 
 function routeFiles(): string[] {
@@ -74,7 +86,7 @@ function routeFiles(): string[] {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0 }
+  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0 }
 
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
@@ -85,6 +97,16 @@ describe('authorization table', () => {
     ids.attempts = sheet.body.attempts[0].id
     ids.runs = sheet.body.attempts[0].runs[0].id
     ids.readings = sheet.body.history[0].id
+    // The demo's first entry is the demo team's; its inspection is signed.
+    const inspections = await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookies.organiser })
+    ids.inspections = inspections.body.find((e: { team: string }) => e.team === 'Larkspur Works').inspectionId
+    ids.signatures = (await call('GET', `/api/inspections/${ids.inspections}`, { cookie: cookies.organiser })).body.signature.id
+    const statement = await call('POST', `/api/events/${eventId}/statements`, {
+      cookie: cookies.official,
+      body: { attemptId: ids.attempts, runsSeen: 'both', position: 'timing hut', conditions: 'calm', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' },
+    })
+    expect(statement.status).toBe(201)
+    ids.statements = statement.body.id
     // The outsider: organiser of a second event created by the site administrator, signed in through the invitation.
     const email = unique('outsider')
     const created = await call('POST', '/api/events', {
@@ -106,7 +128,7 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts)\//.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures)\//.exec(path)?.[1] as keyof typeof ids | undefined
         const r = await call(method, path.replace('[id]', String(owner ? ids[owner] : eventId)), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })

@@ -1,0 +1,8 @@
+// Who signed what and when, and whether the signed content still matches its hash, and whether the
+// record as it is now still hashes the same.
+export default defineEventHandler(async (event) => {
+  const { recordId, roles, teamIds } = await requireRoleOn(event, 'signature', 'any')
+  const report = await signatureReport(recordId)
+  if (roles.every(r => r === 'team') && !teamIds.includes(report.teamId)) throw createError({ statusCode: 404, statusMessage: 'No such signature' })
+  return report
+})

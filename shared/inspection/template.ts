@@ -1,0 +1,35 @@
+import type { Certainty } from '../rules/profile'
+
+export type ItemKind = 'check' | 'measure'
+
+/** What a measurement is checked against. */
+export type ItemLimit =
+  | { kind: 'max'; value: number }
+  | { kind: 'min'; value: number }
+  /** Isolation resistance per volt of the bus: at least dc Ω/V on a DC bus, ac Ω/V on an AC bus. */
+  | { kind: 'isolation-per-volt'; dc: number; ac: number }
+
+export interface ChecklistItem {
+  key: string
+  label: string
+  kind: ItemKind
+  /** Unit of a measurement as stored; entries in other units of the same quantity are converted. */
+  unit?: 'Ω' | 'kg' | 's'
+  limit?: ItemLimit
+  /** Items that may be marked not applicable (e.g. canopy exit on an unstreamlined machine). */
+  allowNotApplicable?: boolean
+  source: string
+  certainty: Certainty
+}
+
+export interface ChecklistSection { title: string; items: ChecklistItem[] }
+
+export interface ChecklistTemplate {
+  id: string
+  version: number
+  name: string
+  power: 'electric' | 'combustion'
+  sections: ChecklistSection[]
+}
+
+export const CHECKLIST_CAUTION = 'This checklist is a template. The applicable rulebook, the chief scrutineer and qualified high-voltage practice decide; Trapline records the inspection, it does not certify safety.'

@@ -1,0 +1,160 @@
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { allItems } from '#shared/inspection/evaluate'
+import { electricMotorcycle } from '#shared/inspection/templates'
+import { call, demoEmail, DEMO_PASSWORD, login, useTestServer } from '../support/api'
+
+await useTestServer()
+const db = new pg.Client({ connectionString: inject('databaseUrl') })
+await db.connect()
+afterAll(() => db.end())
+
+const cookie = {} as Record<'organiser' | 'scrutineer' | 'timekeeper' | 'team' | 'team2' | 'official', string>
+let eventId = 0
+let entryId = 0
+
+beforeAll(async () => {
+  for (const who of ['organiser', 'scrutineer', 'timekeeper', 'official'] as const) cookie[who] = await login(demoEmail(who))
+  cookie.team = await login('team@trapline.test')
+  cookie.team2 = await login('team2@trapline.test')
+  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.team2 })).body
+  const entry = await call('POST', `/api/events/${eventId}/entries`, {
+    cookie: cookie.team2,
+    body: { machine: { name: 'Ember Lite', power: 'electric', declaredMassKg: '180.0', division: 'partial' }, rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: '2027-12-31' }, className: 'Electric, partially streamlined', distanceId: setup.distances[1].id },
+  })
+  expect(entry.status).toBe(201)
+  entryId = entry.body.id
+})
+
+const answer = (id: number, body: Record<string, unknown>) => call('POST', `/api/inspections/${id}/answers`, { cookie: cookie.scrutineer, body })
+const startRun = () => call('POST', `/api/events/${eventId}/runs`, { cookie: cookie.timekeeper, body: { entryId, direction: 'out', startedAt: new Date().toISOString() } })
+
+async function answerAll(id: number, failing?: string) {
+  for (const i of allItems(electricMotorcycle)) {
+    const result = i.key === failing ? 'fail' : 'pass'
+    const measured: Record<string, [number, string]> = { isolation: [80, 'kΩ'], bonding: [0.05, 'Ω'], 'canopy-exit': [12, 's'], mass: [181.5, 'kg'] }
+    const [value, unit] = measured[i.key] ?? []
+    const r = await answer(id, { itemKey: i.key, result, value, unit })
+    expect(r.status, JSON.stringify(r.body)).toBe(200)
+  }
+}
+
+describe('an inspection from start to clearance', () => {
+  it('an entry with no inspection cannot start a run (409 with why)', async () => {
+    const r = await startRun()
+    expect(r.status).toBe(409)
+    expect(r.body.statusMessage).toContain('no technical inspection yet')
+  })
+
+  it('refuses an incomplete inspection naming the missing items, then a failed item keeps the entry from running', async () => {
+    const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+    expect(started.status).toBe(201)
+    const id = started.body.id
+    expect(started.body.checklist.version).toBe(1)
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+
+    const early = await call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
+    expect(early.status).toBe(422)
+    expect(early.body.data.issues[0].path).toBe('items')
+    expect(early.body.data.missing).toHaveLength(allItems(electricMotorcycle).length)
+
+    // A wrong unit and a value out of range answer with a message by the field.
+    const wrongUnit = await answer(id, { itemKey: 'isolation', result: 'pass', value: 400, unit: 'V' })
+    expect(wrongUnit.status).toBe(422)
+    expect(wrongUnit.body.data.issues[0]).toMatchObject({ path: 'unit' })
+    const low = await answer(id, { itemKey: 'isolation', result: 'fail', value: 30, unit: 'kΩ' })
+    // UN ECE Regulation 100, 5.1.3: 30 kΩ on a 400 V DC bus is 75 Ω/V, under the 100 Ω/V needed.
+    expect(low.body.verdict).toEqual({ withinLimit: false, message: '75.0 Ω/V at 400 V DC is under the 100 Ω/V needed' })
+
+    await answerAll(id, 'helmet')
+    const wrongPassword = await call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: 'nope', typedName: 'Selma Scrute' } })
+    expect(wrongPassword.status).toBe(422)
+    expect(wrongPassword.body.data.issues[0].path).toBe('password')
+    expect((await db.query('select signature_id from inspections where id = $1', [id])).rows[0].signature_id).toBeNull()
+
+    const signed = await call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
+    expect(signed.status).toBe(201)
+    const run = await startRun()
+    expect(run.status).toBe(409)
+    expect(run.body.statusMessage).toContain('failed: Helmet to the current approved standard')
+
+    // Signed means immutable, in PostgreSQL itself and through the API.
+    expect((await answer(id, { itemKey: 'helmet', result: 'pass' })).status).toBe(409)
+    await expect(db.query('update inspections set bus_voltage_v = 1 where id = $1', [id])).rejects.toThrow(/immutable/)
+    await expect(db.query(`update inspection_answers set result = 'pass' where inspection_id = $1`, [id])).rejects.toThrow(/immutable/)
+    await expect(db.query('delete from inspections where id = $1', [id])).rejects.toThrow(/immutable/)
+  })
+
+  it('a re-inspection is a new inspection; once signed with no failed item the entry runs', async () => {
+    const list = (await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookie.team2 })).body
+    const previous = list.find((e: { id: number }) => e.id === entryId).inspectionId
+    const again = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+    expect(again.status).toBe(201)
+    expect(again.body.previousId).toBe(previous)
+    await call('PATCH', `/api/inspections/${again.body.id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await answerAll(again.body.id)
+    const signed = await call('POST', `/api/inspections/${again.body.id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
+    expect(signed.status).toBe(201)
+    const team = (await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookie.team2 })).body
+    expect(team.find((e: { id: number }) => e.id === entryId)).toMatchObject({ cleared: true })
+    // The other team does not see this entry at all.
+    expect((await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookie.team })).body.some((e: { id: number }) => e.id === entryId)).toBe(false)
+    expect((await call('GET', `/api/inspections/${again.body.id}`, { cookie: cookie.team })).status).toBe(404)
+    expect((await db.query('select count(*) from inspections where entry_id = $1', [entryId])).rows[0].count).toBe('2')
+    expect((await startRun()).status).toBe(201)
+
+    const report = await call('GET', `/api/signatures/${signed.body.id}`, { cookie: cookie.official })
+    expect(report.body).toMatchObject({ kind: 'inspection', storedContentMatches: true, recordStillMatches: true, typedName: 'Selma Scrute' })
+  })
+})
+
+describe('checklists', () => {
+  it('the organiser adapts a template; the copy has a new version and keeps the sources', async () => {
+    const r = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['lenses-taped'], addItems: [{ section: 'Machine', label: 'Fairing fasteners wired' }], note: 'local rulebook, article 12' } })
+    expect(r.status).toBe(201)
+    const items = r.body.content.sections.flatMap((s: any) => s.items)
+    expect(items.some((i: any) => i.key === 'lenses-taped')).toBe(false)
+    expect(items.find((i: any) => i.label === 'Fairing fasteners wired').source).toBe('added by the organiser: local rulebook, article 12')
+    expect(r.body.content.version).toBe(2)
+    const unknown = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['nope'], note: 'x rule' } })
+    expect(unknown.status).toBe(422)
+  })
+})
+
+describe('witness statements', () => {
+  it('an official signs a statement; the team reads it; it is withdrawn only by a new signed statement', async () => {
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.official })).body
+    const attempt = attempts.find((a: any) => a.entry.teamName === 'Larkspur Works')
+    const body = { attemptId: attempt.id, runsSeen: 'runs 1 and 2', position: 'beside the mile exit trap', conditions: 'light wind from the south, dry surface', irregularities: '', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' }
+    expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body: { ...body, password: 'wrong' } })).status).toBe(422)
+    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body })
+    expect(created.status).toBe(201)
+    const forTeam = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.team })).body
+    expect(forTeam.some((s: any) => s.id === created.body.id)).toBe(true)
+    const forOtherTeam = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.team2 })).body
+    expect(forOtherTeam.some((s: any) => s.id === created.body.id)).toBe(false)
+
+    await expect(db.query(`update witness_statements set conditions = 'x' where id = $1`, [created.body.id])).rejects.toThrow(/immutable/)
+    const withdrawn = await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: cookie.official, body: { reason: 'wrote the wrong attempt', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
+    expect(withdrawn.status).toBe(201)
+    expect(withdrawn.body.withdrawsId).toBe(created.body.id)
+    expect((await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: cookie.official, body: { reason: 'again', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
+    const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.team })).body
+    expect(list.find((s: any) => s.id === created.body.id).withdrawnBy).toMatchObject({ id: withdrawn.body.id, reason: 'wrote the wrong attempt' })
+  })
+
+  it('a signature whose stored content was altered behind the app no longer matches its hash', async () => {
+    const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.official })).body
+    const sigId = list.at(-1).signatureId
+    // Simulate tampering straight in the database, past the append-only trigger.
+    await db.query('alter table signatures disable trigger signatures_append_only')
+    try {
+      await db.query(`update signatures set content = jsonb_set(content, '{reason}', '"altered"') where id = $1`, [sigId])
+    } finally {
+      await db.query('alter table signatures enable trigger signatures_append_only')
+    }
+    const report = await call('GET', `/api/signatures/${sigId}`, { cookie: cookie.official })
+    expect(report.body.storedContentMatches).toBe(false)
+  })
+})
