@@ -1,0 +1,92 @@
+import type { BrowserContext } from 'playwright-core'
+import { afterAll, beforeAll, expect, it } from 'vitest'
+import demo from '../../server/database/demo-people.json'
+import { call, login, useTestServer } from '../support/api'
+import { launchBrowser, open } from '../support/browser'
+
+await useTestServer()
+let ctx: Awaited<ReturnType<typeof launchBrowser>>
+beforeAll(async () => { ctx = await launchBrowser() })
+afterAll(async () => { await ctx?.close() })
+
+async function signIn(email: string) {
+  const context = ctx.browser as BrowserContext
+  await context.clearCookies()
+  const page = await open(context, `${ctx.baseUrl}/login`)
+  await page.fill('#email', email)
+  await page.fill('#password', demo.password)
+  await page.click('button[type=submit]')
+  await page.waitForURL('**/home')
+  return page
+}
+
+it('the scrutineer completes and signs an inspection, and the team sees its entry cleared', async () => {
+  // A new entry of the second demo team, through the API, so that this test owns it.
+  const team2 = await login('team2@trapline.test')
+  const setup = (await call('GET', '/api/events/1/setup', { cookie: team2 })).body
+  const entry = await call('POST', '/api/events/1/entries', {
+    cookie: team2,
+    body: { machine: { name: 'Ember Scout', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
+  })
+  expect(entry.status).toBe(201)
+
+  const page = await signIn('scrutineer@trapline.test')
+  await page.goto(`${ctx.baseUrl}/events/1/inspections`)
+  await page.waitForSelector('html[data-hydrated="true"]')
+  await page.locator(`[data-test="entry-${entry.body.id}"] button:has-text("Inspect")`).click()
+  await page.waitForURL('**/inspections/*')
+  await page.waitForSelector('html[data-hydrated="true"]')
+  await page.fill('#bus-v', '96')
+  await page.click('button:has-text("Save the bus")')
+
+  const measured: Record<string, [string, string]> = { isolation: ['20', 'kΩ'], bonding: ['0.04', 'Ω'], mass: ['151.2', 'kg'] }
+  const rows = page.locator('[data-test^="item-"]')
+  for (let i = 0; i < await rows.count(); i++) {
+    const row = rows.nth(i)
+    const key = (await row.getAttribute('data-test'))!.slice(5)
+    if (measured[key]) {
+      await row.locator('input[inputmode="decimal"]').fill(measured[key]![0])
+      await row.locator('select').selectOption(measured[key]![1])
+    }
+    const choice = key === 'canopy-exit' ? 'Not applicable' : 'Pass'
+    await row.getByRole('button', { name: choice }).click()
+    await expect.poll(() => row.getByRole('button', { name: choice }).getAttribute('aria-pressed')).toBe('true')
+  }
+  // UN ECE Regulation 100, 5.1.3: 20 kΩ on a 96 V DC bus is 208.3 Ω/V, over the 100 Ω/V needed.
+  expect(await page.locator('[data-test="item-isolation"] [data-test="verdict"]').innerText()).toContain('208.3 Ω/V at 96 V DC, at least 100 Ω/V needed')
+  expect(await page.getByRole('note').innerText()).toContain('the chief scrutineer and qualified high-voltage practice decide')
+
+  await page.fill('#si-name', 'Selma Scrute')
+  await page.fill('#si-pass', demo.password)
+  const pad = page.getByLabel('Draw your signature')
+  const box = (await pad.boundingBox())!
+  await page.mouse.move(box.x + 20, box.y + 40)
+  await page.mouse.down()
+  await page.mouse.move(box.x + 120, box.y + 80, { steps: 5 })
+  await page.mouse.up()
+  await page.click('button:has-text("Sign the inspection")')
+  await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
+
+  const team = await signIn('team2@trapline.test')
+  await team.goto(`${ctx.baseUrl}/events/1/entries`)
+  const card = team.locator('article', { hasText: 'Ember Scout' })
+  await expect.poll(() => card.locator('[data-test="entry-clearance"]').innerText()).toContain('Cleared to run')
+})
+
+it('an official signs a witness statement, and it is listed with its signature', async () => {
+  const page = await signIn('official@trapline.test')
+  await page.goto(`${ctx.baseUrl}/events/1/statements`)
+  await page.waitForSelector('html[data-hydrated="true"]')
+  await page.fill('#st-runs', 'both runs of the pair')
+  await page.fill('#st-position', 'at the exit trap of the mile')
+  await page.fill('#st-conditions', 'dry, light southerly wind')
+  await page.fill('#st-name', 'Oswin Oakes')
+  await page.fill('#st-pass', demo.password)
+  await page.click('button:has-text("Sign the statement")')
+  const article = page.locator('article', { hasText: 'at the exit trap of the mile' })
+  await article.waitFor()
+  expect(await article.innerText()).toContain('Signed by Oswin Oakes')
+  await article.getByRole('link', { name: 'check the signature' }).click()
+  await page.waitForURL('**/signatures/*')
+  await expect.poll(() => page.locator('[data-test="stored-matches"]').innerText()).toContain('still matches its hash')
+})
