@@ -30,6 +30,14 @@ export default defineNuxtConfig({
     siteUrl: 'http://localhost:3000',
     public: { inboxUrl: '' },
     seedDemo: false,
+    /** Folder of evidence files and upload staging (local driver). */
+    dataDir: '.data',
+    storage: {
+      driver: 'local',
+      s3: { endpoint: '', region: 'us-east-1', bucket: 'trapline-evidence', accessKeyId: '', secretAccessKey: '' },
+    },
+    /** Size limits per evidence kind in bytes; 0 keeps the default of shared/evidence/kinds.ts. */
+    evidenceLimits: { survey: 0, calibration: 0, scale: 0, licence: 0, photo: 0, video: 0, dataLog: 0, other: 0 },
     mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>' },
     session: {
       maxAge: 60 * 60 * 12,

@@ -26,7 +26,7 @@ if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server s
   node_modules/.bin/nuxt build >"$DATA/bench-build.log" 2>&1 || die "the build failed; see $DATA/bench-build.log"
 fi
 APP_PORT="$(free_port 3400)"
-NUXT_DATABASE_URL="$DB" NUXT_SESSION_PASSWORD="bench-session-password-at-least-32-characters" NUXT_SEED_DEMO=true \
+NUXT_DATABASE_URL="$DB" NUXT_SESSION_PASSWORD="bench-session-password-at-least-32-characters" NUXT_SEED_DEMO=true NUXT_DATA_DIR="$DATA/bench-storage" \
   PORT="$APP_PORT" HOST=127.0.0.1 NUXT_MAIL_PORT=1 node "$TRAPLINE_OUTPUT_DIR/server/index.mjs" >"$DATA/bench-server.log" 2>&1 &
 SERVER_PID=$!
 for _ in $(seq 1 100); do curl -fs "http://127.0.0.1:$APP_PORT/api/health" >/dev/null 2>&1 && break; sleep 0.2; done

@@ -47,6 +47,7 @@ export NUXT_MAIL_PORT="$SMTP_PORT"
 export NUXT_SITE_URL="${NUXT_SITE_URL:-http://localhost:$APP_PORT}"
 export NUXT_PUBLIC_INBOX_URL="http://127.0.0.1:$INBOX_PORT"
 export NUXT_SEED_DEMO=true
+export NUXT_DATA_DIR="$DATA"
 export PORT="$APP_PORT" HOST="${HOST:-0.0.0.0}"
 
 node .output/server/index.mjs &

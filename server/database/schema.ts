@@ -17,6 +17,7 @@ export const runDirection = pgEnum('run_direction', ['out', 'back'])
 export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
 export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement'])
 export const itemResult = pgEnum('item_result', ['pass', 'fail', 'na'])
+export const evidenceKind = pgEnum('evidence_kind', ['survey-certificate', 'calibration-certificate', 'scale-certificate', 'rider-licence', 'photo', 'video', 'data-log', 'other-document'])
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),
@@ -307,6 +308,29 @@ export const statements = pgTable('witness_statements', {
   signatureId: integer('signature_id').references(() => signatures.id),
   createdAt: createdAt(),
 }, t => [uniqueIndex('statements_withdrawn_once').on(t.withdrawsId)])
+
+/**
+ * A file of evidence, stored once by its SHA-256 (several rows may share one stored file), and
+ * what it belongs to. A row is written only after its file is complete and in place.
+ */
+export const evidence = pgTable('evidence', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  kind: evidenceKind('kind').notNull(),
+  originalName: text('original_name').notNull(),
+  mediaType: text('media_type').notNull(),
+  size: bigint('size', { mode: 'number' }).notNull(),
+  sha256: text('sha256').notNull(),
+  courseId: integer('course_id').references(() => courses.id),
+  timingSystemId: integer('timing_system_id').references(() => timingSystems.id),
+  entryId: integer('entry_id').references(() => entries.id),
+  attemptId: integer('attempt_id').references(() => attempts.id),
+  runId: integer('run_id').references(() => runs.id),
+  inspectionId: integer('inspection_id').references(() => inspections.id),
+  itemKey: text('item_key'),
+  uploadedBy: integer('uploaded_by').notNull().references(() => users.id),
+  uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [index('evidence_event').on(t.eventId), index('evidence_sha256').on(t.sha256)])
 
 export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect

@@ -64,6 +64,7 @@ const OWNER = {
   inspection: sql`select event_id from inspections where id = `,
   statement: sql`select event_id from witness_statements where id = `,
   signature: sql`select event_id from signatures where id = `,
+  evidence: sql`select event_id from evidence where id = `,
 } as const
 
 /**

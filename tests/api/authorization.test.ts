@@ -1,7 +1,8 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, useTestServer } from '../support/api'
+import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { form, pdf } from '../support/files'
 
 await useTestServer()
 
@@ -69,6 +70,11 @@ const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
   'POST /api/inspections/[id]/answers': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'POST /api/inspections/[id]/signatures': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'GET /api/signatures/[id]': { expect: { ...eventMembers(200), admin: 404 } },
+  'POST /api/events/[id]/evidence': { expect: { ...eventMembers(422), admin: 404 }, body: {} },
+  'GET /api/events/[id]/evidence': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/evidence/[sha]': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/evidence/[id]': { expect: { ...eventMembers(200), admin: 404 } },
+  'GET /api/evidence/[id]/content': { expect: { ...eventMembers(200), admin: 404 } },
 }
 
 function routeFiles(): string[] {
@@ -86,7 +92,8 @@ function routeFiles(): string[] {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0 }
+  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0 }
+  let sha = ''
 
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
@@ -107,6 +114,13 @@ describe('authorization table', () => {
     })
     expect(statement.status).toBe(201)
     ids.statements = statement.body.id
+    // An event-level file (the course survey), which every role at the event may see.
+    const setup = await call('GET', `/api/events/${eventId}/setup`, { cookie: cookies.organiser })
+    const survey = await fetch(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { cookie: cookies.organiser }, body: form({ kind: 'survey-certificate', courseId: setup.body.courses[0].id }, { name: 'survey.pdf', bytes: pdf('table') }) })
+    const surveyRow = await survey.json()
+    expect(survey.status).toBe(201)
+    ids.evidence = surveyRow.id
+    sha = surveyRow.sha256
     // The outsider: organiser of a second event created by the site administrator, signed in through the invitation.
     const email = unique('outsider')
     const created = await call('POST', '/api/events', {
@@ -128,8 +142,8 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures)\//.exec(path)?.[1] as keyof typeof ids | undefined
-        const r = await call(method, path.replace('[id]', String(owner ? ids[owner] : eventId)), { cookie: cookies[who], body: spec.body })
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence)\//.exec(path)?.[1] as keyof typeof ids | undefined
+        const r = await call(method, path.replace('[id]', String(owner ? ids[owner] : eventId)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })
     }

@@ -38,6 +38,8 @@ export default async function setup(project: TestProject) {
   const [appPort, smtpPort, inboxPort] = [await freePort(), await freePort(), await freePort()]
   const mailDir = resolve(root, '.data/test-mail')
   rmSync(mailDir, { recursive: true, force: true })
+  const dataDir = resolve(root, '.data/test-storage')
+  rmSync(dataDir, { recursive: true, force: true })
   const catcher = spawn(process.execPath, ['scripts/mail-catcher.mjs', '--smtp', String(smtpPort), '--http', String(inboxPort), '--dir', mailDir], { cwd: root, stdio: 'ignore' })
 
   let serverLog = ''
@@ -53,6 +55,9 @@ export default async function setup(project: TestProject) {
       NUXT_SITE_URL: `http://localhost:${appPort}`,
       NUXT_PUBLIC_INBOX_URL: `http://127.0.0.1:${inboxPort}`,
       NUXT_SEED_DEMO: 'true',
+      NUXT_DATA_DIR: dataDir,
+      // A small limit for one kind, so that the size check can be tested without gigabytes.
+      NUXT_EVIDENCE_LIMITS_OTHER: String(100 * 1024),
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
@@ -66,6 +71,8 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', baseUrl)
   project.provide('inboxUrl', `http://127.0.0.1:${inboxPort}`)
   project.provide('databaseUrl', databaseUrl)
+  project.provide('dataDir', dataDir)
+  project.provide('serverEnv', JSON.stringify({ databaseUrl, dataDir, smtpPort, output }))
 
   return async () => {
     server.kill('SIGTERM')
@@ -81,5 +88,7 @@ declare module 'vitest' {
     baseUrl: string
     inboxUrl: string
     databaseUrl: string
+    dataDir: string
+    serverEnv: string
   }
 }

@@ -1,0 +1,20 @@
+import { z } from 'zod'
+
+// The file itself, streamed from storage: inline for the in-page viewer, or as a download. Served
+// sandboxed and without type sniffing, since its content came from outside.
+export default defineEventHandler(async (event) => {
+  const access = await requireRoleOn(event, 'evidence', 'any')
+  const { download } = validQuery(event, z.object({ download: z.enum(['0', '1']).optional() }))
+  const row = await findEvidence(access, { id: access.recordId })
+  const name = encodeURIComponent(row.originalName)
+  setHeaders(event, {
+    'content-type': row.mediaType,
+    'content-length': Number(row.size),
+    'content-disposition': `${download === '1' ? 'attachment' : 'inline'}; filename*=UTF-8''${name}`,
+    'x-content-type-options': 'nosniff',
+    'content-security-policy': 'sandbox; default-src \'none\'; img-src \'self\'; style-src \'unsafe-inline\'',
+    'cache-control': 'private, max-age=31536000, immutable',
+    'etag': `"${row.sha256}"`,
+  })
+  return sendStream(event, await useBlobStore().open(row.sha256))
+})

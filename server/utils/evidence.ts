@@ -1,0 +1,131 @@
+import { sql, type SQL } from 'drizzle-orm'
+import { fileTypeFromBuffer } from 'file-type'
+import { evidenceKinds, extensionMismatch, TEXT, type EvidenceKind } from '#shared/evidence/kinds'
+import { evidenceFieldsSchema } from '#shared/schemas/evidence'
+import type { z } from 'zod'
+import type { EventAccess } from './auth'
+import type { StagedFile } from './uploads'
+
+type Fields = z.infer<typeof evidenceFieldsSchema>
+const notFound = () => createError({ statusCode: 404, statusMessage: 'No such evidence' })
+const field = (path: string, message: string, statusCode = 422) =>
+  createError({ statusCode, statusMessage: 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
+
+/** The team(s) a target belongs to, or null for event-level targets; 422 if it is not of this event. */
+async function targetTeams(eventId: number, f: Fields): Promise<number[] | null> {
+  const db = useDb()
+  const one = async (path: string, q: SQL) => {
+    const { rows } = await db.execute<{ team_id: number | null }>(q)
+    if (!rows.length) throw field(path, 'is not part of this event')
+    return rows[0]!.team_id
+  }
+  const teams: number[] = []
+  if (f.courseId) await one('courseId', sql`select null::int as team_id from courses where id = ${f.courseId} and event_id = ${eventId}`)
+  if (f.timingSystemId) await one('timingSystemId', sql`select null::int as team_id from timing_systems where id = ${f.timingSystemId} and event_id = ${eventId}`)
+  if (f.entryId) teams.push((await one('entryId', sql`select team_id from entries where id = ${f.entryId} and event_id = ${eventId}`))!)
+  if (f.attemptId) teams.push((await one('attemptId', sql`select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = ${f.attemptId} and a.event_id = ${eventId}`))!)
+  if (f.runId) teams.push((await one('runId', sql`select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = ${f.runId} and r.event_id = ${eventId}`))!)
+  if (f.inspectionId) teams.push((await one('inspectionId', sql`select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = ${f.inspectionId} and i.event_id = ${eventId}`))!)
+  return teams.length ? teams : null
+}
+
+const teamOnly = (access: EventAccess) => !access.asAdmin && access.roles.every(r => r === 'team')
+
+/** Checks the form fields before any byte of the file is stored; returns the kind's size limit. */
+export function evidenceGate(access: EventAccess) {
+  return async (raw: Record<string, unknown>) => {
+    const r = evidenceFieldsSchema.safeParse(raw)
+    if (!r.success) {
+      const fieldsMissing = !('kind' in raw)
+      if (fieldsMissing) throw field('kind', 'send the kind (and what the file belongs to) before the file')
+      throw invalidInput(r.error)
+    }
+    const teams = await targetTeams(access.eventId, r.data)
+    if (teamOnly(access) && teams && !teams.every(t => access.teamIds.includes(t))) throw notFound()
+    if (teamOnly(access) && !teams) throw field('entryId', 'a team attaches evidence to its own entry, attempt or run')
+    return limitFor(r.data.kind)
+  }
+}
+
+/** What the content is by its magic bytes: a media type, or "text" for content with none that reads as text. */
+export async function sniff(head: Buffer): Promise<string | null> {
+  const type = await fileTypeFromBuffer(head)
+  if (type) return type.mime
+  return head.length && !head.includes(0) ? TEXT : null
+}
+
+/**
+ * Stores a staged upload under its hash and writes its row, in one transaction holding a lock on
+ * the hash: the row exists only with its file, and a file stored for a failed row is removed.
+ */
+export async function commitEvidence(access: EventAccess, fields: Fields, file: StagedFile) {
+  const store = useBlobStore()
+  try {
+    if (file.size === 0) throw field('file', 'is empty')
+    const detected = await sniff(file.head)
+    const rule = evidenceKinds[fields.kind as EvidenceKind]
+    if (!detected || !rule.accepts.includes(detected)) {
+      throw field('file', `the content is ${detected ?? 'not a recognised type'}, not what a ${rule.label.toLowerCase()} may be (${rule.accepts.map(a => (a === TEXT ? 'text' : a)).join(', ')})`)
+    }
+    const mismatch = extensionMismatch(file.originalname, detected)
+    if (mismatch) throw field('file', mismatch)
+    const mediaType = detected === TEXT ? 'text/plain' : detected
+    return await useDb().transaction(async (tx) => {
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${file.sha256}, 0))`)
+      const existed = await store.has(file.sha256)
+      if (!existed) await store.put(file.sha256, file.path, file.size, mediaType)
+      try {
+        const [row] = await tx.insert(tables.evidence).values({
+          eventId: access.eventId, kind: fields.kind, originalName: file.originalname, mediaType, size: file.size, sha256: file.sha256,
+          courseId: fields.courseId, timingSystemId: fields.timingSystemId, entryId: fields.entryId, attemptId: fields.attemptId,
+          runId: fields.runId, inspectionId: fields.inspectionId, itemKey: fields.itemKey, uploadedBy: access.user.id,
+        }).returning()
+        return { ...row!, storedBefore: existed }
+      } catch (e) {
+        if (!existed) await store.remove(file.sha256)
+        throw e
+      }
+    })
+  } finally {
+    await rmStaged(file.path)
+  }
+}
+
+const rmStaged = (path: string) => import('node:fs/promises').then(fs => fs.rm(path, { force: true }))
+
+/** Evidence at an event as this person may see it: a team sees its own and the event-level files. */
+export async function listEvidence(access: EventAccess, filter: { kind?: EvidenceKind; attemptId?: number; runId?: number; entryId?: number }) {
+  const { rows } = await useDb().execute<Record<string, unknown>>(sql`
+    select x.*, u.name as uploaded_by_name, ${teamSql} as team_id
+    from evidence x join users u on u.id = x.uploaded_by
+    where x.event_id = ${access.eventId}
+      ${filter.kind ? sql`and x.kind = ${filter.kind}` : sql``}
+      ${filter.attemptId ? sql`and (x.attempt_id = ${filter.attemptId} or x.run_id in (select id from runs where attempt_id = ${filter.attemptId}))` : sql``}
+      ${filter.runId ? sql`and x.run_id = ${filter.runId}` : sql``}
+      ${filter.entryId ? sql`and x.entry_id = ${filter.entryId}` : sql``}
+    order by x.id desc`)
+  return rows.filter(r => !teamOnly(access) || r.team_id === null || access.teamIds.includes(r.team_id as number)).map(camel)
+}
+
+const teamSql = sql`coalesce(
+  (select team_id from entries where id = x.entry_id),
+  (select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = x.attempt_id),
+  (select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = x.run_id),
+  (select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = x.inspection_id))`
+
+const camel = (r: Record<string, unknown>) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase()), v])) as {
+  id: number; eventId: number; kind: EvidenceKind; originalName: string; mediaType: string; size: string | number; sha256: string; uploadedByName: string; uploadedAt: string; teamId: number | null
+  courseId: number | null; timingSystemId: number | null; entryId: number | null; attemptId: number | null; runId: number | null; inspectionId: number | null; itemKey: string | null
+}
+
+/** One piece of evidence by id or by hash within an event, as this person may see it; else 404. */
+export async function findEvidence(access: EventAccess, by: { id?: number; sha256?: string }) {
+  const { rows } = await useDb().execute<Record<string, unknown>>(sql`
+    select x.*, ${teamSql} as team_id from evidence x
+    where x.event_id = ${access.eventId} and ${by.id ? sql`x.id = ${by.id}` : sql`x.sha256 = ${by.sha256}`}
+    order by x.id desc limit 1`)
+  const row = rows[0] ? camel(rows[0]) : null
+  if (!row || (teamOnly(access) && row.teamId !== null && !access.teamIds.includes(row.teamId))) throw notFound()
+  return row
+}
+

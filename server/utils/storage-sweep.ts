@@ -1,0 +1,18 @@
+import { readdir, rm } from 'node:fs/promises'
+import { join } from 'node:path'
+import { sql } from 'drizzle-orm'
+
+export async function sweepStorage() {
+  await demoSeeded()
+  const tmp = uploadTmpDir()
+  for (const f of await readdir(tmp).catch(() => [] as string[])) await rm(join(tmp, f), { force: true })
+  const store = useBlobStore()
+  for await (const sha of store.list()) {
+    // Under the same lock as an upload that is storing this hash, so a file about to get its row stays.
+    await useDb().transaction(async (tx) => {
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${sha}, 0))`)
+      const { rows } = await tx.execute(sql`select 1 from evidence where sha256 = ${sha} limit 1`)
+      if (!rows.length) await store.remove(sha)
+    })
+  }
+}

@@ -1,0 +1,25 @@
+import { z } from 'zod'
+import { EVIDENCE_KINDS } from '../evidence/kinds'
+
+const optionalId = z.coerce.number({ error: 'must be a number' }).int().positive().optional()
+
+/** The form fields sent before the file in a multipart upload. */
+export const evidenceFieldsSchema = z.object({
+  kind: z.enum(EVIDENCE_KINDS, { error: `must be one of ${EVIDENCE_KINDS.join(', ')}` }),
+  courseId: optionalId,
+  timingSystemId: optionalId,
+  entryId: optionalId,
+  attemptId: optionalId,
+  runId: optionalId,
+  inspectionId: optionalId,
+  itemKey: z.string().max(60).optional(),
+})
+
+export const evidenceQuerySchema = z.object({
+  kind: z.enum(EVIDENCE_KINDS).optional(),
+  attemptId: optionalId,
+  runId: optionalId,
+  entryId: optionalId,
+})
+
+export const hashParams = z.object({ id: z.coerce.number().int().positive(), sha: z.string().regex(/^[0-9a-f]{64}$/, { error: 'must be a SHA-256 in hex' }) })
