@@ -8,8 +8,11 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 
-say "rules engine"
-node node_modules/vitest/vitest.mjs bench --run --project unit
+# BENCH=live or BENCH=upload runs one part only.
+if [ -z "${BENCH:-}" ]; then
+  say "rules engine"
+  node node_modules/vitest/vitest.mjs bench --run --project unit
+fi
 
 pg_down bench
 rm -rf "$(cluster_dir bench)"
@@ -31,5 +34,12 @@ NUXT_DATABASE_URL="$DB" NUXT_SESSION_PASSWORD="bench-session-password-at-least-3
 SERVER_PID=$!
 for _ in $(seq 1 100); do curl -fs "http://127.0.0.1:$APP_PORT/api/health" >/dev/null 2>&1 && break; sleep 0.2; done
 
+if [ -z "${BENCH:-}" ] || [ "$BENCH" = live ]; then
 say "live results under load"
 node scripts/bench/live-load.mjs --url "http://127.0.0.1:$APP_PORT" --db "$DB" --psql "$PGBIN/psql"
+fi
+
+if [ -z "${BENCH:-}" ] || [ "$BENCH" = upload ]; then
+say "a 1 GB upload"
+bash scripts/bench/upload.sh "http://127.0.0.1:$APP_PORT" "$SERVER_PID" "$DATA"
+fi
