@@ -39,11 +39,21 @@ export default defineNuxtConfig({
     /** Size limits per evidence kind in bytes; 0 keeps the default of shared/evidence/kinds.ts. */
     evidenceLimits: { survey: 0, calibration: 0, scale: 0, licence: 0, photo: 0, video: 0, dataLog: 0, other: 0 },
     mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>' },
+    mailRetrySeconds: 30,
+    /** Evidence files up to this total are attached inside a dossier PDF; larger ones are referenced by hash. */
+    dossierAttachBytes: 20 * 1024 * 1024,
     session: {
       maxAge: 60 * 60 * 12,
       cookie: { sameSite: 'lax', httpOnly: true },
     },
   },
-  nitro: process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {},
+  nitro: {
+    ...(process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {}),
+    // The dossier's fonts, read at run time: shipped inside the build, not looked up in node_modules.
+    serverAssets: [
+      { baseName: 'fonts-inter', dir: '../node_modules/@fontsource/inter/files', pattern: 'inter-latin-{400,700}-normal.woff' },
+      { baseName: 'fonts-merriweather', dir: '../node_modules/@fontsource/merriweather/files', pattern: 'merriweather-latin-{400,700}-normal.woff' },
+    ],
+  },
   typescript: { strict: true },
 })

@@ -15,7 +15,8 @@ export const startKind = pgEnum('start_kind', ['flying', 'standing'])
 export const systemRole = pgEnum('system_role', ['primary', 'backup'])
 export const runDirection = pgEnum('run_direction', ['out', 'back'])
 export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
-export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement'])
+export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement', 'ratification'])
+export const decisionKind = pgEnum('decision_kind', ['ratified', 'refused'])
 export const itemResult = pgEnum('item_result', ['pass', 'fail', 'na'])
 export const evidenceKind = pgEnum('evidence_kind', ['survey-certificate', 'calibration-certificate', 'scale-certificate', 'rider-licence', 'photo', 'video', 'data-log', 'other-document'])
 
@@ -331,6 +332,58 @@ export const evidence = pgTable('evidence', {
   uploadedBy: integer('uploaded_by').notNull().references(() => users.id),
   uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [index('evidence_event').on(t.eventId), index('evidence_sha256').on(t.sha256)])
+
+/**
+ * A sealed dossier: the canonical manifest, its Ed25519 seal and the SHA-256 of the PDF issued.
+ * Never changed (trigger); a new version supersedes it and both are kept.
+ */
+export const dossiers = pgTable('dossiers', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id').notNull().references(() => events.id),
+  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
+  version: integer('version').notNull(),
+  manifest: jsonb('manifest').notNull(),
+  manifestSha256: text('manifest_sha256').notNull(),
+  seal: text('seal').notNull(),
+  keyFingerprint: text('key_fingerprint').notNull(),
+  pdfSha256: text('pdf_sha256').notNull(),
+  pdfSize: bigint('pdf_size', { mode: 'number' }).notNull(),
+  supersedesId: integer('supersedes_id'),
+  createdBy: integer('created_by').notNull().references(() => users.id),
+  createdAt: createdAt(),
+}, t => [uniqueIndex('dossiers_attempt_version').on(t.attemptId, t.version), index('dossiers_pdf_sha256').on(t.pdfSha256)])
+
+export const submissions = pgTable('submissions', {
+  id: serial('id').primaryKey(),
+  dossierId: integer('dossier_id').notNull().references(() => dossiers.id).unique(),
+  submittedBy: integer('submitted_by').notNull().references(() => users.id),
+  submittedAt: timestamp('submitted_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** The officials' decision on a submitted dossier, signed; one per dossier. */
+export const decisions = pgTable('decisions', {
+  id: serial('id').primaryKey(),
+  dossierId: integer('dossier_id').notNull().references(() => dossiers.id).unique(),
+  decision: decisionKind('decision').notNull(),
+  reasons: text('reasons').notNull(),
+  signatureId: integer('signature_id').notNull().references(() => signatures.id),
+  decidedBy: integer('decided_by').notNull().references(() => users.id),
+  decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** Mail is written here first and sent after; what could not be sent is tried again later. */
+export const mailOutbox = pgTable('mail_outbox', {
+  id: serial('id').primaryKey(),
+  to: text('to').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  attachmentSha256: text('attachment_sha256'),
+  attachmentName: text('attachment_name'),
+  tries: integer('tries').notNull().default(0),
+  lastError: text('last_error'),
+  sentAt: timestamp('sent_at', { withTimezone: true }),
+  createdAt: createdAt(),
+})
 
 export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect

@@ -65,6 +65,7 @@ const OWNER = {
   statement: sql`select event_id from witness_statements where id = `,
   signature: sql`select event_id from signatures where id = `,
   evidence: sql`select event_id from evidence where id = `,
+  dossier: sql`select event_id from dossiers where id = `,
 } as const
 
 /**

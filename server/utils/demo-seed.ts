@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import { allItems } from '#shared/inspection/evaluate'
 import { seedDemo } from '../database/demo'
 import demo from '../database/demo-people.json'
+import type { StagedFile } from './uploads'
 
 let seeding: Promise<unknown> = Promise.resolve()
 
@@ -11,7 +12,10 @@ export const demoSeeded = () => seeding
 export function startDemoSeed() {
   seeding = seedDemo(useDb(), hashPassword)
     .then(async (created) => {
-      if (created) await seedDemoInspections()
+      if (created) {
+        await seedDemoInspections()
+        await seedDemoDossier()
+      }
       console.info(created ? '[trapline] demo scenario seeded' : '[trapline] demo scenario already present')
     })
     .catch((error) => { console.error('[trapline] demo seed failed', error); throw error })
@@ -33,4 +37,58 @@ async function seedDemoInspections() {
     }
     await signInspection(inspection.id, { password: demo.password, typedName: scrutineer!.name }, scrutineer!)
   }
+}
+
+/** A small invented PDF for the demo's certificates, made on the spot. */
+async function demoPdf(title: string, lines: string[]) {
+  const { PDFDocument, StandardFonts } = await import('pdf-lib')
+  const doc = await PDFDocument.create()
+  const font = await doc.embedFont(StandardFonts.Helvetica)
+  const page = doc.addPage([420, 300])
+  page.drawText(title, { x: 30, y: 250, size: 16, font })
+  lines.forEach((l, i) => page.drawText(l, { x: 30, y: 215 - i * 18, size: 10, font }))
+  page.drawText('DEMO DOCUMENT - invented for the Trapline demo; certifies nothing.', { x: 30, y: 30, size: 8, font })
+  doc.setCreationDate(new Date('2026-08-01T00:00:00Z'))
+  doc.setModificationDate(new Date('2026-08-01T00:00:00Z'))
+  return Buffer.from(await doc.save())
+}
+
+async function stage(bytes: Buffer, name: string): Promise<StagedFile> {
+  const { createHash, randomUUID } = await import('node:crypto')
+  const { mkdir, writeFile } = await import('node:fs/promises')
+  await mkdir(uploadTmpDir(), { recursive: true })
+  const path = `${uploadTmpDir()}/${randomUUID()}.part`
+  await writeFile(path, bytes)
+  return { path, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex'), head: bytes.subarray(0, 4100), originalname: name }
+}
+
+/**
+ * The rest of the demo day, through the same code as the app: certificates and licences attached,
+ * two witness statements, the timing sheet signed, and the streamliner's dossier sealed, submitted
+ * and ratified. The second team's attempt stays on the way (one run, nothing signed).
+ */
+async function seedDemoDossier() {
+  const db = useDb()
+  const user = async (email: string) => (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
+  const [organiser, timekeeper, team, official, official2] = await Promise.all(['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)))
+  const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
+  const access = (u: typeof organiser, roles: ('organiser' | 'team')[], teamIds: number[] = []) => ({ user: { id: u!.id, email: u!.email, name: u!.name, isAdmin: false }, eventId: event!.id, roles, teamIds, asAdmin: false })
+  const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
+  const systems = await db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, event!.id))
+  const [ls] = await db.select({ entry: tables.entries, rider: tables.riders }).from(tables.entries).innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId)).orderBy(tables.entries.id).limit(1)
+  const [attempt] = await db.select().from(tables.attempts).where(eq(tables.attempts.entryId, ls!.entry.id))
+
+  const put = async (who: ReturnType<typeof access>, kind: 'survey-certificate' | 'calibration-certificate' | 'rider-licence', name: string, title: string, lines: string[], target: Record<string, number>) =>
+    commitEvidence(who, { kind, ...target }, await stage(await demoPdf(title, lines), name))
+  await put(access(organiser, ['organiser']), 'survey-certificate', 'north-course-survey.pdf', 'Course survey certificate (demo)', ['Tamsel Flat north course, traps M-in 3000.000 m to M-out 4609.344 m', 'Surveyed 2026-07-28, tolerance 10 mm'], { courseId: course!.id })
+  for (const s of systems) await put(access(organiser, ['organiser']), 'calibration-certificate', `${s.name.toLowerCase().replace(/\s+/g, '-')}-calibration.pdf`, `Calibration certificate (demo): ${s.name}`, [`Calibrated ${s.calibratedOn}, valid to ${s.calibrationExpires}`, `Resolution 1/${s.ticksPerSecond} s`], { timingSystemId: s.id })
+  await put(access(team, ['team'], [ls!.entry.teamId]), 'rider-licence', 'rider-licence.pdf', 'Rider licence (demo)', [`${ls!.rider.name}, licence ${ls!.rider.licenceNo}`, `Valid to ${ls!.rider.licenceExpires}`], { entryId: ls!.entry.id })
+
+  for (const [o, position] of [[official, 'beside the exit trap of the mile'], [official2, 'at the timing hut, with a view of the entry trap']] as const) {
+    await createStatement(event!.id, { attemptId: attempt!.id, runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)', position, conditions: 'dry surface, light wind from the south-south-west, clear sky', irregularities: '', password: demo.password, typedName: o!.name }, o!)
+  }
+  await signTimingSheet({ eventId: event!.id, attemptId: attempt!.id, userId: timekeeper!.id, password: demo.password, typedName: timekeeper!.name })
+  const dossier = await issueDossier(event!.id, attempt!.id, team!.id)
+  await submitDossier(dossier.id, team!.id)
+  await decideDossier(dossier.id, { decision: 'ratified', reasons: 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, two statements.', password: demo.password, typedName: official!.name }, official!)
 }

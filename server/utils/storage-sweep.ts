@@ -11,7 +11,7 @@ export async function sweepStorage() {
     // Under the same lock as an upload that is storing this hash, so a file about to get its row stays.
     await useDb().transaction(async (tx) => {
       await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${sha}, 0))`)
-      const { rows } = await tx.execute(sql`select 1 from evidence where sha256 = ${sha} limit 1`)
+      const { rows } = await tx.execute(sql`select 1 from evidence where sha256 = ${sha} union all select 1 from dossiers where pdf_sha256 = ${sha} limit 1`)
       if (!rows.length) await store.remove(sha)
     })
   }

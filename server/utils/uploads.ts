@@ -72,7 +72,10 @@ class HashingStagingStorage implements multer.StorageEngine {
 
 /** Runs multer on the raw request; resolves with the staged file and the form fields. */
 export function receiveUpload(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<number>) {
-  const maxBytes = Math.max(...Object.keys(evidenceKinds).map(k => limitFor(k as EvidenceKind)))
+  return receiveUploadWith(event, beforeFile, Math.max(...Object.keys(evidenceKinds).map(k => limitFor(k as EvidenceKind))))
+}
+
+function receiveUploadWith(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<number>, maxBytes = 6 * 1024 * 1024 * 1024) {
   const handler = multer({
     storage: new HashingStagingStorage(beforeFile),
     preservePath: true, // so that a name with a path is refused, not silently shortened
@@ -98,4 +101,9 @@ function toHttpError(err: unknown) {
   if (code?.startsWith('LIMIT_')) return issue(422, 'file', (err as Error).message)
   if ((err as Error).message === 'Malformed part header') return issue(422, 'file', 'the part header is malformed; a file name must not contain control characters')
   return issue(400, 'file', `the upload did not arrive whole: ${(err as Error).message}`)
+}
+
+/** The verification page's upload: a PDF up to 200 MB, staged to disk, no form fields needed. */
+export function receiveVerifyUpload(event: H3Event) {
+  return receiveUploadWith(event, async () => 200 * 1024 * 1024)
 }

@@ -43,3 +43,8 @@ export const statementSchema = signRecordSchema.extend({
 export const withdrawalSchema = signRecordSchema.extend({
   reason: z.string().trim().min(3, { error: 'say why the statement is withdrawn' }).max(1000),
 })
+
+export const decisionSchema = signRecordSchema.extend({
+  decision: z.enum(['ratified', 'refused'], { error: 'must be ratified or refused' }),
+  reasons: z.string().trim().min(3, { error: 'give the reasons in writing' }).max(4000),
+})

@@ -75,6 +75,17 @@ const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
   'GET /api/events/[id]/evidence/[sha]': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/evidence/[id]': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/evidence/[id]/content': { expect: { ...eventMembers(200), admin: 404 } },
+  'GET /api/attempts/[id]/readiness': { expect: { ...eventMembers(200), admin: 404 } },
+  'GET /api/attempts/[id]/dossiers': { expect: { ...eventMembers(200), admin: 404 } },
+  // On the second team's attempt, which is not ready: the organiser is refused naming what is missing.
+  'POST /api/attempts/[id]/dossiers': { expect: { ...eventMembers(403), admin: 404, organiser: 422, team: 404 } },
+  // The demo's ratified dossier: public.
+  'GET /api/dossiers/[id]/pdf': { expect: all(200) },
+  'POST /api/dossiers/[id]/submission': { expect: { ...eventMembers(403), admin: 404, team: 409 } },
+  'POST /api/dossiers/[id]/decision': { expect: rolesOnly(422, 'official'), body: {} },
+  'POST /api/dossiers/verify': { expect: all(422), body: {} },
+  'GET /api/record-book': { expect: all(200) },
+  'GET /api/seal': { expect: all(200) },
 }
 
 function routeFiles(): string[] {
@@ -92,7 +103,7 @@ function routeFiles(): string[] {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0 }
+  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, unreadyAttempt: 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -102,6 +113,8 @@ describe('authorization table', () => {
     eventId = events.body[0]!.id
     const sheet = await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookies.timekeeper })
     ids.attempts = sheet.body.attempts[0].id
+    ids.unreadyAttempt = sheet.body.attempts.find((a: { entry: { teamName: string } }) => a.entry.teamName !== 'Larkspur Works').id
+    ids.dossiers = (await call('GET', `/api/attempts/${ids.attempts}/dossiers`, { cookie: cookies.organiser })).body[0].id
     ids.runs = sheet.body.attempts[0].runs[0].id
     ids.readings = sheet.body.history[0].id
     // The demo's first entry is the demo team's; its inspection is signed.
@@ -142,8 +155,9 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence)\//.exec(path)?.[1] as keyof typeof ids | undefined
-        const r = await call(method, path.replace('[id]', String(owner ? ids[owner] : eventId)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
+        const r = await call(method, path.replace('[id]', String(id)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })
     }

@@ -1,0 +1,54 @@
+import { createHash } from 'node:crypto'
+import { eq } from 'drizzle-orm'
+import { attachmentName } from './dossier'
+import { readAttachments } from './pdf-attachments'
+
+export interface Verification { sealValid: boolean; keyFingerprint: string | null; items: { name: string; ok: boolean }[]; message: string; dossier?: { id: number; attemptId: number; version: number } | null }
+
+const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
+
+/**
+ * Checks a dossier PDF: the Ed25519 seal over its manifest, every attached file against the
+ * manifest, and whether the whole file is byte for byte one this server issued.
+ */
+export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
+  const fail = (message: string): Verification => ({ sealValid: false, keyFingerprint: null, items: [], message })
+  if (bytes.length < 8 || Buffer.from(bytes.subarray(0, 5)).toString('latin1') !== '%PDF-') return fail('This is not a PDF file.')
+  let files: { name: string; data: Uint8Array }[]
+  try {
+    files = await readAttachments(bytes)
+  } catch {
+    return fail('This PDF cannot be read whole: it is truncated or damaged.')
+  }
+  const manifestFile = files.find(f => f.name === 'manifest.json')
+  const sigFile = files.find(f => f.name === 'manifest.sig')
+  if (!manifestFile || !sigFile) return fail('This PDF carries no Trapline seal (no manifest.json and manifest.sig attached).')
+  const key = useSealKey()
+  const items: { name: string; ok: boolean }[] = []
+  const manifestText = new TextDecoder().decode(manifestFile.data)
+  const digest = sha(manifestText)
+  let manifest: { evidence?: { name: string; sha256: string }[] } | null = null
+  try { manifest = JSON.parse(manifestText) } catch { /* reported below */ }
+  const canonical = manifest !== null && canonicalJson(manifest) === manifestText
+  const sealOk = canonical && sealHolds(digest, new TextDecoder().decode(sigFile.data).trim())
+  items.push({ name: 'manifest.json', ok: sealOk })
+  for (const e of manifest?.evidence ?? []) {
+    const f = files.find(x => x.name === attachmentName(e.sha256, e.name))
+    if (f) items.push({ name: e.name, ok: sha(f.data) === e.sha256 })
+  }
+  const known = new Set(['manifest.json', 'manifest.sig', ...(manifest?.evidence ?? []).map(e => attachmentName(e.sha256, e.name))])
+  for (const f of files.filter(x => !known.has(x.name))) items.push({ name: f.name, ok: false })
+  const [issued] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.pdfSha256, sha(bytes)))
+  items.push({ name: 'PDF file as issued', ok: !!issued })
+  const failing = items.filter(i => !i.ok).map(i => i.name)
+  const sealValid = failing.length === 0
+  return {
+    sealValid,
+    keyFingerprint: sealOk ? key.fingerprint : null,
+    items,
+    dossier: issued ? { id: issued.id, attemptId: issued.attemptId, version: issued.version } : null,
+    message: sealValid
+      ? `The seal is valid: signed by key ${key.fingerprint}, every attached file matches, and this is the file issued as dossier version ${issued!.version} of attempt #${issued!.attemptId}.`
+      : `Not intact: ${failing.join(', ')} ${failing.length === 1 ? 'does' : 'do'} not match what was sealed.`,
+  }
+}
