@@ -92,7 +92,8 @@ export async function recordBook() {
     const key = `${m.entry.className}\u0000${m.entry.distanceLabel}`
     const date = m.runs.filter(r => r.counted).map(r => r.startedAt).sort().at(-1)!.slice(0, 10)
     const current = best.get(key)
-    if (!current || Number(m.result.kmh) > Number(current.speedKmh)) {
+    // Equal speeds: the later ratification (a newer version of the same dossier) stands.
+    if (!current || Number(m.result.kmh) >= Number(current.speedKmh)) {
       best.set(key, { class: m.entry.className, distance: m.entry.distanceLabel, speedKmh: m.result.kmh, speedMph: m.result.mph, date, dossierUrl: `${site}/api/dossiers/${d.id}/pdf`, verifyUrl: `${site}/verify`, machine: m.entry.machineName, rider: m.entry.riderName, team: m.entry.teamName })
     }
   }

@@ -1,5 +1,5 @@
 import { spawn, type ChildProcess } from 'node:child_process'
-import { rmSync } from 'node:fs'
+import { readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
@@ -41,6 +41,9 @@ export default async function setup(project: TestProject) {
   const dataDir = resolve(root, '.data/test-storage')
   rmSync(dataDir, { recursive: true, force: true })
   const catcher = spawn(process.execPath, ['scripts/mail-catcher.mjs', '--smtp', String(smtpPort), '--http', String(inboxPort), '--dir', mailDir], { cwd: root, stdio: 'ignore' })
+  // A test may stop the catcher and start another (mail-server-down test); it records the new pid here.
+  const catcherPidFile = resolve(root, '.data/test-mail.pid')
+  writeFileSync(catcherPidFile, String(catcher.pid))
 
   let serverLog = ''
   const server = spawn(process.execPath, [resolve(output, 'server/index.mjs')], {
@@ -56,6 +59,7 @@ export default async function setup(project: TestProject) {
       NUXT_PUBLIC_INBOX_URL: `http://127.0.0.1:${inboxPort}`,
       NUXT_SEED_DEMO: 'true',
       NUXT_DATA_DIR: dataDir,
+      NUXT_MAIL_RETRY_SECONDS: '1',
       // A small limit for one kind, so that the size check can be tested without gigabytes.
       NUXT_EVIDENCE_LIMITS_OTHER: String(100 * 1024),
     },
@@ -72,11 +76,12 @@ export default async function setup(project: TestProject) {
   project.provide('inboxUrl', `http://127.0.0.1:${inboxPort}`)
   project.provide('databaseUrl', databaseUrl)
   project.provide('dataDir', dataDir)
-  project.provide('serverEnv', JSON.stringify({ databaseUrl, dataDir, smtpPort, output }))
+  project.provide('serverEnv', JSON.stringify({ databaseUrl, dataDir, smtpPort, inboxPort, output, mailDir, catcherPidFile }))
 
   return async () => {
     server.kill('SIGTERM')
     catcher.kill('SIGTERM')
+    try { process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM') } catch { /* already stopped */ }
     if (serverLog.includes('[nitro] [unhandled error]') || /\n\s+at .+\n/.test(serverLog) && serverLog.includes('Error')) {
       console.log('--- server log ---\n' + serverLog)
     }

@@ -1,0 +1,193 @@
+import { spawn } from 'node:child_process'
+import { writeFileSync } from 'node:fs'
+import { resolve } from 'node:path'
+import pg from 'pg'
+import { PDFArray, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString } from 'pdf-lib'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { readAttachments } from '../../server/utils/pdf-attachments'
+import { call, demoEmail, DEMO_PASSWORD, login, mailTo, url, useTestServer } from '../support/api'
+import { sha256 } from '../support/files'
+
+await useTestServer()
+const db = new pg.Client({ connectionString: inject('databaseUrl') })
+await db.connect()
+afterAll(() => db.end())
+
+const cookie = {} as Record<'organiser' | 'team' | 'team2' | 'official', string>
+let eventId = 0
+let pdf: Uint8Array
+let dossierId = 0
+
+const verify = async (bytes: Uint8Array, name = 'dossier.pdf') => {
+  const body = new FormData()
+  body.append('file', new Blob([bytes], { type: 'application/pdf' }), name)
+  const r = await fetch(url('/api/dossiers/verify'), { method: 'POST', body })
+  return { status: r.status, body: await r.json() as { sealValid: boolean; keyFingerprint: string | null; items: { name: string; ok: boolean }[]; message: string } }
+}
+
+/** Replaces one attached file of a PDF by the same bytes with one byte changed, through pdf-lib. */
+async function tamperAttachment(bytes: Uint8Array, name: string) {
+  const doc = await PDFDocument.load(bytes, { updateMetadata: false })
+  const names = doc.catalog.lookup(PDFName.of('Names'), PDFDict).lookup(PDFName.of('EmbeddedFiles'), PDFDict).lookup(PDFName.of('Names'), PDFArray)
+  const files = await readAttachments(bytes)
+  for (let i = 0; i < names.size(); i += 2) {
+    const key = names.lookup(i) as PDFString | PDFHexString
+    if (key.decodeText() !== name) continue
+    const data = new Uint8Array(files.find(f => f.name === name)!.data)
+    data[Math.floor(data.length / 2)] ^= 0x01
+    const ef = names.lookup(i + 1, PDFDict).lookup(PDFName.of('EF'), PDFDict)
+    ef.set(PDFName.of('F'), doc.context.register(doc.context.flateStream(data, { Type: 'EmbeddedFile' })))
+  }
+  return doc.save({ useObjectStreams: false })
+}
+
+beforeAll(async () => {
+  cookie.organiser = await login(demoEmail('organiser'))
+  cookie.official = await login(demoEmail('official'))
+  cookie.team = await login('team@trapline.test')
+  cookie.team2 = await login('team2@trapline.test')
+  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  const record = (await call('GET', '/api/record-book')).body[0]
+  const r = await fetch(record.dossierUrl) // the site address of the test server, so it is reachable
+  pdf = new Uint8Array(await r.arrayBuffer())
+  dossierId = Number(/dossiers\/(\d+)\/pdf/.exec(record.dossierUrl)![1])
+})
+
+describe('the demo\'s ratified dossier', () => {
+  it('is in the public record book and downloads without sign-in', async () => {
+    const book = await call('GET', '/api/record-book')
+    expect(book.body[0]).toMatchObject({ class: 'Electric, fully streamlined', distance: 'Flying mile', date: '2026-08-12' })
+    // The record equals the live result computed from the stored readings.
+    const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body.find((a: any) => a.entry.teamName === 'Larkspur Works' && a.sheet.locked)
+    expect(book.body[0].speedKmh).toBe(live.result.kmh)
+    expect(book.body[0].speedMph).toBe(live.result.mph)
+    expect(Buffer.from(pdf.subarray(0, 5)).toString()).toBe('%PDF-')
+  })
+
+  it('read back with pdf-lib, carries the manifest, its seal and the small evidence files exactly as stored', async () => {
+    const [row] = (await db.query('select * from dossiers where id = $1', [dossierId])).rows
+    expect(sha256(pdf)).toBe(row.pdf_sha256)
+    const files = await readAttachments(pdf)
+    const manifest = JSON.parse(new TextDecoder().decode(files.find(f => f.name === 'manifest.json')!.data))
+    expect(manifest).toEqual(row.manifest)
+    expect(sha256(files.find(f => f.name === 'manifest.json')!.data)).toBe(row.manifest_sha256)
+    expect(new TextDecoder().decode(files.find(f => f.name === 'manifest.sig')!.data).trim()).toBe(row.seal)
+    const evidence = (await db.query('select original_name, sha256 from evidence where event_id = $1', [eventId])).rows
+    for (const e of manifest.evidence) {
+      expect(evidence.some((x: any) => x.sha256 === e.sha256)).toBe(true)
+      const attached = files.find(f => f.name.endsWith(e.name) && f.name.startsWith(e.sha256.slice(0, 12)))
+      expect(attached && sha256(attached.data)).toBe(e.sha256)
+    }
+    expect(manifest.result.kmh).toBe(row.manifest.result.kmh)
+    expect(manifest.statements.filter((s: any) => !s.withdraws)).toHaveLength(2)
+  })
+
+  it('verifies as issued', async () => {
+    const r = await verify(pdf)
+    expect(r.status).toBe(200)
+    expect(r.body.sealValid).toBe(true)
+    expect(r.body.keyFingerprint).toBe((await call('GET', '/api/seal')).body.fingerprint)
+    expect(r.body.items.every(i => i.ok)).toBe(true)
+  })
+})
+
+describe('tampering is caught and the failing part named', () => {
+  it('one changed byte in the PDF body', async () => {
+    const bytes = new Uint8Array(pdf)
+    const text = Buffer.from(bytes).toString('latin1')
+    const at = text.indexOf('/Title <') + '/Title <'.length + 10
+    bytes[at] = bytes[at] === 0x30 ? 0x31 : 0x30
+    const r = await verify(bytes)
+    expect(r.body.sealValid).toBe(false)
+    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['PDF file as issued'])
+    expect(r.body.message).toContain('PDF file as issued')
+  })
+
+  it('one changed byte in an attached file', async () => {
+    const files = await readAttachments(pdf)
+    const target = files.find(f => f.name.endsWith('rider-licence.pdf'))!
+    const r = await verify(await tamperAttachment(pdf, target.name))
+    expect(r.body.sealValid).toBe(false)
+    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['rider-licence.pdf', 'PDF file as issued'])
+    expect(r.body.keyFingerprint).not.toBeNull() // the manifest itself is intact
+  })
+
+  it('one changed byte in the manifest', async () => {
+    const r = await verify(await tamperAttachment(pdf, 'manifest.json'))
+    expect(r.body.sealValid).toBe(false)
+    expect(r.body.keyFingerprint).toBeNull()
+    expect(r.body.items.find(i => i.name === 'manifest.json')!.ok).toBe(false)
+  })
+
+  it.each([
+    ['a truncated PDF', () => pdf.subarray(0, Math.floor(pdf.length / 3)), /truncated or damaged/],
+    ['a file that is not a PDF', () => new TextEncoder().encode('hello, this is not a dossier'), /not a PDF/],
+  ])('answers %s clearly, never with a 500', async (_what, make, message) => {
+    const r = await verify(make())
+    expect(r.status).toBe(422)
+    expect(r.body.sealValid).toBe(false)
+    expect(r.body.message).toMatch(message)
+  })
+})
+
+describe('readiness', () => {
+  it('refuses to build a dossier that is not ready, naming what is missing', async () => {
+    const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.organiser })).body
+    const ember = live.find((a: any) => a.entry.teamName === 'Cinder Hollow Engineering' && a.runs.length === 1)
+    const readiness = await call('GET', `/api/attempts/${ember.id}/readiness`, { cookie: cookie.team2 })
+    expect(readiness.body.ready).toBe(false)
+    const missing = readiness.body.items.filter((i: any) => !i.met).map((i: any) => i.key)
+    expect(missing).toEqual(expect.arrayContaining(['pair', 'timing-sheet', 'statements', 'licence']))
+    const r = await call('POST', `/api/attempts/${ember.id}/dossiers`, { cookie: cookie.team2 })
+    expect(r.status).toBe(422)
+    expect(r.body.data.issues.map((i: any) => i.path)).toEqual(missing)
+    // Another team's attempt is not there at all for this team.
+    expect((await call('GET', `/api/attempts/${ember.id}/readiness`, { cookie: cookie.team })).status).toBe(404)
+  })
+})
+
+describe('submission and ratification', () => {
+  it('a new version supersedes the old; submitting it e-mails the officials the PDF with its hash; they ratify it', async () => {
+    const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
+    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
+    expect(built.status).toBe(201)
+    expect(built.body.version).toBe(2)
+    expect((await call('POST', `/api/dossiers/${dossierId}/submission`, { cookie: cookie.team })).status).toBe(409) // v1: already submitted
+    const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
+    expect(submitted.status).toBe(201)
+    const mail = await mailTo(demoEmail('official'), 'submitted for ratification')
+    expect(mail.text).toContain(built.body.pdfSha256)
+    const inbox = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as any[]
+    const withPdf = inbox.find(m => m.text.includes(built.body.pdfSha256) && m.to.includes(demoEmail('official')))
+    expect(withPdf.attachments[0]).toMatchObject({ contentType: 'application/pdf', size: built.body.pdfSize })
+
+    const wrong = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: 'wrong', typedName: 'Oswin Oakes' } })
+    expect(wrong.status).toBe(422)
+    const decided = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
+    expect(decided.status).toBe(201)
+    expect((await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'refused', reasons: 'changed my mind', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
+    await mailTo('team@trapline.test', 'ratified')
+    const book = (await call('GET', '/api/record-book')).body
+    expect(book[0].dossierUrl).toContain(`/api/dossiers/${built.body.id}/pdf`)
+    await expect(db.query('update dossiers set version = 9 where id = $1', [built.body.id])).rejects.toThrow(/append-only/)
+  })
+
+  it('with the mail server down, the submission is kept and the e-mail goes out once it is back', async () => {
+    const env = JSON.parse(inject('serverEnv'))
+    const { readFileSync } = await import('node:fs')
+    process.kill(Number(readFileSync(env.catcherPidFile, 'utf8')), 'SIGTERM')
+    await new Promise(r => setTimeout(r, 300))
+    const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
+    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
+    const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
+    expect(submitted.status).toBe(201)
+    expect(submitted.body.mail.sent).toBe(0)
+    expect(submitted.body.message).toContain('will be retried')
+    expect(Number((await db.query('select count(*) from mail_outbox where sent_at is null and attachment_sha256 = $1', [built.body.pdfSha256])).rows[0].count)).toBeGreaterThan(0)
+    const catcher = spawn(process.execPath, ['scripts/mail-catcher.mjs', '--smtp', String(env.smtpPort), '--http', String(env.inboxPort), '--dir', env.mailDir], { cwd: resolve(import.meta.dirname, '../..'), stdio: 'ignore', detached: false })
+    writeFileSync(env.catcherPidFile, String(catcher.pid))
+    await expect.poll(async () => Number((await db.query('select count(*) from mail_outbox where sent_at is null')).rows[0].count), { timeout: 15_000, interval: 500 }).toBe(0)
+    const inbox = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as any[]
+    expect(inbox.some(m => m.text.includes(built.body.pdfSha256))).toBe(true)
+  })
+})
