@@ -43,3 +43,9 @@ if [ -z "${BENCH:-}" ] || [ "$BENCH" = upload ]; then
 say "a 1 GB upload"
 bash scripts/bench/upload.sh "http://127.0.0.1:$APP_PORT" "$SERVER_PID" "$DATA"
 fi
+
+if [ -z "${BENCH:-}" ] || [ "$BENCH" = dossier ]; then
+say "a dossier with 20 evidence files of about 1 GB"
+[ -s "$DATA/bench-1g.mp4" ] || { { printf '\x00\x00\x00\x18ftypmp42\x00\x00\x00\x00mp42isom'; head -c 1073741824 /dev/urandom; } >"$DATA/bench-1g.mp4"; }
+bash scripts/bench/dossier.sh "http://127.0.0.1:$APP_PORT" "$SERVER_PID" "$DATA" "$DB" "$PGBIN/psql"
+fi

@@ -30,20 +30,27 @@ export class PdfLayout {
     if (this.y - height < MARGIN + 24) this.newPage()
   }
 
+  /** Word wrap measuring each word once; a word longer than the line (a hash) is cut by bisection. */
   private wrap(text: string, font: PDFFont, size: number, width: number): string[] {
+    const measure = (t: string) => font.widthOfTextAtSize(t, size)
+    const space = measure(' ')
     const lines: string[] = []
     for (const para of pdfText(text).split('\n')) {
       let line = ''
+      let lineWidth = 0
       for (const word of para.split(/\s+/)) {
-        const trial = line ? `${line} ${word}` : word
-        if (font.widthOfTextAtSize(trial, size) <= width) { line = trial; continue }
+        let w = measure(word)
+        if (line && lineWidth + space + w <= width) { line += ` ${word}`; lineWidth += space + w; continue }
         if (line) lines.push(line)
         line = word
-        while (font.widthOfTextAtSize(line, size) > width) { // a long hash or path: break it
-          let cut = line.length
-          while (cut > 1 && font.widthOfTextAtSize(line.slice(0, cut), size) > width) cut--
-          lines.push(line.slice(0, cut))
-          line = line.slice(cut)
+        lineWidth = w
+        while (lineWidth > width && line.length > 1) {
+          let lo = 1
+          let hi = line.length
+          while (lo < hi) { const mid = Math.ceil((lo + hi) / 2); if (measure(line.slice(0, mid)) <= width) lo = mid; else hi = mid - 1 }
+          lines.push(line.slice(0, lo))
+          line = line.slice(lo)
+          lineWidth = w = measure(line)
         }
       }
       lines.push(line)
