@@ -8,7 +8,7 @@ import { desc, eq, sql } from 'drizzle-orm'
 import { PDFDocument } from 'pdf-lib'
 import QRCode from 'qrcode'
 import { formatBytes } from '#shared/evidence/kinds'
-import { ruleLabels } from '#shared/rules/profile'
+import { describeRuleValue, ruleLabels } from '#shared/rules/profile'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import { CHECKLIST_CAUTION } from '#shared/inspection/template'
 import { PdfLayout, type Fonts } from './pdf-layout'
@@ -129,7 +129,7 @@ export async function renderDossier(m: Manifest, seal: { sha256: string; signatu
   for (const f of m.result.findings) L.text(`Finding ${f.code}: ${f.message}`, { color: 'grey' })
   L.heading('Rule profile in force', 12)
   L.table([{ title: 'Rule', width: 110 }, { title: 'Value', width: 150 }, { title: 'Source', width: 235 }],
-    (Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]).map(k => [ruleLabels[k], JSON.stringify(m.profile[k].value), `${m.profile[k].source} (${m.profile[k].certainty})`]))
+    (Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]).map(k => [ruleLabels[k], describeRuleValue(k, m.profile[k].value), `${m.profile[k].source} (${m.profile[k].certainty})`]))
 
   // Timing sheet
   L.heading('Signed timing sheet')

@@ -41,6 +41,20 @@ export async function homeFor(user: User) {
       .from(riders).innerJoin(teams, eq(teams.id, riders.teamId)).innerJoin(events, eq(events.id, teams.eventId)).where(inArray(teams.eventId, eventIds))
     : []
 
+  const entryRows = eventIds.length ? await db.select({ id: tables.entries.id, eventId: tables.entries.eventId, teamId: tables.entries.teamId, machine: machines.name }).from(tables.entries).innerJoin(machines, eq(machines.id, tables.entries.machineId)).where(inArray(tables.entries.eventId, eventIds)) : []
+  const clearance = await clearanceOf(entryRows.map(e => e.id))
+  const attemptRows = eventIds.length
+    ? (await db.execute<{ id: number; event_id: number; team_id: number; machine: string; runs: number; locked: boolean; submitted: boolean; decided: boolean; dossiers: number }>(sql`
+      select a.id, a.event_id, e.team_id, m.name as machine,
+        (select count(*)::int from runs r where r.attempt_id = a.id and r.status <> 'aborted') as runs,
+        coalesce((select kind = 'timing-sheet' from signatures s where s.subject_id = a.id and s.kind in ('timing-sheet', 'timing-sheet-reopened') order by s.id desc limit 1), false) as locked,
+        exists (select 1 from submissions x join dossiers d on d.id = x.dossier_id where d.attempt_id = a.id) as submitted,
+        exists (select 1 from decisions x join dossiers d on d.id = x.dossier_id where d.attempt_id = a.id) as decided,
+        (select count(*)::int from dossiers d where d.attempt_id = a.id) as dossiers
+      from attempts a join entries e on e.id = a.entry_id join machines m on m.id = e.machine_id
+      where a.event_id in ${sql.raw(`(${eventIds.map(Number).join(',')})`)} order by a.id desc`)).rows
+    : []
+
   const homes: RoleHome[] = mine.map((m) => {
     const at = `/events/${m.eventId}`
     const tc = trapCounts.find(t => t.eventId === m.eventId)
@@ -55,11 +69,21 @@ export async function homeFor(user: User) {
       const pending = roles.reduce((s, r) => s + r.pending, 0)
       tasks.push({ title: 'Invitations accepted', detail: pending ? `${pending} invitation(s) not yet accepted` : 'Everyone invited has signed in', href: `${at}/people`, done: pending === 0 })
     } else if (m.role === 'timekeeper') {
-      tasks.push({ title: 'Check the traps against the survey', detail: tc ? `${tc.traps} trap(s) on the course` : 'The organiser has not set the course yet', href: at, done: false })
+      tasks.push({ title: 'Run sheet', detail: tc ? `${tc.traps} trap(s) on the course` : 'The organiser has not set the course yet', href: `${at}/run-sheet`, done: !!tc })
+      for (const a of attemptRows.filter(x => x.event_id === m.eventId && x.runs >= 2)) {
+        tasks.push({ title: `Timing sheet of attempt #${a.id}`, detail: `${a.machine}: ${a.locked ? 'signed' : 'two runs in, to be signed'}`, href: `${at}/run-sheet`, done: a.locked })
+      }
     } else if (m.role === 'scrutineer') {
-      const ms = machineRows.filter(x => x.eventId === m.eventId)
-      tasks.push({ title: 'Inspect the machines', detail: ms.length ? ms.map(x => `${x.machine} (${x.team})`).join(', ') : 'No machine entered yet', href: at, done: false })
+      const es = entryRows.filter(x => x.eventId === m.eventId)
+      for (const e of es) {
+        const c = clearance.get(e.id)!
+        tasks.push({ title: `Inspect ${e.machine}`, detail: c.cleared ? 'cleared to run' : c.why, href: c.inspectionId ? `/inspections/${c.inspectionId}` : `${at}/inspections`, done: c.cleared })
+      }
+      if (!es.length) tasks.push({ title: 'Inspect the machines', detail: 'No machine entered yet', href: `${at}/inspections`, done: false })
     } else if (m.role === 'team') {
+      for (const a of attemptRows.filter(x => x.event_id === m.eventId && x.team_id === m.teamId).slice(0, 3)) {
+        tasks.push({ title: `Dossier of attempt #${a.id}`, detail: `${a.machine}: ${a.decided ? 'decided by the officials' : a.submitted ? 'submitted, awaiting the officials' : a.dossiers ? 'sealed, not submitted' : `${a.runs} run(s); see what it still needs`}`, href: `/attempts/${a.id}/dossier`, done: a.submitted })
+      }
       const ms = machineRows.filter(x => x.teamId === m.teamId)
       tasks.push({ title: 'Register the machine', detail: ms.length ? ms.map(x => x.machine).join(', ') : 'No machine registered yet', href: at, done: ms.length > 0 })
       const rs = riderRows.filter(r => r.teamId === m.teamId)
@@ -69,8 +93,11 @@ export async function homeFor(user: User) {
       }
       if (!rs.length) tasks.push({ title: 'Register the rider', detail: 'No rider yet', href: at, done: false })
     } else if (m.role === 'official') {
-      const ms = machineRows.filter(x => x.eventId === m.eventId)
-      tasks.push({ title: 'Entries to witness', detail: ms.length ? `${ms.length} machine(s) entered` : 'No entries yet', href: at, done: false })
+      for (const a of attemptRows.filter(x => x.event_id === m.eventId && x.submitted && !x.decided)) {
+        tasks.push({ title: `Decide on the dossier of attempt #${a.id}`, detail: `${a.machine}: submitted for ratification`, href: `/attempts/${a.id}/dossier`, done: false })
+      }
+      const pairs = attemptRows.filter(x => x.event_id === m.eventId && x.runs >= 2 && !x.submitted)
+      tasks.push({ title: 'Witness statements', detail: pairs.length ? `${pairs.length} attempt(s) with a pair of runs not yet submitted` : 'No pair waiting', href: `${at}/statements`, done: !pairs.length })
     }
     tasks.sort((a, b) => Number(a.done) - Number(b.done))
     return { eventId: m.eventId, eventName: m.eventName, role: m.role, teamName: m.teamName, tasks }
