@@ -46,6 +46,7 @@ class HashingStagingStorage implements multer.StorageEngine {
       const head: Buffer[] = []
       let headLength = 0
       const meter = new Transform({
+        highWaterMark: 1 << 20,
         transform(chunk: Buffer, _enc, done) {
           size += chunk.length
           if (size > limit) return done(new UploadError(413, 'file', `is over the limit of ${limit} bytes for this kind`))
@@ -55,7 +56,7 @@ class HashingStagingStorage implements multer.StorageEngine {
         },
       })
       try {
-        await pipeline(file.stream, meter, createWriteStream(tmp, { flags: 'wx' }))
+        await pipeline(file.stream, meter, createWriteStream(tmp, { flags: 'wx', highWaterMark: 1 << 20 }))
       } catch (e) {
         file.stream.resume()
         await rm(tmp, { force: true })
