@@ -28,8 +28,10 @@ async function run(page: Page, direction: 'out' | 'back', times: string[], minut
   const start = await page.evaluate((m) => { const d = new Date(Date.now() - m * 60_000); d.setSeconds(0, 0); return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 19) }, minutesAgo)
   await page.fill('#sr-start', start)
   await page.selectOption('#sr-direction', direction)
+  const started = page.waitForResponse(r => r.url().endsWith('/runs') && r.request().method() === 'POST')
   await page.click('button:has-text("Start the run")')
-  await page.locator(`h2:has-text("· ${direction}")`).first().waitFor()
+  const runId = (await (await started).json()).id as number
+  await page.locator(`h2:has-text("Run #${runId} ")`).waitFor()
   const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
   await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
   for (const [i, label] of order.entries()) {
@@ -37,7 +39,6 @@ async function run(page: Page, direction: 'out' | 'back', times: string[], minut
     await page.keyboard.press('Enter')
     await page.locator(`[data-test="value-${label}-primary"]`).waitFor()
   }
-  const runId = (await page.locator('h2', { hasText: '· ' + direction }).first().innerText()).match(/#(\d+)/)![1]
   await page.fill(`#w-speed-${runId}`, '1.8')
   await page.fill(`#w-from-${runId}`, '190')
   await page.click('button:has-text("Add the weather reading")')

@@ -22,8 +22,10 @@ async function signIn(ctx: Awaited<ReturnType<typeof launchBrowser>>, email: str
 async function enterRun(page: Page, direction: 'out' | 'back', times: string[]) {
   await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
   await page.selectOption('#sr-direction', direction)
+  const started = page.waitForResponse(r => r.url().endsWith('/runs') && r.request().method() === 'POST')
   await page.click('button:has-text("Start the run")')
-  await page.locator(`h2:has-text("· ${direction}")`).first().waitFor()
+  const runId = (await (await started).json()).id as number
+  await page.locator(`h2:has-text("Run #${runId} ")`).waitFor()
   const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
   await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
   for (const [i, label] of order.entries()) {
