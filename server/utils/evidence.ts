@@ -8,8 +8,7 @@ import type { StagedFile } from './uploads'
 
 type Fields = z.infer<typeof evidenceFieldsSchema>
 const notFound = () => createError({ statusCode: 404, statusMessage: 'No such evidence' })
-const field = (path: string, message: string, statusCode = 422) =>
-  createError({ statusCode, statusMessage: 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
+const field = fieldInvalid
 
 /** The team(s) a target belongs to, or null for event-level targets; 422 if it is not of this event. */
 async function targetTeams(eventId: number, f: Fields): Promise<number[] | null> {

@@ -4,8 +4,7 @@ import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
 
-const fieldError = (path: string, message: string) =>
-  createError({ statusCode: 422, statusMessage: 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
+const fieldError = fieldInvalid
 
 async function loadInspection(id: number) {
   const [row] = await useDb().select().from(tables.inspections).where(eq(tables.inspections.id, id))

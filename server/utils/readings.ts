@@ -20,7 +20,7 @@ function ticksOf(time: string, ticksPerSecond: number, field: string) {
   try {
     return parseTimeOfDay(time, BigInt(ticksPerSecond))
   } catch (e) {
-    throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: `${field}: ${(e as Error).message}`, data: { issues: [{ path: field, message: (e as Error).message }] } })
+    throw fieldInvalid(field, (e as Error).message)
   }
 }
 
@@ -31,7 +31,7 @@ async function checkTrapAndSystem(tx: Tx, ctx: { event_id: number; course_id: nu
   const issues = []
   if (!rows[0]?.trap) issues.push({ path: 'trapId', message: 'is not a trap of this run\'s course' })
   if (!rows[0]?.tps) issues.push({ path: 'systemId', message: 'is not a timing system of this event' })
-  if (issues.length) throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: issues.map(i => `${i.path}: ${i.message}`).join('; '), data: { issues } })
+  if (issues.length) throw fieldsInvalid(issues)
   return rows[0]!.tps!
 }
 

@@ -5,8 +5,7 @@ import type { RuleProfile } from '#shared/rules/profile'
 import type { z } from 'zod'
 import type { distanceSchema, entrySchema, profileAdaptSchema } from '#shared/schemas/event-day'
 
-const unprocessable = (path: string, message: string) =>
-  createError({ statusCode: 422, statusMessage: 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
+const unprocessable = fieldInvalid
 
 /** A course of this event, else 422 on the field (the caller already holds a role at the event). */
 export async function courseOf(eventId: number, courseId: number, field = 'courseId') {

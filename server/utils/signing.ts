@@ -10,7 +10,7 @@ export const sha256 = (text: string) => createHash('sha256').update(text).digest
 export async function assertPassword(userId: number, password: string) {
   const [user] = await useDb().select().from(tables.users).where(eq(tables.users.id, userId))
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, password))) {
-    throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'password: is not your password; nothing was signed', data: { issues: [{ path: 'password', message: 'is not your password; nothing was signed' }] } })
+    throw fieldInvalid('password', 'is not your password; nothing was signed')
   }
 }
 

@@ -11,7 +11,7 @@ export const statementContent = (s: StatementRow, authorName: string) => ({
 /** Writes and signs a witness statement in one step: the statement exists only signed. */
 export async function createStatement(eventId: number, input: { attemptId: number; runsSeen: string; position: string; conditions: string; irregularities: string; password: string; typedName: string; drawingPng?: string }, user: { id: number; name: string }) {
   const [attempt] = await useDb().select({ id: tables.attempts.id }).from(tables.attempts).where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
-  if (!attempt) throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'attemptId: is not an attempt of this event', data: { issues: [{ path: 'attemptId', message: 'is not an attempt of this event' }] } })
+  if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
   await assertPassword(user.id, input.password)
   return signStatement(eventId, { attemptId: input.attemptId, runsSeen: input.runsSeen, position: input.position, conditions: input.conditions, irregularities: input.irregularities }, user, input)
 }

@@ -93,8 +93,7 @@ function receiveUploadWith(event: H3Event, beforeFile: (fields: Record<string, u
 }
 
 function toHttpError(err: unknown) {
-  const issue = (statusCode: number, path: string, message: string) =>
-    createError({ statusCode, statusMessage: statusCode === 413 ? 'Too large' : 'Invalid input', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
+  const issue = (statusCode: number, path: string, message: string) => fieldInvalid(path, message, statusCode)
   if (err instanceof UploadError) return issue(err.statusCode, err.field, err.message)
   if ((err as { statusCode?: number }).statusCode) return err
   const code = (err as { code?: string }).code

@@ -7,6 +7,18 @@ export interface FieldIssue {
 }
 
 /** 422 naming every field at fault; the client shows each message beside its field. */
+/** 422 for fields a schema cannot judge alone (a wrong password, a record of another event…). */
+export function fieldsInvalid(issues: FieldIssue[], statusCode = 422) {
+  return createError({
+    statusCode,
+    statusMessage: statusCode === 413 ? 'Too large' : 'Invalid input',
+    message: issues.map(i => `${i.path}: ${i.message}`).join('; '),
+    data: { issues },
+  })
+}
+
+export const fieldInvalid = (path: string, message: string, statusCode = 422) => fieldsInvalid([{ path, message }], statusCode)
+
 export function invalidInput(error: z.ZodError) {
   const issues: FieldIssue[] = error.issues.map(i => ({ path: i.path.join('.') || '(body)', message: i.message }))
   return createError({

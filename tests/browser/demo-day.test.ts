@@ -2,6 +2,7 @@ import type { BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, expect, inject, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
 import { launchBrowser, open } from '../support/browser'
+import { enterRun } from '../support/run-sheet'
 
 // The whole day through the pages: readings → inspection → statements → uploads → dossier →
 // the e-mail in the catcher → verification → ratification → record book.
@@ -23,27 +24,14 @@ async function as(email: string, path: string): Promise<Page> {
   return page
 }
 
+/** A run entered on the run sheet, with the weather at it. */
 async function run(page: Page, direction: 'out' | 'back', times: string[], minutesAgo: number) {
-  await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
-  const start = await page.evaluate((m) => { const d = new Date(Date.now() - m * 60_000); d.setSeconds(0, 0); return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 19) }, minutesAgo)
-  await page.fill('#sr-start', start)
-  await page.selectOption('#sr-direction', direction)
-  const started = page.waitForResponse(r => r.url().endsWith('/runs') && r.request().method() === 'POST')
-  await page.click('button:has-text("Start the run")')
-  const runId = (await (await started).json()).id as number
-  await page.locator(`h2:has-text("Run #${runId} ")`).waitFor()
-  const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
-  await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
-  for (const [i, label] of order.entries()) {
-    await page.keyboard.type(times[i]!)
-    await page.keyboard.press('Enter')
-    await page.locator(`[data-test="value-${label}-primary"]`).waitFor()
-  }
+  const runId = await enterRun(page, direction, times, minutesAgo)
   await page.fill(`#w-speed-${runId}`, '1.8')
   await page.fill(`#w-from-${runId}`, '190')
   await page.click('button:has-text("Add the weather reading")')
   await page.locator('text=Wind 1.80 m/s from 190.00°').waitFor()
-  return Number(runId)
+  return runId
 }
 
 it('runs the demo day from the first reading to the record book', async () => {

@@ -1,7 +1,8 @@
-import type { BrowserContext, Page } from 'playwright-core'
+import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
 import { launchBrowser, open } from '../support/browser'
+import { enterRun } from '../support/run-sheet'
 
 // Two people at once, each in a browser of their own: the timekeeper in the hut, the team in the pits.
 let hut: Awaited<ReturnType<typeof launchBrowser>>
@@ -16,23 +17,6 @@ async function signIn(ctx: Awaited<ReturnType<typeof launchBrowser>>, email: str
   await page.click('button[type=submit]')
   await page.waitForURL('**/home')
   return page
-}
-
-/** Starts a run for the streamliner and types the primary system's four trap times, Enter after each. */
-async function enterRun(page: Page, direction: 'out' | 'back', times: string[]) {
-  await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
-  await page.selectOption('#sr-direction', direction)
-  const started = page.waitForResponse(r => r.url().endsWith('/runs') && r.request().method() === 'POST')
-  await page.click('button:has-text("Start the run")')
-  const runId = (await (await started).json()).id as number
-  await page.locator(`h2:has-text("Run #${runId} ")`).waitFor()
-  const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
-  await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
-  for (const [i, label] of order.entries()) {
-    await page.keyboard.type(times[i]!)
-    await page.keyboard.press('Enter')
-    await page.locator(`[data-test="value-${label}-primary"]`).waitFor()
-  }
 }
 
 it('the timekeeper enters two runs on the run sheet; the team sees the return-run target, then the two-way result', async () => {

@@ -6,7 +6,7 @@ export default defineEventHandler(async (event) => {
   const { currentPassword, newPassword } = await validBody(event, changePasswordSchema)
   const [user] = await useDb().select().from(tables.users).where(eq(tables.users.id, me.id))
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, currentPassword))) {
-    throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'currentPassword: is not your current password', data: { issues: [{ path: 'currentPassword', message: 'is not your current password' }] } })
+    throw fieldInvalid('currentPassword', 'is not your current password')
   }
   await useDb().update(tables.users)
     .set({ passwordHash: await hashPassword(newPassword), passwordChangedAt: new Date() })

@@ -3,7 +3,7 @@ import { readFile, rm } from 'node:fs/promises'
 // public route: anyone may check a dossier. The PDF is the multipart field "file".
 export default defineEventHandler(async (event) => {
   const { file } = await receiveVerifyUpload(event)
-  if (!file) throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'file: no file was sent', data: { issues: [{ path: 'file', message: 'no file was sent' }] } })
+  if (!file) throw fieldInvalid('file', 'no file was sent')
   try {
     const result = await verifyDossier(new Uint8Array(await readFile(file.path)))
     if (!result.keyFingerprint && !result.items.length) setResponseStatus(event, 422)

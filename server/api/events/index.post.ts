@@ -1,5 +1,6 @@
 import { createEventSchema } from '#shared/schemas/events'
 
+// Not requireRole: creating events is the site administrator's, checked by requireAdmin.
 export default defineEventHandler(async (event) => {
   const admin = await requireAdmin(event)
   const input = await validBody(event, createEventSchema)

@@ -5,7 +5,7 @@ import { evidenceFieldsSchema } from '#shared/schemas/evidence'
 export default defineEventHandler(async (event) => {
   const access = await requireEventRole(event, 'any')
   const { file, fields } = await receiveUpload(event, evidenceGate(access))
-  if (!file) throw createError({ statusCode: 422, statusMessage: 'Invalid input', message: 'file: no file was sent', data: { issues: [{ path: 'file', message: 'no file was sent' }] } })
+  if (!file) throw fieldInvalid('file', 'no file was sent')
   const created = await commitEvidence(access, evidenceFieldsSchema.parse(fields), file)
   setResponseStatus(event, 201)
   return created
