@@ -12,7 +12,8 @@ export default defineEventHandler(async (event) => {
     'content-length': Number(row.size),
     'content-disposition': `${download === '1' ? 'attachment' : 'inline'}; filename*=UTF-8''${name}`,
     'x-content-type-options': 'nosniff',
-    'content-security-policy': 'sandbox; default-src \'none\'; img-src \'self\'; style-src \'unsafe-inline\'',
+    // Sandboxed, except PDFs: browsers will not show a PDF in a sandboxed document.
+    'content-security-policy': row.mediaType === 'application/pdf' ? 'default-src \'none\'' : 'sandbox; default-src \'none\'; img-src \'self\'; style-src \'unsafe-inline\'',
     'cache-control': 'private, max-age=31536000, immutable',
     'etag': `"${row.sha256}"`,
   })
