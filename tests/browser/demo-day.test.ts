@@ -1,7 +1,7 @@
 import type { BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, expect, inject, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, open, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
 
 // The whole day through the pages: readings → inspection → statements → uploads → dossier →
@@ -11,17 +11,8 @@ beforeAll(async () => { ctx = await launchBrowser() })
 afterAll(async () => { await ctx?.close() })
 
 async function as(email: string, path: string): Promise<Page> {
-  const context = ctx.browser as BrowserContext
-  await context.clearCookies()
-  for (const p of context.pages()) await p.close()
-  const page = await open(context, `${ctx.baseUrl}/login`)
-  await page.fill('#email', email)
-  await page.fill('#password', demo.password)
-  await page.click('button[type=submit]')
-  await page.waitForURL('**/home')
-  await page.goto(`${ctx.baseUrl}${path}`)
-  await page.waitForSelector('html[data-hydrated="true"]')
-  return page
+  for (const p of ctx.browser.pages()) await p.close()
+  return signIn(ctx, email, path)
 }
 
 /** A run entered on the run sheet, with the weather at it. */

@@ -1,7 +1,5 @@
-import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
-import demo from '../../server/database/demo-people.json'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
 
 // Two people at once, each in a browser of their own: the timekeeper in the hut, the team in the pits.
@@ -10,22 +8,9 @@ let pits: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { [hut, pits] = await Promise.all([launchBrowser(), launchBrowser()]) })
 afterAll(async () => { await hut?.close(); await pits?.close() })
 
-async function signIn(ctx: Awaited<ReturnType<typeof launchBrowser>>, email: string) {
-  const page = await open(ctx.browser as BrowserContext, `${ctx.baseUrl}/login`)
-  await page.fill('#email', email)
-  await page.fill('#password', demo.password)
-  await page.click('button[type=submit]')
-  await page.waitForURL('**/home')
-  return page
-}
-
 it('the timekeeper enters two runs on the run sheet; the team sees the return-run target, then the two-way result', async () => {
-  const tk = await signIn(hut, 'timekeeper@trapline.test')
-  await tk.goto(`${hut.baseUrl}/events/1/run-sheet`)
-  await tk.waitForSelector('html[data-hydrated="true"]')
-  const team = await signIn(pits, 'team@trapline.test')
-  await team.goto(`${pits.baseUrl}/events/1/live`)
-  await team.waitForSelector('html[data-hydrated="true"]')
+  const tk = await signIn(hut, 'timekeeper@trapline.test', '/events/1/run-sheet')
+  const team = await signIn(pits, 'team@trapline.test', '/events/1/live')
   const before = await team.locator('article[data-test^="attempt-"]').count()
 
   // Out: the mile in 14.5000 s (399.555… km/h); the kilometre inside it in 9.0000 s.

@@ -1,23 +1,13 @@
-import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
-import demo from '../../server/database/demo-people.json'
 import { pdf, png, sha256 } from '../support/files'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, signIn } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { ctx = await launchBrowser() })
 afterAll(async () => { await ctx?.close() })
 
 it('uploads two files, shows their progress and hashes, and opens them in the viewer', async () => {
-  const context = ctx.browser as BrowserContext
-  await context.clearCookies()
-  const page = await open(context, `${ctx.baseUrl}/login`)
-  await page.fill('#email', 'organiser@trapline.test')
-  await page.fill('#password', demo.password)
-  await page.click('button[type=submit]')
-  await page.waitForURL('**/home')
-  await page.goto(`${ctx.baseUrl}/events/1/evidence`)
-  await page.waitForSelector('html[data-hydrated="true"]')
+  const page = await signIn(ctx, 'organiser@trapline.test', '/events/1/evidence')
   await page.selectOption('#ev-kind', 'other-document')
 
   const certificate = pdf('browser upload')

@@ -1,24 +1,12 @@
-import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
 import { call, login, useTestServer } from '../support/api'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, signIn } from '../support/browser'
 
 await useTestServer()
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { ctx = await launchBrowser() })
 afterAll(async () => { await ctx?.close() })
-
-async function signIn(email: string) {
-  const context = ctx.browser as BrowserContext
-  await context.clearCookies()
-  const page = await open(context, `${ctx.baseUrl}/login`)
-  await page.fill('#email', email)
-  await page.fill('#password', demo.password)
-  await page.click('button[type=submit]')
-  await page.waitForURL('**/home')
-  return page
-}
 
 it('the scrutineer completes and signs an inspection, and the team sees its entry cleared', async () => {
   // A new entry of the second demo team, through the API, so that this test owns it.
@@ -30,9 +18,7 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   })
   expect(entry.status).toBe(201)
 
-  const page = await signIn('scrutineer@trapline.test')
-  await page.goto(`${ctx.baseUrl}/events/1/inspections`)
-  await page.waitForSelector('html[data-hydrated="true"]')
+  const page = await signIn(ctx, 'scrutineer@trapline.test', '/events/1/inspections')
   await page.locator(`[data-test="entry-${entry.body.id}"] button:has-text("Inspect")`).click()
   await page.waitForURL('**/inspections/*')
   await page.waitForSelector('html[data-hydrated="true"]')
@@ -67,16 +53,13 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await page.click('button:has-text("Sign the inspection")')
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
-  const team = await signIn('team2@trapline.test')
-  await team.goto(`${ctx.baseUrl}/events/1/entries`)
+  const team = await signIn(ctx, 'team2@trapline.test', '/events/1/entries')
   const card = team.locator('article', { hasText: 'Ember Scout' })
   await expect.poll(() => card.locator('[data-test="entry-clearance"]').innerText()).toContain('Cleared to run')
 })
 
 it('an official signs a witness statement, and it is listed with its signature', async () => {
-  const page = await signIn('official@trapline.test')
-  await page.goto(`${ctx.baseUrl}/events/1/statements`)
-  await page.waitForSelector('html[data-hydrated="true"]')
+  const page = await signIn(ctx, 'official@trapline.test', '/events/1/statements')
   await page.fill('#st-runs', 'both runs of the pair')
   await page.fill('#st-position', 'at the exit trap of the mile')
   await page.fill('#st-conditions', 'dry, light southerly wind')

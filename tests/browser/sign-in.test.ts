@@ -1,27 +1,17 @@
 import type { BrowserContext } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, submitSignIn } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { ctx = await launchBrowser() })
 afterAll(async () => { await ctx?.close() })
 
-async function signIn(email: string, password: string) {
-  const context = ctx.browser as BrowserContext
-  await context.clearCookies()
-  const page = await open(context, `${ctx.baseUrl}/login`)
-  await page.fill('#email', email)
-  await page.fill('#password', password)
-  await page.click('button[type=submit]')
-  return page
-}
-
 describe('signing in as each demo role', () => {
   for (const person of demo.people) {
     const role = person.admin ? 'admin' : person.role!
     it(`${person.email} lands on the ${role} home`, async () => {
-      const page = await signIn(person.email, demo.password)
+      const page = await submitSignIn(ctx, person.email, demo.password)
       await page.waitForURL('**/home')
       const card = page.locator(`[data-test="home-${role}"]`)
       await card.waitFor()
@@ -35,7 +25,7 @@ describe('signing in as each demo role', () => {
   }
 
   it('shows the error for a wrong password and stays on the sign-in page', async () => {
-    const page = await signIn(demo.people[1]!.email, 'not-the-password')
+    const page = await submitSignIn(ctx, demo.people[1]!.email, 'not-the-password')
     const error = page.locator('[data-test="login-error"]')
     await error.waitFor()
     expect(await error.innerText()).toContain('Wrong e-mail address or password')

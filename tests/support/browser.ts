@@ -3,6 +3,9 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext } from 'playwright-core'
 import { inject } from 'vitest'
+import demo from '../../server/database/demo-people.json'
+
+const demoPassword = demo.password
 
 /** Debian's Chromium, headless, with a new empty profile; never a browser download. */
 export async function launchBrowser(): Promise<{ browser: BrowserContext; close: () => Promise<void>; baseUrl: string }> {
@@ -25,5 +28,26 @@ export async function open(context: BrowserContext, url: string) {
   const page = await context.newPage()
   await page.goto(url)
   await page.waitForSelector('html[data-hydrated="true"]')
+  return page
+}
+
+/** Fills and sends the sign-in form in a context with no cookies; returns the page where it lands. */
+export async function submitSignIn(ctx: { browser: BrowserContext; baseUrl: string }, email: string, password: string) {
+  await ctx.browser.clearCookies()
+  const page = await open(ctx.browser, `${ctx.baseUrl}/login`)
+  await page.fill('#email', email)
+  await page.fill('#password', password)
+  await page.click('button[type=submit]')
+  return page
+}
+
+/** Signs a demo person in (the demo password), waits for the home page, then opens `path` if given. */
+export async function signIn(ctx: { browser: BrowserContext; baseUrl: string }, email: string, path?: string) {
+  const page = await submitSignIn(ctx, email, demoPassword)
+  await page.waitForURL('**/home')
+  if (path) {
+    await page.goto(`${ctx.baseUrl}${path}`)
+    await page.waitForSelector('html[data-hydrated="true"]')
+  }
   return page
 }
