@@ -2,7 +2,9 @@
 // build-time variable is the output folder, so the tests build beside a running npm start.
 export default defineNuxtConfig({
   compatibilityDate: '2026-06-01',
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
+  // The linter's shared settings; project rules are in eslint.config.mjs.
+  eslint: { config: { stylistic: true } },
   devtools: { enabled: false },
   telemetry: false,
   css: [
