@@ -1,20 +1,8 @@
 // Run-time values come from NUXT_* variables set by scripts/start.sh and the tests. The only
 // build-time variable is the output folder, so the tests build beside a running npm start.
 export default defineNuxtConfig({
-  compatibilityDate: '2026-06-01',
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
-  // The linter's shared settings; project rules are in eslint.config.mjs.
-  eslint: { config: { stylistic: true } },
   devtools: { enabled: false },
-  telemetry: false,
-  css: [
-    '@fontsource/inter/400.css',
-    '@fontsource/inter/600.css',
-    '@fontsource/inter/700.css',
-    '@fontsource/merriweather/400.css',
-    '@fontsource/merriweather/700.css',
-    '~/assets/css/main.css',
-  ],
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -27,6 +15,14 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
+  css: [
+    '@fontsource/inter/400.css',
+    '@fontsource/inter/600.css',
+    '@fontsource/inter/700.css',
+    '@fontsource/merriweather/400.css',
+    '@fontsource/merriweather/700.css',
+    '~/assets/css/main.css',
+  ],
   runtimeConfig: {
     databaseUrl: '',
     siteUrl: 'http://localhost:3000',
@@ -49,6 +45,7 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
   },
+  compatibilityDate: '2026-06-01',
   nitro: {
     ...(process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {}),
     // The dossier's fonts, read at run time: shipped inside the build, not looked up in node_modules.
@@ -58,4 +55,7 @@ export default defineNuxtConfig({
     ],
   },
   typescript: { strict: true },
+  telemetry: false,
+  // The linter's shared settings; project rules are in eslint.config.mjs.
+  eslint: { config: { stylistic: true } },
 })

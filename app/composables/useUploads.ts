@@ -35,8 +35,9 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
     xhr.open('POST', `/api/events/${eventId.value}/evidence`)
     xhr.upload.onprogress = (e) => { item.sent = e.loaded }
     xhr.onload = () => {
-      let res: { sha256?: string; message?: string; data?: { issues?: { path: string; message: string }[] } } = {}
-      try { res = JSON.parse(xhr.responseText) } catch { /* not JSON */ }
+      let res: { sha256?: string, message?: string, data?: { issues?: { path: string, message: string }[] } } = {}
+      try { res = JSON.parse(xhr.responseText) }
+      catch { /* not JSON */ }
       if (xhr.status === 201) { Object.assign(item, { state: 'done', sent: item.size, sha256: res.sha256 }); onDone() }
       else Object.assign(item, { state: 'failed', message: res.data?.issues?.map(i => `${i.path}: ${i.message}`).join('; ') ?? res.message ?? `refused (${xhr.status})` })
     }

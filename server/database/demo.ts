@@ -103,7 +103,7 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
 }
 
 /** Trap times for an invented run at a near-steady speed, on both timing systems. */
-function demoReadings(firstTrap: string, kmh: number, direction: 'out' | 'back', traps: { id: number; positionM: string }[], primary: { id: number; ticksPerSecond: number }, backup: { id: number; ticksPerSecond: number }) {
+function demoReadings(firstTrap: string, kmh: number, direction: 'out' | 'back', traps: { id: number, positionM: string }[], primary: { id: number, ticksPerSecond: number }, backup: { id: number, ticksPerSecond: number }) {
   const [h, m, s] = firstTrap.split(':').map(Number) as [number, number, number]
   const t0 = h * 3600 + m * 60 + s
   const ordered = [...traps].sort((a, b) => Number(a.positionM) - Number(b.positionM))

@@ -75,7 +75,7 @@ const OWNER = {
 export async function requireRoleOn(event: H3Event, kind: keyof typeof OWNER, allowed: readonly EventRole[] | 'any'): Promise<EventAccess & { recordId: number }> {
   const user = await requireUser(event)
   const { id } = validParams(event, idParams)
-  const { rows } = await useDb().execute<{ event_id: number; role: EventRole; team_id: number | null }>(sql`
+  const { rows } = await useDb().execute<{ event_id: number, role: EventRole, team_id: number | null }>(sql`
     select m.event_id, m.role, m.team_id from memberships m
     where m.user_id = ${user.id} and m.event_id = (${OWNER[kind]}${id})`)
   const access = gate({

@@ -4,7 +4,7 @@ import type { Readable } from 'node:stream'
 import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
 import { Upload } from '@aws-sdk/lib-storage'
 
-export interface S3Options { endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string }
+export interface S3Options { endpoint?: string, region: string, bucket: string, accessKeyId: string, secretAccessKey: string }
 
 /** Evidence in an S3-compatible store, for several app servers; objects are keyed by SHA-256. */
 export class S3BlobStore {
@@ -26,7 +26,8 @@ export class S3BlobStore {
     try {
       await this.client.send(new HeadObjectCommand({ Bucket: this.options.bucket, Key: this.key(sha) }))
       return true
-    } catch (e) {
+    }
+    catch (e) {
       if ((e as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode === 404) return false
       throw e
     }
@@ -43,7 +44,8 @@ export class S3BlobStore {
           queueSize: 2,
         }).done()
       }
-    } finally {
+    }
+    finally {
       await rm(tmpPath, { force: true })
     }
   }
@@ -57,7 +59,7 @@ export class S3BlobStore {
     await this.client.send(new DeleteObjectCommand({ Bucket: this.options.bucket, Key: this.key(sha) }))
   }
 
-  async *list() {
+  async* list() {
     let token: string | undefined
     do {
       const page = await this.client.send(new ListObjectsV2Command({ Bucket: this.options.bucket, Prefix: 'evidence/', ContinuationToken: token }))

@@ -23,9 +23,10 @@ export class LocalBlobStore implements BlobStore {
     if (await this.has(sha)) await rm(tmpPath, { force: true })
     else await rename(tmpPath, this.path(sha)) // same file system: atomic, never a half file in place
   }
+
   async open(sha: string) { return createReadStream(this.path(sha)) }
   async remove(sha: string) { await rm(this.path(sha), { force: true }) }
-  async *list() {
+  async* list() {
     for (const d of await readdir(this.dir).catch(() => [] as string[])) {
       for (const f of await readdir(join(this.dir, d)).catch(() => [] as string[])) if (/^[0-9a-f]{64}$/.test(f)) yield f
     }

@@ -25,7 +25,7 @@ export function startDemoSeed() {
 async function seedDemoInspections() {
   const [scrutineer] = await useDb().select().from(tables.users).where(eq(tables.users.email, 'scrutineer@trapline.test'))
   const entries = await useDb().select({ entry: tables.entries, machine: tables.machines }).from(tables.entries).innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
-  const measured: Record<string, [number, string]> = { isolation: [2.4, 'MΩ'], bonding: [0.03, 'Ω'], 'canopy-exit': [21, 's'] }
+  const measured: Record<string, [number, string]> = { 'isolation': [2.4, 'MΩ'], 'bonding': [0.03, 'Ω'], 'canopy-exit': [21, 's'] }
   for (const { entry, machine } of entries) {
     const inspection = await startInspection(entry.eventId, { entryId: entry.id, baseId: 'electric-motorcycle' }, scrutineer!.id)
     await setBus(inspection.id, { busVoltageV: 400, busKind: 'dc' })

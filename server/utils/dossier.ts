@@ -1,8 +1,7 @@
-import { createHash } from 'node:crypto'
+import { createHash, randomUUID } from 'node:crypto'
 import { writeFile } from 'node:fs/promises'
 import { deflateSync } from 'node:zlib'
 import { join } from 'node:path'
-import { randomUUID } from 'node:crypto'
 import fontkit from '@pdf-lib/fontkit'
 import { desc, eq, sql } from 'drizzle-orm'
 import { PDFDocument } from 'pdf-lib'
@@ -79,7 +78,7 @@ function isForAttempt(e: typeof tables.evidence.$inferSelect, r: Awaited<ReturnT
 }
 
 /** The PDF: every section of the file, the manifest and its seal attached, small evidence files inside. */
-export async function renderDossier(m: Manifest, seal: { sha256: string; signature: string; fingerprint: string; verifyUrl: string }, attach: { name: string; bytes: Uint8Array; mediaType: string; sha256: string }[]) {
+export async function renderDossier(m: Manifest, seal: { sha256: string, signature: string, fingerprint: string, verifyUrl: string }, attach: { name: string, bytes: Uint8Array, mediaType: string, sha256: string }[]) {
   const doc = await PDFDocument.create()
   const issued = new Date(m.dossier.issuedAt)
   doc.setTitle(`Trapline dossier: ${m.entry.machine.name}, attempt ${m.dossier.attempt}, version ${m.dossier.version}`)
@@ -200,7 +199,7 @@ export async function renderDossier(m: Manifest, seal: { sha256: string; signatu
   for (const a of attach) await doc.attach(a.bytes, attachmentName(a.sha256, a.name), { mimeType: a.mediaType, description: `SHA-256 ${a.sha256}`, ...when })
   // Attached files are compressed when the PDF is saved; Node's native zlib does in a fraction of a
   // second what pdf-lib's JavaScript deflate takes seconds for on 20 MB. Same Flate stream format.
-  const context = doc.context as unknown as { flateStream: (c: Uint8Array, d?: object) => unknown; stream: (c: Uint8Array, d: object) => unknown }
+  const context = doc.context as unknown as { flateStream: (c: Uint8Array, d?: object) => unknown, stream: (c: Uint8Array, d: object) => unknown }
   context.flateStream = (contents, dict = {}) => context.stream(deflateSync(contents), { ...dict, Filter: 'FlateDecode' })
   return doc.save({ useObjectStreams: false })
 }
@@ -228,7 +227,7 @@ export async function issueDossier(eventId: number, attemptId: number, userId: n
   // and no stored file is read again to hash it: the hashes come from their rows.
   const budget = Number(useRuntimeConfig().dossierAttachBytes)
   let used = 0
-  const attach: { name: string; bytes: Uint8Array; mediaType: string; sha256: string }[] = []
+  const attach: { name: string, bytes: Uint8Array, mediaType: string, sha256: string }[] = []
   const seen = new Set<string>()
   for (const e of [...manifest.evidence].sort((a, b) => Number(a.size) - Number(b.size))) {
     if (seen.has(e.sha256) || used + Number(e.size) > budget) continue
@@ -258,6 +257,5 @@ export async function latestDossier(attemptId: number) {
   const [row] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.attemptId, attemptId)).orderBy(desc(tables.dossiers.version)).limit(1)
   return row ?? null
 }
-
 
 const sqlLock = (sha: string) => sql`select pg_advisory_xact_lock(hashtextextended(${sha}, 0))`

@@ -80,12 +80,14 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
           runId: fields.runId, inspectionId: fields.inspectionId, itemKey: fields.itemKey, uploadedBy: access.user.id,
         }).returning()
         return { ...row!, storedBefore: existed }
-      } catch (e) {
+      }
+      catch (e) {
         if (!existed) await store.remove(file.sha256)
         throw e
       }
     })
-  } finally {
+  }
+  finally {
     await rmStaged(file.path)
   }
 }
@@ -93,7 +95,7 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
 const rmStaged = (path: string) => import('node:fs/promises').then(fs => fs.rm(path, { force: true }))
 
 /** Evidence at an event as this person may see it: a team sees its own and the event-level files. */
-export async function listEvidence(access: EventAccess, filter: { kind?: EvidenceKind; attemptId?: number; runId?: number; entryId?: number }) {
+export async function listEvidence(access: EventAccess, filter: { kind?: EvidenceKind, attemptId?: number, runId?: number, entryId?: number }) {
   const { rows } = await useDb().execute<Record<string, unknown>>(sql`
     select x.*, u.name as uploaded_by_name, ${teamSql} as team_id
     from evidence x join users u on u.id = x.uploaded_by
@@ -118,7 +120,7 @@ const camel = (r: Record<string, unknown>) => Object.fromEntries(Object.entries(
 }
 
 /** One piece of evidence by id or by hash within an event, as this person may see it; else 404. */
-export async function findEvidence(access: EventAccess, by: { id?: number; sha256?: string }) {
+export async function findEvidence(access: EventAccess, by: { id?: number, sha256?: string }) {
   const { rows } = await useDb().execute<Record<string, unknown>>(sql`
     select x.*, ${teamSql} as team_id from evidence x
     where x.event_id = ${access.eventId} and ${by.id ? sql`x.id = ${by.id}` : sql`x.sha256 = ${by.sha256}`}
@@ -127,4 +129,3 @@ export async function findEvidence(access: EventAccess, by: { id?: number; sha25
   if (!row || (teamOnly(access) && row.teamId !== null && !access.teamIds.includes(row.teamId))) throw notFound()
   return row
 }
-

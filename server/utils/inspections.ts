@@ -20,7 +20,7 @@ const asAnswers = (rows: (typeof tables.inspectionAnswers.$inferSelect)[]): Answ
   rows.map(r => ({ itemKey: r.itemKey, result: r.result, value: r.value === null ? null : Number(r.value), note: r.note }))
 
 /** The organiser's adapted copy of a library checklist, with a new version for the event. */
-export async function adaptChecklist(eventId: number, input: { baseId: string; removeItems: string[]; addItems: { section: string; label: string }[]; note: string }, userId: number) {
+export async function adaptChecklist(eventId: number, input: { baseId: string, removeItems: string[], addItems: { section: string, label: string }[], note: string }, userId: number) {
   const base = checklistLibrary[input.baseId as ChecklistId]
   const known = new Set(allItems(base).map(i => i.key))
   const unknown = input.removeItems.filter(k => !known.has(k))
@@ -39,7 +39,7 @@ export async function adaptChecklist(eventId: number, input: { baseId: string; r
   return row!
 }
 
-export async function startInspection(eventId: number, input: { entryId: number; checklistId?: number; baseId?: string }, userId: number) {
+export async function startInspection(eventId: number, input: { entryId: number, checklistId?: number, baseId?: string }, userId: number) {
   const db = useDb()
   const [entry] = await db.select().from(tables.entries).where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId)))
   if (!entry) throw fieldError('entryId', 'is not an entry of this event')
@@ -48,7 +48,8 @@ export async function startInspection(eventId: number, input: { entryId: number;
     const [c] = await db.select().from(tables.checklists).where(and(eq(tables.checklists.id, input.checklistId), eq(tables.checklists.eventId, eventId)))
     if (!c) throw fieldError('checklistId', 'is not a checklist of this event')
     checklist = c.content
-  } else {
+  }
+  else {
     checklist = checklistLibrary[input.baseId as ChecklistId]
   }
   return db.transaction(async (tx) => {
@@ -60,7 +61,7 @@ export async function startInspection(eventId: number, input: { entryId: number;
 }
 
 /** Records one item's result; a measurement is converted to the item's unit and checked. */
-export async function answerItem(inspectionId: number, input: { itemKey: string; result: 'pass' | 'fail' | 'na'; value?: number; unit?: string; note?: string }, userId: number) {
+export async function answerItem(inspectionId: number, input: { itemKey: string, result: 'pass' | 'fail' | 'na', value?: number, unit?: string, note?: string }, userId: number) {
   const inspection = await loadInspection(inspectionId)
   if (inspection.signatureId) throw createError({ statusCode: 409, statusMessage: 'This inspection is signed; a re-inspection is a new inspection' })
   const item = allItems(inspection.checklist).find(i => i.key === input.itemKey)
@@ -69,7 +70,8 @@ export async function answerItem(inspectionId: number, input: { itemKey: string;
   let value: number | null = null
   if (item.kind === 'measure' && input.result !== 'na') {
     if (input.value === undefined) throw fieldError('value', `enter the measurement in ${item.unit}`)
-    try { value = toItemUnit(item, input.value, input.unit ?? item.unit!) } catch (e) { throw fieldError('unit', (e as Error).message) }
+    try { value = toItemUnit(item, input.value, input.unit ?? item.unit!) }
+    catch (e) { throw fieldError('unit', (e as Error).message) }
   }
   const verdict = checkMeasurement(item, value, { busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null, busKind: inspection.busKind as 'dc' | 'ac' | null })
   const values = { inspectionId, itemKey: item.key, result: input.result, value: value === null ? null : String(value), enteredAs: input.value === undefined ? null : `${input.value} ${input.unit ?? item.unit}`, note: input.note ?? null, updatedBy: userId, updatedAt: new Date() }
@@ -79,7 +81,7 @@ export async function answerItem(inspectionId: number, input: { itemKey: string;
   return { answer: row!, verdict }
 }
 
-export async function setBus(inspectionId: number, bus: { busVoltageV: number; busKind: 'dc' | 'ac' }) {
+export async function setBus(inspectionId: number, bus: { busVoltageV: number, busKind: 'dc' | 'ac' }) {
   const inspection = await loadInspection(inspectionId)
   if (inspection.signatureId) throw createError({ statusCode: 409, statusMessage: 'This inspection is signed; a re-inspection is a new inspection' })
   const [row] = await useDb().update(tables.inspections).set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind }).where(eq(tables.inspections.id, inspectionId)).returning()
@@ -106,7 +108,7 @@ export async function inspectionContent(inspectionId: number) {
   }
 }
 
-export async function signInspection(inspectionId: number, input: { password: string; typedName: string; drawingPng?: string }, user: { id: number }) {
+export async function signInspection(inspectionId: number, input: { password: string, typedName: string, drawingPng?: string }, user: { id: number }) {
   await assertPassword(user.id, input.password)
   const inspection = await loadInspection(inspectionId)
   const missing = missingItems(inspection.checklist, asAnswers(await answersOf([inspectionId])))
@@ -128,7 +130,7 @@ export async function signInspection(inspectionId: number, input: { password: st
 
 /** Whether each entry is cleared to run: its latest inspection signed, with no failed item. */
 export async function clearanceOf(entryIds: number[]) {
-  const out = new Map<number, { cleared: boolean; why: string; inspectionId: number | null }>()
+  const out = new Map<number, { cleared: boolean, why: string, inspectionId: number | null }>()
   if (!entryIds.length) return out
   const latest = await useDb().selectDistinctOn([tables.inspections.entryId]).from(tables.inspections)
     .where(inArray(tables.inspections.entryId, entryIds)).orderBy(tables.inspections.entryId, desc(tables.inspections.id))

@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm'
 // Computed live results per event, valid while the event's data_version (bumped by triggers on
 // every table the results read) is unchanged. Every request checks the version in PostgreSQL, so
 // several app servers stay in step; concurrent requests share one computation.
-const cache = new Map<number, { version: number; json: Promise<string> }>()
+const cache = new Map<number, { version: number, json: Promise<string> }>()
 const MAX_EVENTS = 64
 
 /** The version tag of an event's live results, for ETag revalidation without computing anything. */

@@ -52,13 +52,13 @@ export function computeLive(day: EventDay, options: { readings?: boolean } = {})
     const counted = runs.filter(r => r.run.status !== 'aborted' && r.official)
     const evaluation = counted.length
       ? evaluateAttempt({
-        profile,
-        distanceM: fromDecimal(distance.nominalM),
-        runs: counted.slice(0, 2).map(r => ({ direction: r.run.direction, startedAtMs: r.run.startedAt.getTime(), elapsedS: r.official!.exactS })),
-        record: record ? { value: fromDecimal(record.speedKmh), unit: 'km/h' } : undefined,
-        timeZone: day.event.timeZone,
-        timeDecimals,
-      })
+          profile,
+          distanceM: fromDecimal(distance.nominalM),
+          runs: counted.slice(0, 2).map(r => ({ direction: r.run.direction, startedAtMs: r.run.startedAt.getTime(), elapsedS: r.official!.exactS })),
+          record: record ? { value: fromDecimal(record.speedKmh), unit: 'km/h' } : undefined,
+          timeZone: day.event.timeZone,
+          timeDecimals,
+        })
       : null
 
     return {

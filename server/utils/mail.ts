@@ -6,7 +6,7 @@ export interface OutgoingMail {
   to: string
   subject: string
   text: string
-  attachments?: { filename: string; content: Buffer; contentType?: string }[]
+  attachments?: { filename: string, content: Buffer, contentType?: string }[]
 }
 
 /** Sends through the SMTP server in runtimeConfig (the local mail catcher in the demo and tests). */

@@ -1,7 +1,7 @@
 import { and, asc, eq, isNull, lt } from 'drizzle-orm'
 
 /** Writes mail to the outbox, then tries to send it; what fails is retried by the outbox plugin. */
-export async function queueMail(mails: { to: string; subject: string; text: string; attachmentSha256?: string; attachmentName?: string }[]) {
+export async function queueMail(mails: { to: string, subject: string, text: string, attachmentSha256?: string, attachmentName?: string }[]) {
   if (!mails.length) return { queued: 0, sent: 0 }
   const rows = await useDb().insert(tables.mailOutbox).values(mails).returning({ id: tables.mailOutbox.id })
   const sent = await deliver(rows.map(r => r.id))
@@ -23,7 +23,8 @@ export async function deliver(ids?: number[]) {
       await sendMail({ to: m.to, subject: m.subject, text: m.text, attachments })
       await useDb().update(mailOutbox).set({ sentAt: new Date(), tries: m.tries + 1, lastError: null }).where(eq(mailOutbox.id, m.id))
       sent++
-    } catch (e) {
+    }
+    catch (e) {
       await useDb().update(mailOutbox).set({ tries: m.tries + 1, lastError: (e as Error).message }).where(eq(mailOutbox.id, m.id))
     }
   }

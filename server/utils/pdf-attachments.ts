@@ -1,9 +1,9 @@
 import { decodePDFRawStream, PDFArray, PDFDict, PDFDocument, PDFHexString, PDFName, PDFRawStream, PDFString } from 'pdf-lib'
 
 /** The files attached to a PDF (its EmbeddedFiles name tree), decoded. Throws if it is not a readable PDF. */
-export async function readAttachments(bytes: Uint8Array): Promise<{ name: string; data: Uint8Array }[]> {
+export async function readAttachments(bytes: Uint8Array): Promise<{ name: string, data: Uint8Array }[]> {
   const doc = await PDFDocument.load(bytes, { updateMetadata: false, throwOnInvalidObject: true })
-  const out: { name: string; data: Uint8Array }[] = []
+  const out: { name: string, data: Uint8Array }[] = []
   const tree = doc.catalog.lookupMaybe(PDFName.of('Names'), PDFDict)?.lookupMaybe(PDFName.of('EmbeddedFiles'), PDFDict)
   const walk = (node: PDFDict | undefined) => {
     if (!node) return

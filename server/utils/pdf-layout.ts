@@ -1,4 +1,5 @@
-import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib'
+import type { PDFDocument, PDFFont, PDFPage } from 'pdf-lib'
+import { rgb } from 'pdf-lib'
 
 const A4: [number, number] = [595.28, 841.89]
 const MARGIN = 50
@@ -9,8 +10,8 @@ const GREY = rgb(0.35, 0.38, 0.42)
 const REPLACE: Record<string, string> = { 'Ω': 'ohm', '≤': '<=', '≥': '>=', '→': '->', '←': '<-', '✓': 'OK', '✕': 'X', '⚠': '!', 'Δ': 'delta ', '≈': '~', '×': 'x', '÷': '/', 'θ': 'theta', '·': '·' }
 export const pdfText = (s: unknown) => String(s ?? '').replace(/[^\u0000-\u00ff\u2000-\u206f\u2212\u20ac]/g, c => REPLACE[c] ?? '?')
 
-export interface Fonts { sans: PDFFont; bold: PDFFont; serif: PDFFont }
-export interface Column { title: string; width: number; align?: 'left' | 'right' }
+export interface Fonts { sans: PDFFont, bold: PDFFont, serif: PDFFont }
+export interface Column { title: string, width: number, align?: 'left' | 'right' }
 
 /** A small flowing layout on A4: headings, wrapped text, tables that repeat their header across pages. */
 export class PdfLayout {
@@ -66,7 +67,7 @@ export class PdfLayout {
     return this
   }
 
-  text(text: string, opts: { size?: number; bold?: boolean; color?: 'grey'; indent?: number; gap?: number } = {}) {
+  text(text: string, opts: { size?: number, bold?: boolean, color?: 'grey', indent?: number, gap?: number } = {}) {
     const size = opts.size ?? 9.5
     const font = opts.bold ? this.fonts.bold : this.fonts.sans
     const x = MARGIN + (opts.indent ?? 0)
@@ -85,7 +86,7 @@ export class PdfLayout {
   }
 
   /** A table whose rows never split; its header is repeated on every page it runs onto. */
-  table(columns: Column[], rows: string[][], opts: { header?: boolean; size?: number } = {}) {
+  table(columns: Column[], rows: string[][], opts: { header?: boolean, size?: number } = {}) {
     const size = opts.size ?? 8.5
     const lineHeight = size * 1.35
     const header = opts.header !== false

@@ -48,7 +48,8 @@ export async function invitePerson(inv: Invitation) {
       text: `Hello ${result.user.name},\n\nYou have been invited to ${result.eventName} on Trapline as ${role}.\n`
         + `Set your password with this link (valid for 7 days, usable once):\n\n${linkFor(token)}\n`,
     })
-  } else {
+  }
+  else {
     await sendMail({
       to: inv.email,
       subject: `Trapline: you are now ${role} at ${result.eventName}`,

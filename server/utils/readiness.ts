@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
 
-export interface ReadinessItem { key: string; label: string; met: boolean; detail: string; fix: string }
+export interface ReadinessItem { key: string, label: string, met: boolean, detail: string, fix: string }
 
 /**
  * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
@@ -48,7 +48,7 @@ export async function readinessOf(eventId: number, attemptId: number) {
   const licence = evidence.find(e => e.kind === 'rider-licence' && e.entryId === entry.entry.id)
   const licenceValid = runDays.every(d => d <= entry.rider.licenceExpires)
   items.push({
-    key: 'licence', label: "The rider's licence", fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
+    key: 'licence', label: 'The rider\'s licence', fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
     met: !!licence && licenceValid, detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires ${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
   })
   return { attemptId, ready: items.every(i => i.met), items, live, day, entry, distance, evidence, statements, clearance }

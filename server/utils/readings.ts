@@ -8,7 +8,7 @@ const conflict = (statusMessage: string, data?: unknown) => createError({ status
 
 /** The run with its event's trap and timing-system ids, to refuse a reading for another course. */
 async function runContext(tx: Tx, runId: number) {
-  const { rows } = await tx.execute<{ attempt_id: number; status: string; event_id: number; course_id: number }>(sql`
+  const { rows } = await tx.execute<{ attempt_id: number, status: string, event_id: number, course_id: number }>(sql`
     select r.attempt_id, r.status, r.event_id, d.course_id
     from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id
     join measured_distances d on d.id = e.distance_id where r.id = ${runId}`)
@@ -19,13 +19,14 @@ async function runContext(tx: Tx, runId: number) {
 function ticksOf(time: string, ticksPerSecond: number, field: string) {
   try {
     return parseTimeOfDay(time, BigInt(ticksPerSecond))
-  } catch (e) {
+  }
+  catch (e) {
     throw fieldInvalid(field, (e as Error).message)
   }
 }
 
-async function checkTrapAndSystem(tx: Tx, ctx: { event_id: number; course_id: number }, trapId: number, systemId: number) {
-  const { rows } = await tx.execute<{ trap: number | null; tps: number | null }>(sql`
+async function checkTrapAndSystem(tx: Tx, ctx: { event_id: number, course_id: number }, trapId: number, systemId: number) {
+  const { rows } = await tx.execute<{ trap: number | null, tps: number | null }>(sql`
     select (select id from traps where id = ${trapId} and course_id = ${ctx.course_id}) as trap,
            (select ticks_per_second from timing_systems where id = ${systemId} and event_id = ${ctx.event_id}) as tps`)
   const issues = []
@@ -35,14 +36,14 @@ async function checkTrapAndSystem(tx: Tx, ctx: { event_id: number; course_id: nu
   return rows[0]!.tps!
 }
 
-async function assertWritable(tx: Tx, ctx: { attempt_id: number; status: string }) {
+async function assertWritable(tx: Tx, ctx: { attempt_id: number, status: string }) {
   const { signed } = await lockAttempt(tx, ctx.attempt_id)
   if (signed) throw conflict('The timing sheet of this attempt is signed; reopen it with a reason before changing readings')
   if (ctx.status === 'aborted') throw conflict('This run was aborted; its readings are kept as they are')
 }
 
 /** A first reading of a trap by a timing system. A second one for the same trap is a correction. */
-export async function enterReading(runId: number, input: { trapId: number; systemId: number; time: string }, userId: number) {
+export async function enterReading(runId: number, input: { trapId: number, systemId: number, time: string }, userId: number) {
   return useDb().transaction(async (tx) => {
     const ctx = await runContext(tx, runId)
     const tps = await checkTrapAndSystem(tx, ctx, input.trapId, input.systemId)
@@ -61,14 +62,14 @@ export async function enterReading(runId: number, input: { trapId: number; syste
 }
 
 async function currentReading(tx: Tx, runId: number, trapId: number, systemId: number) {
-  const { rows } = await tx.execute<{ id: number; ticks: string }>(sql`
+  const { rows } = await tx.execute<{ id: number, ticks: string }>(sql`
     select id, ticks::text from readings x where run_id = ${runId} and trap_id = ${trapId} and system_id = ${systemId}
     and not exists (select 1 from readings s where s.supersedes_id = x.id)`)
   return rows[0] ?? null
 }
 
 /** A correction is a new reading that supersedes the current one; the one it names must still be current. */
-export async function correctReading(readingId: number, input: { time: string; reason: string; expectedCurrentId: number }, userId: number) {
+export async function correctReading(readingId: number, input: { time: string, reason: string, expectedCurrentId: number }, userId: number) {
   return useDb().transaction(async (tx) => {
     const [old] = await tx.select().from(tables.readings).where(eq(tables.readings.id, readingId))
     if (!old) throw createError({ statusCode: 404, statusMessage: 'No such reading' })
@@ -89,13 +90,13 @@ export async function correctReading(readingId: number, input: { time: string; r
   })
 }
 
-export interface ImportRowError { line: number; column: string; message: string }
+export interface ImportRowError { line: number, column: string, message: string }
 
 /**
  * A timing system's CSV export: one row per trap passing (run, trap label, time of day, optional
  * system). Checked whole first; written only when every row is valid, in one transaction.
  */
-export async function importReadings(eventId: number, input: { csv: string; columns: { run: string; trap: string; time: string; system?: string }; systemId?: number; commit: boolean }, userId: number) {
+export async function importReadings(eventId: number, input: { csv: string, columns: { run: string, trap: string, time: string, system?: string }, systemId?: number, commit: boolean }, userId: number) {
   const parsed = Papa.parse<Record<string, string>>(input.csv.trim(), { header: true, delimiter: ',', skipEmptyLines: true, transformHeader: h => h.trim() })
   const errors: ImportRowError[] = []
   const headers = parsed.meta.fields ?? []
@@ -110,18 +111,18 @@ export async function importReadings(eventId: number, input: { csv: string; colu
 
   const db = useDb()
   const [runs, traps, systems, locked, existing] = await Promise.all([
-    db.execute<{ id: number; course_id: number; status: string; attempt_id: number }>(sql`
+    db.execute<{ id: number, course_id: number, status: string, attempt_id: number }>(sql`
       select r.id, d.course_id, r.status, r.attempt_id from runs r join attempts a on a.id = r.attempt_id
       join entries e on e.id = a.entry_id join measured_distances d on d.id = e.distance_id where r.event_id = ${eventId}`),
-    db.execute<{ id: number; course_id: number; label: string }>(sql`select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id where c.event_id = ${eventId}`),
+    db.execute<{ id: number, course_id: number, label: string }>(sql`select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id where c.event_id = ${eventId}`),
     db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, eventId)),
-    db.execute<{ subject_id: number; kind: string }>(sql`select distinct on (subject_id) subject_id, kind from signatures where event_id = ${eventId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by subject_id, id desc`),
+    db.execute<{ subject_id: number, kind: string }>(sql`select distinct on (subject_id) subject_id, kind from signatures where event_id = ${eventId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by subject_id, id desc`),
     db.execute<{ key: string }>(sql`select x.run_id || '/' || x.trap_id || '/' || x.system_id as key from readings x join runs r on r.id = x.run_id where r.event_id = ${eventId}`),
   ])
   const taken = new Set(existing.rows.map(r => r.key))
   const lockedAttempts = new Set(locked.rows.filter(r => r.kind === 'timing-sheet').map(r => r.subject_id))
   const seen = new Set<string>()
-  const rows: { line: number; runId: number; trapId: number; systemId: number; ticks: bigint; time: string }[] = []
+  const rows: { line: number, runId: number, trapId: number, systemId: number, ticks: bigint, time: string }[] = []
   parsed.data.forEach((raw, i) => {
     const line = i + 2
     const runText = (raw[input.columns.run] ?? '').trim()
@@ -137,7 +138,8 @@ export async function importReadings(eventId: number, input: { csv: string; colu
     if (!system) { errors.push({ line, column: input.columns.system ?? 'system', message: `no timing system ${JSON.stringify(sysText || input.systemId)}` }); return }
     const time = (raw[input.columns.time] ?? '').trim()
     let ticks: bigint
-    try { ticks = parseTimeOfDay(time, BigInt(system.ticksPerSecond)) } catch (e) {
+    try { ticks = parseTimeOfDay(time, BigInt(system.ticksPerSecond)) }
+    catch (e) {
       errors.push({ line, column: input.columns.time, message: (e as Error).message }); return
     }
     const key = `${run.id}/${trap.id}/${system.id}`

@@ -2,7 +2,7 @@ import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, sig
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 
-let keys: { privateKey: KeyObject; publicKey: KeyObject; publicPem: string; fingerprint: string } | undefined
+let keys: { privateKey: KeyObject, publicKey: KeyObject, publicPem: string, fingerprint: string } | undefined
 
 /** SHA-256 of the public key's DER form, in groups of four hex digits. */
 export function fingerprintOf(publicKey: KeyObject) {
@@ -34,7 +34,8 @@ export function sealDigest(sha256Hex: string) {
 export function sealHolds(sha256Hex: string, sealBase64: string) {
   try {
     return verify(null, Buffer.from(sha256Hex, 'hex'), useSealKey().publicKey, Buffer.from(sealBase64, 'base64'))
-  } catch {
+  }
+  catch {
     return false
   }
 }

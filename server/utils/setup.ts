@@ -64,14 +64,16 @@ export async function addEntry(eventId: number, teamId: number, input: z.infer<t
     if (machineId) {
       const [m] = await tx.select().from(tables.machines).where(and(eq(tables.machines.id, machineId), eq(tables.machines.teamId, teamId)))
       if (!m) throw unprocessable('machineId', 'is not a machine of your team')
-    } else {
+    }
+    else {
       machineId = (await tx.insert(tables.machines).values({ ...input.machine!, teamId }).returning())[0]!.id
     }
     let riderId = input.riderId
     if (riderId) {
       const [r] = await tx.select().from(tables.riders).where(and(eq(tables.riders.id, riderId), eq(tables.riders.teamId, teamId)))
       if (!r) throw unprocessable('riderId', 'is not a rider of your team')
-    } else {
+    }
+    else {
       riderId = (await tx.insert(tables.riders).values({ ...input.rider!, teamId }).returning())[0]!.id
     }
     const [entry] = await tx.insert(tables.entries).values({ eventId, teamId, machineId, riderId, className: input.className, distanceId: input.distanceId }).returning()
@@ -83,7 +85,7 @@ export async function addEntry(eventId: number, teamId: number, input: z.infer<t
  * Starts a run for an entry. It joins the entry's open attempt (one with fewer than two runs that
  * were not aborted), or opens a new attempt with a frozen copy of the event's profile.
  */
-export async function startRun(eventId: number, input: { entryId: number; direction: 'out' | 'back'; startedAt: string }, userId: number) {
+export async function startRun(eventId: number, input: { entryId: number, direction: 'out' | 'back', startedAt: string }, userId: number) {
   return useDb().transaction(async (tx) => {
     const [entry] = await tx.select().from(tables.entries).where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId))).for('update')
     if (!entry) throw unprocessable('entryId', 'is not an entry of this event')

@@ -15,12 +15,14 @@ export async function signatureReport(signatureId: number) {
     const [e] = await useDb().select({ teamId: tables.entries.teamId }).from(tables.inspections).innerJoin(tables.entries, eq(tables.entries.id, tables.inspections.entryId)).where(eq(tables.inspections.id, s.subjectId))
     teamId = e!.teamId
     title = `Technical inspection #${s.subjectId}`
-  } else if (s.kind === 'statement') {
+  }
+  else if (s.kind === 'statement') {
     const [st] = await useDb().select({ s: tables.statements, author: tables.users.name }).from(tables.statements).innerJoin(tables.users, eq(tables.users.id, tables.statements.authorId)).where(eq(tables.statements.id, s.subjectId))
     current = statementContent(st!.s, st!.author)
     teamId = await teamOfAttempt(st!.s.attemptId)
     title = st!.s.withdrawsId ? `Withdrawal of witness statement #${st!.s.withdrawsId}` : `Witness statement #${s.subjectId}`
-  } else {
+  }
+  else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
     teamId = await teamOfAttempt(s.subjectId)
     title = `${s.kind === 'timing-sheet' ? 'Timing sheet' : 'Reopening of the timing sheet'} of attempt #${s.subjectId}`

@@ -9,14 +9,14 @@ export const statementContent = (s: StatementRow, authorName: string) => ({
 })
 
 /** Writes and signs a witness statement in one step: the statement exists only signed. */
-export async function createStatement(eventId: number, input: { attemptId: number; runsSeen: string; position: string; conditions: string; irregularities: string; password: string; typedName: string; drawingPng?: string }, user: { id: number; name: string }) {
+export async function createStatement(eventId: number, input: { attemptId: number, runsSeen: string, position: string, conditions: string, irregularities: string, password: string, typedName: string, drawingPng?: string }, user: { id: number, name: string }) {
   const [attempt] = await useDb().select({ id: tables.attempts.id }).from(tables.attempts).where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
   if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
   await assertPassword(user.id, input.password)
   return signStatement(eventId, { attemptId: input.attemptId, runsSeen: input.runsSeen, position: input.position, conditions: input.conditions, irregularities: input.irregularities }, user, input)
 }
 
-async function signStatement(eventId: number, body: Pick<StatementRow, 'attemptId' | 'runsSeen' | 'position' | 'conditions' | 'irregularities'> & { withdrawsId?: number; reason?: string }, user: { id: number; name: string }, sign: { typedName: string; drawingPng?: string }) {
+async function signStatement(eventId: number, body: Pick<StatementRow, 'attemptId' | 'runsSeen' | 'position' | 'conditions' | 'irregularities'> & { withdrawsId?: number, reason?: string }, user: { id: number, name: string }, sign: { typedName: string, drawingPng?: string }) {
   return useDb().transaction(async (tx) => {
     const [row] = await tx.insert(tables.statements).values({ eventId, authorId: user.id, ...body }).onConflictDoNothing().returning()
     if (!row) throw createError({ statusCode: 409, statusMessage: 'This statement has already been withdrawn' })
@@ -27,7 +27,7 @@ async function signStatement(eventId: number, body: Pick<StatementRow, 'attemptI
 }
 
 /** Withdraws a signed statement by a new signed statement that says why; both are kept. */
-export async function withdrawStatement(statementId: number, input: { reason: string; password: string; typedName: string; drawingPng?: string }, user: { id: number; name: string }) {
+export async function withdrawStatement(statementId: number, input: { reason: string, password: string, typedName: string, drawingPng?: string }, user: { id: number, name: string }) {
   const [original] = await useDb().select().from(tables.statements).where(eq(tables.statements.id, statementId))
   if (!original) throw createError({ statusCode: 404, statusMessage: 'No such statement' })
   if (original.authorId !== user.id) throw createError({ statusCode: 403, statusMessage: 'Only the official who signed a statement withdraws it' })

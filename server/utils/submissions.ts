@@ -42,7 +42,7 @@ export async function submitDossier(dossierId: number, userId: number) {
   if (latest!.id !== d.id) throw createError({ statusCode: 409, statusMessage: `Version ${d.version} is superseded by version ${latest!.version}; submit that one` })
   const [row] = await useDb().insert(tables.submissions).values({ dossierId, submittedBy: userId }).onConflictDoNothing().returning()
   if (!row) throw createError({ statusCode: 409, statusMessage: 'This dossier has already been submitted' })
-  const m = d.manifest as { entry: { machineName: string; teamName: string; className: string; distanceLabel: string }; result: { kmh: string; mph: string } }
+  const m = d.manifest as { entry: { machineName: string, teamName: string, className: string, distanceLabel: string }, result: { kmh: string, mph: string } }
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
   const name = `trapline-dossier-attempt-${d.attemptId}-v${d.version}.pdf`
   const mail = await queueMail((await emailsOf(d.eventId, 'official')).map(to => ({
@@ -57,7 +57,7 @@ export async function submitDossier(dossierId: number, userId: number) {
 }
 
 /** An official ratifies or refuses a submitted dossier, with reasons, signed; the team is e-mailed. */
-export async function decideDossier(dossierId: number, input: { decision: 'ratified' | 'refused'; reasons: string; password: string; typedName: string }, user: { id: number; name: string }) {
+export async function decideDossier(dossierId: number, input: { decision: 'ratified' | 'refused', reasons: string, password: string, typedName: string }, user: { id: number, name: string }) {
   const d = await dossierRow(dossierId)
   const [submitted] = await useDb().select().from(tables.submissions).where(eq(tables.submissions.dossierId, dossierId))
   if (!submitted) throw createError({ statusCode: 409, statusMessage: 'This dossier has not been submitted' })
@@ -71,7 +71,7 @@ export async function decideDossier(dossierId: number, input: { decision: 'ratif
     return row!
   })
   const teamId = await useDb().select({ t: tables.entries.teamId }).from(tables.attempts).innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId)).where(eq(tables.attempts.id, d.attemptId)).then(r => r[0]!.t)
-  const m = d.manifest as { entry: { machineName: string }; result: { kmh: string } }
+  const m = d.manifest as { entry: { machineName: string }, result: { kmh: string } }
   await queueMail((await emailsOf(d.eventId, 'team', teamId)).map(to => ({
     to,
     subject: `Trapline: dossier ${input.decision} — ${m.entry.machineName}, ${m.result.kmh} km/h`,
@@ -86,9 +86,9 @@ export async function recordBook() {
     .from(tables.decisions).innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
     .where(eq(tables.decisions.decision, 'ratified')).orderBy(asc(tables.decisions.id))
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const best = new Map<string, { class: string; distance: string; speedKmh: string; speedMph: string; date: string; dossierUrl: string; verifyUrl: string; machine: string; rider: string; team: string }>()
+  const best = new Map<string, { class: string, distance: string, speedKmh: string, speedMph: string, date: string, dossierUrl: string, verifyUrl: string, machine: string, rider: string, team: string }>()
   for (const { d } of rows) {
-    const m = d.manifest as { entry: { className: string; distanceLabel: string; machineName: string; riderName: string; teamName: string }; result: { kmh: string; mph: string }; runs: { startedAt: string; counted: boolean }[]; event: { timeZone: string } }
+    const m = d.manifest as { entry: { className: string, distanceLabel: string, machineName: string, riderName: string, teamName: string }, result: { kmh: string, mph: string }, runs: { startedAt: string, counted: boolean }[], event: { timeZone: string } }
     const key = `${m.entry.className}\u0000${m.entry.distanceLabel}`
     const date = m.runs.filter(r => r.counted).map(r => r.startedAt).sort().at(-1)!.slice(0, 10)
     const current = best.get(key)

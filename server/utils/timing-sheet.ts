@@ -40,7 +40,7 @@ export async function lockAttempt(tx: Parameters<Parameters<ReturnType<typeof us
 }
 
 /** Signs (or reopens) the timing sheet of an attempt: who, when, typed name, SHA-256 of the content. */
-export async function signTimingSheet(input: { eventId: number; attemptId: number; userId: number; password: string; typedName: string; reopen?: string; drawingPng?: string }) {
+export async function signTimingSheet(input: { eventId: number, attemptId: number, userId: number, password: string, typedName: string, reopen?: string, drawingPng?: string }) {
   await assertPassword(input.userId, input.password)
   return useDb().transaction(async (tx) => {
     const { signed } = await lockAttempt(tx, input.attemptId)

@@ -9,7 +9,7 @@ import type { H3Event } from 'h3'
 import multer from 'multer'
 import { evidenceKinds, fileNameProblem, type EvidenceKind } from '#shared/evidence/kinds'
 
-export interface StagedFile { path: string; size: number; sha256: string; head: Buffer; originalname: string }
+export interface StagedFile { path: string, size: number, sha256: string, head: Buffer, originalname: string }
 
 const HEAD_BYTES = 4100
 const LIMIT_KEYS: Record<EvidenceKind, string> = {
@@ -57,7 +57,8 @@ class HashingStagingStorage implements multer.StorageEngine {
       })
       try {
         await pipeline(file.stream, meter, createWriteStream(tmp, { flags: 'wx', highWaterMark: 1 << 20 }))
-      } catch (e) {
+      }
+      catch (e) {
         file.stream.resume()
         await rm(tmp, { force: true })
         throw e
@@ -83,8 +84,8 @@ function receiveUploadWith(event: H3Event, beforeFile: (fields: Record<string, u
     defParamCharset: 'utf8',
     limits: { files: 1, fields: 12, fieldSize: 2000, parts: 14, fileSize: maxBytes },
   }).single('file')
-  const req = event.node.req as IncomingMessage & { file?: StagedFile & Express.Multer.File; body?: Record<string, unknown> }
-  return new Promise<{ file: StagedFile | null; fields: Record<string, unknown> }>((resolve, reject) => {
+  const req = event.node.req as IncomingMessage & { file?: StagedFile & Express.Multer.File, body?: Record<string, unknown> }
+  return new Promise<{ file: StagedFile | null, fields: Record<string, unknown> }>((resolve, reject) => {
     handler(req as never, event.node.res as ServerResponse as never, (err: unknown) => {
       if (err) return reject(toHttpError(err))
       resolve({ file: req.file ?? null, fields: { ...(req.body ?? {}) } })

@@ -39,7 +39,8 @@ export async function validBody<S extends z.ZodType>(event: H3Event, schema: S):
   let body: unknown
   try {
     body = await readBody(event)
-  } catch {
+  }
+  catch {
     throw createError({ statusCode: 400, statusMessage: 'The body is not valid JSON' })
   }
   return parse(schema, body ?? {})

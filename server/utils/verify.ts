@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm'
 import { attachmentName } from './dossier'
 import { readAttachments } from './pdf-attachments'
 
-export interface Verification { sealValid: boolean; keyFingerprint: string | null; items: { name: string; ok: boolean }[]; message: string; dossier?: { id: number; attemptId: number; version: number } | null }
+export interface Verification { sealValid: boolean, keyFingerprint: string | null, items: { name: string, ok: boolean }[], message: string, dossier?: { id: number, attemptId: number, version: number } | null }
 
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
@@ -14,21 +14,23 @@ const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('h
 export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   const fail = (message: string): Verification => ({ sealValid: false, keyFingerprint: null, items: [], message })
   if (bytes.length < 8 || Buffer.from(bytes.subarray(0, 5)).toString('latin1') !== '%PDF-') return fail('This is not a PDF file.')
-  let files: { name: string; data: Uint8Array }[]
+  let files: { name: string, data: Uint8Array }[]
   try {
     files = await readAttachments(bytes)
-  } catch {
+  }
+  catch {
     return fail('This PDF cannot be read whole: it is truncated or damaged.')
   }
   const manifestFile = files.find(f => f.name === 'manifest.json')
   const sigFile = files.find(f => f.name === 'manifest.sig')
   if (!manifestFile || !sigFile) return fail('This PDF carries no Trapline seal (no manifest.json and manifest.sig attached).')
   const key = useSealKey()
-  const items: { name: string; ok: boolean }[] = []
+  const items: { name: string, ok: boolean }[] = []
   const manifestText = new TextDecoder().decode(manifestFile.data)
   const digest = sha(manifestText)
-  let manifest: { evidence?: { name: string; sha256: string }[] } | null = null
-  try { manifest = JSON.parse(manifestText) } catch { /* reported below */ }
+  let manifest: { evidence?: { name: string, sha256: string }[] } | null = null
+  try { manifest = JSON.parse(manifestText) }
+  catch { /* reported below */ }
   const canonical = manifest !== null && canonicalJson(manifest) === manifestText
   const sealOk = canonical && sealHolds(digest, new TextDecoder().decode(sigFile.data).trim())
   items.push({ name: 'manifest.json', ok: sealOk })

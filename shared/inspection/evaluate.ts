@@ -10,11 +10,11 @@ export interface Answer {
   note?: string | null
 }
 
-export interface BusContext { busVoltageV?: number | null; busKind?: 'dc' | 'ac' | null }
+export interface BusContext { busVoltageV?: number | null, busKind?: 'dc' | 'ac' | null }
 
 /** Units a measurement may be typed in, with the factor to the item's unit. */
 export const UNIT_FACTORS: Record<string, Record<string, number>> = {
-  'Ω': { 'Ω': 1, 'kΩ': 1e3, 'MΩ': 1e6, 'mΩ': 1e-3 },
+  Ω: { Ω: 1, kΩ: 1e3, MΩ: 1e6, mΩ: 1e-3 },
   kg: { kg: 1 },
   s: { s: 1 },
 }
@@ -60,7 +60,7 @@ export function missingItems(t: ChecklistTemplate, answers: Answer[]): Checklist
 }
 
 /** An entry is cleared only by a signed inspection with every item passed or not applicable. */
-export function clears(t: ChecklistTemplate, answers: Answer[], signed: boolean): { cleared: boolean; why: string } {
+export function clears(t: ChecklistTemplate, answers: Answer[], signed: boolean): { cleared: boolean, why: string } {
   if (!signed) return { cleared: false, why: 'the inspection is not signed' }
   const missing = missingItems(t, answers)
   if (missing.length) return { cleared: false, why: `items not answered: ${missing.map(i => i.label).join('; ')}` }

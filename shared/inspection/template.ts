@@ -3,11 +3,11 @@ import type { Certainty } from '../rules/profile'
 export type ItemKind = 'check' | 'measure'
 
 /** What a measurement is checked against. */
-export type ItemLimit =
-  | { kind: 'max'; value: number }
-  | { kind: 'min'; value: number }
+export type ItemLimit
+  = | { kind: 'max', value: number }
+    | { kind: 'min', value: number }
   /** Isolation resistance per volt of the bus: at least dc Ω/V on a DC bus, ac Ω/V on an AC bus. */
-  | { kind: 'isolation-per-volt'; dc: number; ac: number }
+    | { kind: 'isolation-per-volt', dc: number, ac: number }
 
 export interface ChecklistItem {
   key: string
@@ -22,7 +22,7 @@ export interface ChecklistItem {
   certainty: Certainty
 }
 
-export interface ChecklistSection { title: string; items: ChecklistItem[] }
+export interface ChecklistSection { title: string, items: ChecklistItem[] }
 
 export interface ChecklistTemplate {
   id: string

@@ -21,7 +21,7 @@ export interface AttemptInput {
   profile: RuleProfile
   distanceM: Q
   runs: RunInput[]
-  record?: { value: Q; unit: Exclude<SpeedUnit, 'm/s'> }
+  record?: { value: Q, unit: Exclude<SpeedUnit, 'm/s'> }
   /** The event's time zone, for rules that count calendar days. */
   timeZone?: string
   /** Decimals of the return-run target time (the timing resolution); 3 unless told. */
@@ -52,10 +52,10 @@ export interface WindowState {
 export interface AttemptResult {
   runs: RunFigures[]
   meanTimeS: Q | null
-  result: { speedMs: Q; kmh: string; mph: string } | null
+  result: { speedMs: Q, kmh: string, mph: string } | null
   window: WindowState
   /** The smallest published figure that counts as a record, in the record's unit. */
-  required: { value: Q; text: string; unit: string } | null
+  required: { value: Q, text: string, unit: string } | null
   beatsRecord: boolean | null
   /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
   returnTargetS: Q | null
@@ -115,7 +115,7 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
   const runs = [...input.runs].sort((a, b) => a.startedAtMs - b.startedAtMs)
   if (runs.length === 0) throw new RangeError('an attempt needs at least one run')
 
-  const figures: RunFigures[] = runs.map(r => {
+  const figures: RunFigures[] = runs.map((r) => {
     const v = speed(distanceM, r.elapsedS)
     return { direction: r.direction, startedAtMs: r.startedAtMs, elapsedS: r.elapsedS, speedMs: v, kmh: publish(profile, v, 'km/h'), mph: publish(profile, v, 'mph') }
   })
@@ -129,7 +129,8 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
       message: wanted === 'opposite' ? 'One run so far: the return run in the opposite direction completes the pair.' : 'One run so far: the record run in the same direction completes the pair.',
       rule: ruleOf(profile, 'runs', 'Runs', `2, ${wanted} directions`),
     })
-  } else {
+  }
+  else {
     const same = first!.direction === second.direction
     if ((wanted === 'opposite') === same) {
       findings.push({
@@ -217,11 +218,12 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
  * The longest return time t2 such that the pair still reaches speed vMin: under the mean of times,
  * d / ((t1 + t2) / 2) ≥ vMin ⇔ t2 ≤ 2d / vMin − t1. Floored to the timing resolution; null if none.
  */
-export function returnTarget(profile: RuleProfile, distanceM: Q, first: { elapsedS: Q; speedMs: Q }, vMin: Q, decimals: number): Q | null {
+export function returnTarget(profile: RuleProfile, distanceM: Q, first: { elapsedS: Q, speedMs: Q }, vMin: Q, decimals: number): Q | null {
   let longest: Q
   if (profile.averaging.value === 'mean-of-times') {
     longest = sub(div(mul(q(2n), distanceM), vMin), first.elapsedS)
-  } else {
+  }
+  else {
     const v2 = sub(mul(q(2n), vMin), first.speedMs)
     if (!isPositive(v2)) return null // any finishing time would do; no useful target
     longest = div(distanceM, v2)

@@ -51,17 +51,19 @@ export function checkGradient(profile: RuleProfile, percent: Q): Finding[] {
 }
 
 /** Primary and backup timing systems should agree on a segment within the equipment's tolerance. */
-export function crossCheck(primaryS: Q, backupS: Q, toleranceS: Q): { differenceS: Q; ok: boolean; findings: Finding[] } {
+export function crossCheck(primaryS: Q, backupS: Q, toleranceS: Q): { differenceS: Q, ok: boolean, findings: Finding[] } {
   const differenceS = abs(sub(primaryS, backupS))
   const ok = cmp(differenceS, toleranceS) <= 0
   return {
     differenceS,
     ok,
-    findings: ok ? [] : [{
-      code: 'timing.cross-check',
-      severity: 'fail',
-      message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
-    }],
+    findings: ok
+      ? []
+      : [{
+          code: 'timing.cross-check',
+          severity: 'fail',
+          message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
+        }],
   }
 }
 

@@ -17,8 +17,8 @@ export interface DistanceCheck {
  */
 export function checkMeasuredDistance(
   profile: RuleProfile,
-  entry: { positionM: string; elevationM: string },
-  exit: { positionM: string; elevationM: string },
+  entry: { positionM: string, elevationM: string },
+  exit: { positionM: string, elevationM: string },
   nominalM: string,
   toleranceMm: number,
 ): DistanceCheck {

@@ -7,5 +7,5 @@ export interface Finding {
   code: string
   severity: Severity
   message: string
-  rule?: { name: string; value: string; source: string; certainty: Certainty }
+  rule?: { name: string, value: string, source: string, certainty: Certainty }
 }

@@ -12,10 +12,10 @@ export interface Sourced<T> {
 
 export type WindowAnchor = 'start-first' | 'finish-first' | 'start-second' | 'finish-second'
 
-export type RunWindow =
-  | { kind: 'elapsed'; minutes: number; from: WindowAnchor; to: WindowAnchor }
+export type RunWindow
+  = | { kind: 'elapsed', minutes: number, from: WindowAnchor, to: WindowAnchor }
   /** The record run on the calendar day after the qualifying run, in the event's time zone. */
-  | { kind: 'next-day' }
+    | { kind: 'next-day' }
 
 export interface MeasuredDistanceSpec {
   label: string
@@ -34,14 +34,14 @@ export interface RuleProfile {
   version: number
   name: string
   summary: string
-  runs: Sourced<{ count: 2; directions: 'opposite' | 'same' }>
+  runs: Sourced<{ count: 2, directions: 'opposite' | 'same' }>
   window: Sourced<RunWindow>
   /** Informational: minutes within which a qualified machine goes into impound. */
   impoundMinutes: Sourced<number | null>
   averaging: Sourced<'mean-of-times' | 'mean-of-speeds'>
-  figures: Sourced<{ decimals: number; rounding: Rounding }>
+  figures: Sourced<{ decimals: number, rounding: Rounding }>
   /** The improvement needed over the standing record. */
-  margin: Sourced<{ percent: number; inclusive: boolean }>
+  margin: Sourced<{ percent: number, inclusive: boolean }>
   gradientMaxPercent: Sourced<number | null>
   distances: Sourced<MeasuredDistanceSpec[]>
   /** The largest tail-wind component in m/s; null for no limit. */
@@ -83,9 +83,9 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
   switch (key) {
     case 'window': return describeWindow(value as RunWindow)
     case 'distances': return (value as MeasuredDistanceSpec[]).map(d => `${d.label} (${d.metres} m)`).join('; ')
-    case 'figures': { const f = value as { decimals: number; rounding: string }; return `${f.decimals} decimals, ${f.rounding === 'truncate' ? 'truncated' : 'rounded'}` }
-    case 'margin': { const m = value as { percent: number; inclusive: boolean }; return m.percent ? `at least ${m.percent} % over the standing record` : 'exceed the standing record' }
-    case 'runs': { const r = value as { count: number; directions: string }; return `${r.count}, ${r.directions} directions` }
+    case 'figures': { const f = value as { decimals: number, rounding: string }; return `${f.decimals} decimals, ${f.rounding === 'truncate' ? 'truncated' : 'rounded'}` }
+    case 'margin': { const m = value as { percent: number, inclusive: boolean }; return m.percent ? `at least ${m.percent} % over the standing record` : 'exceed the standing record' }
+    case 'runs': { const r = value as { count: number, directions: string }; return `${r.count}, ${r.directions} directions` }
     case 'averaging': return value === 'mean-of-times' ? 'distance over the mean of the times' : 'mean of the speeds'
     case 'impoundMinutes': return `${value} min`
     case 'gradientMaxPercent': return `at most ${value} %`

@@ -11,12 +11,12 @@ import { convertSpeed } from './units'
  */
 export const SANITY_MAX_KMH = 1500
 
-export interface TrapDef { id: number; label: string; positionM: string; elevationM: string }
-export interface DistanceDef { id: number; label: string; nominalM: string; entryTrapId: number; exitTrapId: number }
-export interface SystemDef { id: number; name: string; role: 'primary' | 'backup'; ticksPerSecond: number; toleranceS: string }
+export interface TrapDef { id: number, label: string, positionM: string, elevationM: string }
+export interface DistanceDef { id: number, label: string, nominalM: string, entryTrapId: number, exitTrapId: number }
+export interface SystemDef { id: number, name: string, role: 'primary' | 'backup', ticksPerSecond: number, toleranceS: string }
 /** Only the current readings: corrections already applied. Ticks as a decimal string of an integer. */
-export interface ReadingDef { id: number; trapId: number; systemId: number; ticks: string }
-export interface WeatherDef { windSpeedMs: string; windFromDeg: string }
+export interface ReadingDef { id: number, trapId: number, systemId: number, ticks: string }
+export interface WeatherDef { windSpeedMs: string, windFromDeg: string }
 
 export interface RunSheetFinding extends Finding {
   trapId?: number
@@ -24,18 +24,18 @@ export interface RunSheetFinding extends Finding {
   distanceId?: number
 }
 
-export interface TimedFigure { timeS: string; kmh: string; mph: string; exactS: Q }
+export interface TimedFigure { timeS: string, kmh: string, mph: string, exactS: Q }
 
 export interface RunComputation {
   systems: {
     systemId: number
     role: 'primary' | 'backup'
-    segments: ({ fromTrapId: number; toTrapId: number; lengthM: string; midpointM: number } & TimedFigure)[]
-    distances: ({ distanceId: number; label: string } & TimedFigure)[]
+    segments: ({ fromTrapId: number, toTrapId: number, lengthM: string, midpointM: number } & TimedFigure)[]
+    distances: ({ distanceId: number, label: string } & TimedFigure)[]
   }[]
   /** The time over each measured distance that counts: the primary's, else the backup's. */
-  official: Record<number, { exactS: Q; systemId: number }>
-  crossChecks: { distanceId: number; label: string; differenceS: string; toleranceS: string; ok: boolean }[]
+  official: Record<number, { exactS: Q, systemId: number }>
+  crossChecks: { distanceId: number, label: string, differenceS: string, toleranceS: string, ok: boolean }[]
   wind: (WindComponents & { headingDeg: number }) | null
   findings: RunSheetFinding[]
 }
@@ -129,7 +129,8 @@ export function computeRun(input: {
           message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by ${toFixed(difference, 6, 'round')} s, more than the tolerance of ${toFixed(tolerance, 6, 'round')} s. The timekeeper must resolve it in writing.`,
         })
       }
-    } else if (!p && b) {
+    }
+    else if (!p && b) {
       findings.push({ code: 'timing.backup-only', severity: 'warn', distanceId: d.id, message: `${d.label}: only the backup system timed this distance.` })
     }
   }

@@ -12,7 +12,7 @@ export type LengthUnit = 'm' | 'km' | 'mile'
 export type SpeedUnit = 'm/s' | 'km/h' | 'mph'
 
 const METRES: Record<LengthUnit, Q> = { m: q(1n), km: METRES_PER_KM, mile: METRES_PER_MILE }
-const MS: Record<SpeedUnit, Q> = { 'm/s': q(1n), 'km/h': MS_PER_KMH, mph: MS_PER_MPH }
+const MS: Record<SpeedUnit, Q> = { 'm/s': q(1n), 'km/h': MS_PER_KMH, 'mph': MS_PER_MPH }
 
 export const toMetres = (value: Q, unit: LengthUnit): Q => mul(value, METRES[unit])
 export const fromMetres = (metres: Q, unit: LengthUnit): Q => div(metres, METRES[unit])

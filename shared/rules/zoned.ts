@@ -14,7 +14,8 @@ function formatter(timeZone: string) {
 }
 
 export function isTimeZone(timeZone: string): boolean {
-  try { formatter(timeZone); return true } catch { return false }
+  try { formatter(timeZone); return true }
+  catch { return false }
 }
 
 function parts(ms: number, timeZone: string) {

@@ -20,15 +20,15 @@ export const calculatorRequestSchema = z.object({
 export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
 
 export interface CalculatorResponse {
-  profile: { id: string; version: number; name: string; decimals: number }
-  runs: { direction: 'out' | 'back'; elapsedS: string; speedKmh: string; speedMph: string }[]
+  profile: { id: string, version: number, name: string, decimals: number }
+  runs: { direction: 'out' | 'back', elapsedS: string, speedKmh: string, speedMph: string }[]
   meanTimeS: string | null
   resultKmh: string | null
   resultMph: string | null
   windowOk: boolean
-  window: { rule: string; usedS: string | null; deadline: string | null; opens: string | null }
+  window: { rule: string, usedS: string | null, deadline: string | null, opens: string | null }
   beatsRecord: boolean | null
-  required: { figure: string; unit: string } | null
+  required: { figure: string, unit: string } | null
   returnTargetS: string | null
-  findings: { code: string; severity: string; message: string; rule?: { name: string; value: string; source: string; certainty: string } }[]
+  findings: { code: string, severity: string, message: string, rule?: { name: string, value: string, source: string, certainty: string } }[]
 }

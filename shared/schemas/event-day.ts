@@ -4,10 +4,11 @@ import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime } from './fields'
 
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
-export const decimalText = (maxDecimals: number, opts: { min?: number; max?: number } = {}) =>
+export const decimalText = (maxDecimals: number, opts: { min?: number, max?: number } = {}) =>
   z.union([z.string(), z.number()]).transform(String).superRefine((s, ctx) => {
     let v
-    try { v = fromDecimal(s) } catch { ctx.addIssue({ code: 'custom', message: 'must be a decimal number' }); return }
+    try { v = fromDecimal(s) }
+    catch { ctx.addIssue({ code: 'custom', message: 'must be a decimal number' }); return }
     if (decimalsOf(s) > maxDecimals) ctx.addIssue({ code: 'custom', message: `at most ${maxDecimals} decimals` })
     const n = Number(v.n) / Number(v.d)
     if (opts.min !== undefined && n < opts.min) ctx.addIssue({ code: 'custom', message: `must be at least ${opts.min}` })

@@ -6,7 +6,8 @@ import { isTimeZone } from '../rules/zoned'
 export const positiveDecimal = z.union([z.number(), z.string()]).superRefine((x, ctx) => {
   try {
     if (fromInput(x).n <= 0n) ctx.addIssue({ code: 'custom', message: 'must be greater than zero' })
-  } catch {
+  }
+  catch {
     ctx.addIssue({ code: 'custom', message: 'must be a finite decimal number' })
   }
 })

@@ -23,7 +23,6 @@ async function invitedPerson(role = 'official', password = 'first-password-1') {
 }
 
 describe('sign-in', () => {
-
   it('signs in with a sealed cookie: HttpOnly, SameSite=Lax', async () => {
     const r = await call('POST', '/api/auth/login', { body: { email: demoEmail('timekeeper'), password: DEMO_PASSWORD } })
     expect(r.status).toBe(200)
@@ -94,7 +93,6 @@ describe('sign-in', () => {
 })
 
 describe('invitations and passwords', () => {
-
   it('invites a person by e-mail, who sets a password, signs in and sees the role at home', async () => {
     const person = await invitedPerson('scrutineer')
     const cookie = await login(person.email, person.password)
@@ -141,7 +139,7 @@ describe('invitations and passwords', () => {
     expect(expired.status).toBe(410)
 
     await call('POST', '/api/auth/forgot', { body: { email: person.email } })
-    const mails = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as { to: string; subject: string; text: string }[]
+    const mails = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as { to: string, subject: string, text: string }[]
     const fresh = linkToken(mails.find(m => m.to.includes(person.email) && m.subject.includes('new password') && linkToken(m.text) !== token)!.text)
     const ok = await call('POST', '/api/auth/token', { body: { token: fresh, password: 'reset-password-3' } })
     expect(ok.status).toBe(200)
@@ -165,7 +163,6 @@ describe('invitations and passwords', () => {
 })
 
 describe('events and roles', () => {
-
   it('one person holds different roles at different events', async () => {
     const admin = await login(demoEmail('admin'))
     const created = await call('POST', '/api/events', {
@@ -177,7 +174,7 @@ describe('events and roles', () => {
     expect(created.body.profile.version).toBe(1)
     const tk = await login(demoEmail('timekeeper'))
     const me = await call('GET', '/api/me', { cookie: tk })
-    const roles = me.body.memberships.map((m: { eventName: string; role: string }) => `${m.eventName}: ${m.role}`)
+    const roles = me.body.memberships.map((m: { eventName: string, role: string }) => `${m.eventName}: ${m.role}`)
     expect(roles).toContain('Roles test event: organiser')
     expect(roles).toContain('Tamsel Flat Electric Speed Week: timekeeper')
     // Organiser there, so the people of that event are open; at the demo event only the timekeeper.

@@ -21,7 +21,7 @@ const adminOnly = (status: number) => ({ ...signedIn(403), admin: status })
 const rolesOnly = (status: number, ...roles: Who[]) => ({ ...eventMembers(403), admin: 404, ...Object.fromEntries(roles.map(r => [r, status])) })
 
 // Bodies are empty on purpose: past the role check a write answers 422, which shows the gate let it through.
-const TABLE: Record<string, { expect: Record<Who, number>; body?: unknown }> = {
+const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/health': { expect: all(200) },
   'GET /api/profiles': { expect: all(200) },
   'POST /api/calculator': { expect: all(422), body: {} },
@@ -109,7 +109,7 @@ describe('authorization table', () => {
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
     cookies.anonymous = ''
-    const events = await call<{ id: number; name: string }[]>('GET', '/api/events', { cookie: cookies.organiser })
+    const events = await call<{ id: number, name: string }[]>('GET', '/api/events', { cookie: cookies.organiser })
     eventId = events.body[0]!.id
     const sheet = await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookies.timekeeper })
     ids.attempts = sheet.body.attempts[0].id

@@ -6,7 +6,6 @@ await useTestServer()
 const MILE = 1609.344
 
 describe('POST /api/calculator', () => {
-
   it('returns the 1983 flying-mile figures', async () => {
     // Source: 1983 land speed record published by the Royal Automobile Club and others:
     // 624.241 and 642.971 mph, official average 633.468 mph from mile times of 5.767 s and 5.599 s.
@@ -31,7 +30,7 @@ describe('POST /api/calculator', () => {
 
   it('answers through @nuxt/test-utils $fetch as well', async () => {
     // 1000 m in 10 s is 100 m/s = 360 km/h exactly, 223.693… mph (360 / 1.609344).
-    const r = await testFetch<{ runs: { speedKmh: string; speedMph: string }[] }>('/api/calculator', {
+    const r = await testFetch<{ runs: { speedKmh: string, speedMph: string }[] }>('/api/calculator', {
       method: 'POST', body: { profile: 'intl-motorcycle', distanceM: 1000, runs: [{ direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: 10 }] },
     })
     expect(r.runs[0]).toEqual({ direction: 'out', elapsedS: '10.000', speedKmh: '360.000', speedMph: '223.693' })

@@ -2,7 +2,8 @@ import { spawn } from 'node:child_process'
 import { writeFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import pg from 'pg'
-import { PDFArray, PDFDict, PDFDocument, PDFHexString, PDFName, PDFString } from 'pdf-lib'
+import type { PDFHexString, PDFString } from 'pdf-lib'
+import { PDFArray, PDFDict, PDFDocument, PDFName } from 'pdf-lib'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { readAttachments } from '../../server/utils/pdf-attachments'
 import { call, demoEmail, DEMO_PASSWORD, login, mailTo, url, useTestServer } from '../support/api'
@@ -22,7 +23,7 @@ const verify = async (bytes: Uint8Array, name = 'dossier.pdf') => {
   const body = new FormData()
   body.append('file', new Blob([bytes], { type: 'application/pdf' }), name)
   const r = await fetch(url('/api/dossiers/verify'), { method: 'POST', body })
-  return { status: r.status, body: await r.json() as { sealValid: boolean; keyFingerprint: string | null; items: { name: string; ok: boolean }[]; message: string } }
+  return { status: r.status, body: await r.json() as { sealValid: boolean, keyFingerprint: string | null, items: { name: string, ok: boolean }[], message: string } }
 }
 
 /** Replaces one attached file of a PDF by the same bytes with one byte changed, through pdf-lib. */

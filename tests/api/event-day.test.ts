@@ -29,7 +29,7 @@ async function runWith(entryId: number, direction: 'out' | 'back', times: Record
     const r = await call('POST', `/api/runs/${run.body.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId(label), systemId: system(role).id, time } })
     expect(r.status, JSON.stringify(r.body)).toBe(201)
   }
-  return run.body as { id: number; attemptId: number }
+  return run.body as { id: number, attemptId: number }
 }
 
 const live = async () => (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body as any[]
@@ -69,11 +69,11 @@ describe('polling the live results', () => {
     const etag = first.headers.get('etag')!
     expect(first.status).toBe(200)
     expect(Date.parse(first.headers.get('date')!)).toBeGreaterThan(0)
-    const again = await fetch(url(`/api/events/${eventId}/live`), { headers: { cookie: cookie.team, 'if-none-match': etag } })
+    const again = await fetch(url(`/api/events/${eventId}/live`), { headers: { 'cookie': cookie.team, 'if-none-match': etag } })
     expect(again.status).toBe(304)
     const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
     await runWith(entryId, 'out', { 'M-in': '16:00:00.0000' })
-    const changed = await fetch(url(`/api/events/${eventId}/live`), { headers: { cookie: cookie.team, 'if-none-match': etag } })
+    const changed = await fetch(url(`/api/events/${eventId}/live`), { headers: { 'cookie': cookie.team, 'if-none-match': etag } })
     expect(changed.status).toBe(200)
     expect(changed.headers.get('etag')).not.toBe(etag)
   })

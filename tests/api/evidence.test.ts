@@ -50,7 +50,7 @@ describe('uploads', () => {
     // The download is the same bytes.
     const content = await fetch(url(`/api/evidence/${first.body.id}/content?download=1`), { headers: { cookie: cookie.organiser } })
     expect(content.headers.get('content-type')).toBe('application/pdf')
-    expect(content.headers.get('content-disposition')).toBe("attachment; filename*=UTF-8''survey%20north%20course.pdf")
+    expect(content.headers.get('content-disposition')).toBe('attachment; filename*=UTF-8\'\'survey%20north%20course.pdf')
     expect(sha256(new Uint8Array(await content.arrayBuffer()))).toBe(sha256(bytes))
     expect(tmpFiles()).toEqual([])
   })
@@ -85,7 +85,7 @@ describe('uploads', () => {
     const boundary = 'cutoffboundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nother-document\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="cut.pdf"\r\nContent-Type: application/pdf\r\n\r\n`
     await new Promise<void>((resolve) => {
-      const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { cookie: cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 90_000) } })
+      const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 90_000) } })
       req.on('error', () => resolve())
       req.on('response', () => resolve())
       req.write(head)
@@ -132,13 +132,18 @@ describe('a server killed during an upload', () => {
       env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NUXT_DATABASE_URL: env.databaseUrl, NUXT_DATA_DIR: env.dataDir, NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long', NUXT_MAIL_PORT: String(env.smtpPort) },
       stdio: 'ignore',
     })
-    const up = async () => { for (let i = 0; i < 100; i++) { try { if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return } catch {} await new Promise(r => setTimeout(r, 100)) } throw new Error('no server') }
+    const up = async () => {
+      for (let i = 0; i < 100; i++) {
+        try { if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return }
+        catch {} await new Promise(r => setTimeout(r, 100))
+      } throw new Error('no server')
+    }
     let server = start()
     await up()
     const before = await rows()
     const boundary = 'killboundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nvideo\r\n--${boundary}\r\nContent-Disposition: form-data; name="runId"\r\n\r\n${runId}\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="run.mp4"\r\n\r\n`
-    const req = request(`http://127.0.0.1:${port}/api/events/${eventId}/evidence`, { method: 'POST', headers: { cookie: cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 10_000_000) } })
+    const req = request(`http://127.0.0.1:${port}/api/events/${eventId}/evidence`, { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 10_000_000) } })
     req.on('error', () => {})
     req.write(head)
     req.write(Buffer.alloc(200_000, 1))

@@ -33,7 +33,7 @@ const startRun = () => call('POST', `/api/events/${eventId}/runs`, { cookie: coo
 async function answerAll(id: number, failing?: string) {
   for (const i of allItems(electricMotorcycle)) {
     const result = i.key === failing ? 'fail' : 'pass'
-    const measured: Record<string, [number, string]> = { isolation: [80, 'kΩ'], bonding: [0.05, 'Ω'], 'canopy-exit': [12, 's'], mass: [181.5, 'kg'] }
+    const measured: Record<string, [number, string]> = { 'isolation': [80, 'kΩ'], 'bonding': [0.05, 'Ω'], 'canopy-exit': [12, 's'], 'mass': [181.5, 'kg'] }
     const [value, unit] = measured[i.key] ?? []
     const r = await answer(id, { itemKey: i.key, result, value, unit })
     expect(r.status, JSON.stringify(r.body)).toBe(200)
@@ -151,7 +151,8 @@ describe('witness statements', () => {
     await db.query('alter table signatures disable trigger signatures_append_only')
     try {
       await db.query(`update signatures set content = jsonb_set(content, '{reason}', '"altered"') where id = $1`, [sigId])
-    } finally {
+    }
+    finally {
       await db.query('alter table signatures enable trigger signatures_append_only')
     }
     const report = await call('GET', `/api/signatures/${sigId}`, { cookie: cookie.official })

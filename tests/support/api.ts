@@ -21,7 +21,7 @@ export interface Reply<T = any> {
 }
 
 /** A raw request: the status and body whatever they are, with an optional session cookie. */
-export async function call<T = any>(method: string, path: string, options: { body?: unknown; cookie?: string; raw?: string } = {}): Promise<Reply<T>> {
+export async function call<T = any>(method: string, path: string, options: { body?: unknown, cookie?: string, raw?: string } = {}): Promise<Reply<T>> {
   const headers: Record<string, string> = {}
   if (options.cookie) headers.cookie = options.cookie
   let body: string | undefined
@@ -30,7 +30,8 @@ export async function call<T = any>(method: string, path: string, options: { bod
   const r = await fetch(url(path), { method, headers, body, redirect: 'manual' })
   const text = await r.text()
   let parsed: unknown = text
-  try { parsed = text ? JSON.parse(text) : null } catch { /* not JSON */ }
+  try { parsed = text ? JSON.parse(text) : null }
+  catch { /* not JSON */ }
   return { status: r.status, body: parsed as T, headers: r.headers }
 }
 
@@ -40,7 +41,7 @@ export async function login(email: string, password = DEMO_PASSWORD): Promise<st
   return r.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
 }
 
-interface CaughtMail { id: string; to: string; subject: string; text: string }
+interface CaughtMail { id: string, to: string, subject: string, text: string }
 
 /** The newest message the mail catcher holds for an address, waiting briefly for it. */
 export async function mailTo(address: string, subjectHas = ''): Promise<CaughtMail> {

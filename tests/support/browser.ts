@@ -8,7 +8,7 @@ import demo from '../../server/database/demo-people.json'
 const demoPassword = demo.password
 
 /** Debian's Chromium, headless, with a new empty profile; never a browser download. */
-export async function launchBrowser(): Promise<{ browser: BrowserContext; close: () => Promise<void>; baseUrl: string }> {
+export async function launchBrowser(): Promise<{ browser: BrowserContext, close: () => Promise<void>, baseUrl: string }> {
   const profile = mkdtempSync(join(tmpdir(), 'trapline-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
@@ -32,7 +32,7 @@ export async function open(context: BrowserContext, url: string) {
 }
 
 /** Fills and sends the sign-in form in a context with no cookies; returns the page where it lands. */
-export async function submitSignIn(ctx: { browser: BrowserContext; baseUrl: string }, email: string, password: string) {
+export async function submitSignIn(ctx: { browser: BrowserContext, baseUrl: string }, email: string, password: string) {
   await ctx.browser.clearCookies()
   const page = await open(ctx.browser, `${ctx.baseUrl}/login`)
   await page.fill('#email', email)
@@ -42,7 +42,7 @@ export async function submitSignIn(ctx: { browser: BrowserContext; baseUrl: stri
 }
 
 /** Signs a demo person in (the demo password), waits for the home page, then opens `path` if given. */
-export async function signIn(ctx: { browser: BrowserContext; baseUrl: string }, email: string, path?: string) {
+export async function signIn(ctx: { browser: BrowserContext, baseUrl: string }, email: string, path?: string) {
   const page = await submitSignIn(ctx, email, demoPassword)
   await page.waitForURL('**/home')
   if (path) {

@@ -12,7 +12,7 @@ export function pdf(text = 'survey'): Buffer {
 /** A 1×1 PNG (signature, IHDR, IDAT, IEND; PNG specification, ISO/IEC 15948). */
 export const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64')
 
-export function form(fields: Record<string, string | number>, file?: { name: string; bytes: Uint8Array; type?: string }, fileFirst = false) {
+export function form(fields: Record<string, string | number>, file?: { name: string, bytes: Uint8Array, type?: string }, fileFirst = false) {
   const f = new FormData()
   const addFile = () => file && f.append('file', new Blob([file.bytes], { type: file.type ?? 'application/octet-stream' }), file.name)
   if (fileFirst) addFile()

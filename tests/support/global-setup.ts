@@ -24,7 +24,8 @@ async function waitFor(url: string, child: ChildProcess, log: () => string, time
     try {
       const r = await fetch(url)
       if (r.ok) return
-    } catch { /* not up yet */ }
+    }
+    catch { /* not up yet */ }
     await new Promise(r => setTimeout(r, 200))
   }
   throw new Error(`${url} did not answer within ${timeoutMs} ms:\n${log()}`)
@@ -81,7 +82,8 @@ export default async function setup(project: TestProject) {
   return async () => {
     server.kill('SIGTERM')
     catcher.kill('SIGTERM')
-    try { process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM') } catch { /* already stopped */ }
+    try { process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM') }
+    catch { /* already stopped */ }
     if (serverLog.includes('[nitro] [unhandled error]') || /\n\s+at .+\n/.test(serverLog) && serverLog.includes('Error')) {
       console.log('--- server log ---\n' + serverLog)
     }

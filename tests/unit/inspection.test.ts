@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { checkMeasurement, clears, missingItems, toItemUnit } from '#shared/inspection/evaluate'
-import { allItems } from '#shared/inspection/evaluate'
+import { checkMeasurement, clears, missingItems, toItemUnit, allItems } from '#shared/inspection/evaluate'
 import { electricMotorcycle } from '#shared/inspection/templates'
 
 const item = (key: string) => allItems(electricMotorcycle).find(i => i.key === key)!

@@ -8,7 +8,8 @@ export default defineEventHandler(async (event) => {
     const result = await verifyDossier(new Uint8Array(await readFile(file.path)))
     if (!result.keyFingerprint && !result.items.length) setResponseStatus(event, 422)
     return result
-  } finally {
+  }
+  finally {
     await rm(file.path, { force: true })
   }
 })
