@@ -3,9 +3,15 @@ export function useCountdown(deadline: Ref<string | null | undefined>, serverNow
   const skewMs = computed(() => (serverNow.value ? Date.parse(serverNow.value) - Date.now() : 0))
   const now = ref(Date.now())
   let timer: ReturnType<typeof setInterval> | undefined
-  onMounted(() => { timer = setInterval(() => { now.value = Date.now() }, 1000) })
+  onMounted(() => {
+    timer = setInterval(() => {
+      now.value = Date.now()
+    }, 1000)
+  })
   onBeforeUnmount(() => clearInterval(timer))
-  const secondsLeft = computed(() => (deadline.value ? Math.floor((Date.parse(deadline.value) - (now.value + skewMs.value)) / 1000) : null))
+  const secondsLeft = computed(() =>
+    deadline.value ? Math.floor((Date.parse(deadline.value) - (now.value + skewMs.value)) / 1000) : null,
+  )
   const text = computed(() => {
     const s = secondsLeft.value
     if (s === null) return ''

@@ -1,6 +1,9 @@
 import type { FetchError } from 'ofetch'
 
-interface Issue { path: string, message: string }
+interface Issue {
+  path: string
+  message: string
+}
 
 /** The one place that turns a server's 422 (or any error) into messages beside the fields. */
 export function useFormErrors() {
@@ -18,11 +21,24 @@ export function useFormErrors() {
       for (const i of issues) fields[i.path] = i.message
     }
     else {
-      general.value = e?.data?.message || e?.data?.statusMessage || e?.statusMessage || 'Something went wrong; nothing was saved. Try again.'
+      general.value
+        = e?.data?.message
+          || e?.data?.statusMessage
+          || e?.statusMessage
+          || 'Something went wrong; nothing was saved. Try again.'
     }
   }
   /** Checks one field with a shared zod schema as the person leaves it. */
-  function check(schema: { safeParse: (x: unknown) => { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } } }, value: unknown, path: string) {
+  function check(
+    schema: {
+      safeParse: (x: unknown) => {
+        success: boolean
+        error?: { issues: { path: PropertyKey[], message: string }[] }
+      }
+    },
+    value: unknown,
+    path: string,
+  ) {
     const r = schema.safeParse(value)
     const issue = r.success ? undefined : r.error?.issues.find(i => i.path.join('.') === path)
     if (issue) fields[path] = issue.message

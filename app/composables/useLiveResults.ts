@@ -18,7 +18,9 @@ export function useLiveResults(eventId: Ref<string>, everyMs = 3000) {
   })
   let timer: ReturnType<typeof setInterval> | undefined
   onMounted(() => {
-    timer = setInterval(() => { if (document.visibilityState === 'visible') result.refresh() }, everyMs)
+    timer = setInterval(() => {
+      if (document.visibilityState === 'visible') result.refresh()
+    }, everyMs)
   })
   onBeforeUnmount(() => clearInterval(timer))
   return { request: result, serverNow }

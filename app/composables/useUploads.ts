@@ -20,10 +20,21 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
   const items = ref<UploadItem[]>([])
   let next = 1
   function send(file: File, kind: EvidenceKind, targets: Record<string, string | number | undefined>) {
-    const item = reactive<UploadItem>({ id: next++, name: file.name, size: file.size, sent: 0, startedAt: Date.now(), state: 'sending', message: '' })
+    const item = reactive<UploadItem>({
+      id: next++,
+      name: file.name,
+      size: file.size,
+      sent: 0,
+      startedAt: Date.now(),
+      state: 'sending',
+      message: '',
+    })
     items.value.unshift(item)
     if (file.size > evidenceKinds[kind].maxBytes) {
-      Object.assign(item, { state: 'failed', message: `over the limit of ${formatBytes(evidenceKinds[kind].maxBytes)} for a ${evidenceKinds[kind].label.toLowerCase()}` })
+      Object.assign(item, {
+        state: 'failed',
+        message: `over the limit of ${formatBytes(evidenceKinds[kind].maxBytes)} for a ${evidenceKinds[kind].label.toLowerCase()}`,
+      })
       return
     }
     const body = new FormData()
@@ -33,15 +44,32 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
     const xhr = new XMLHttpRequest()
     item.xhr = xhr
     xhr.open('POST', `/api/events/${eventId.value}/evidence`)
-    xhr.upload.onprogress = (e) => { item.sent = e.loaded }
+    xhr.upload.onprogress = (e) => {
+      item.sent = e.loaded
+    }
     xhr.onload = () => {
       let res: { sha256?: string, message?: string, data?: { issues?: { path: string, message: string }[] } } = {}
-      try { res = JSON.parse(xhr.responseText) }
-      catch { /* not JSON */ }
-      if (xhr.status === 201) { Object.assign(item, { state: 'done', sent: item.size, sha256: res.sha256 }); onDone() }
-      else Object.assign(item, { state: 'failed', message: res.data?.issues?.map(i => `${i.path}: ${i.message}`).join('; ') ?? res.message ?? `refused (${xhr.status})` })
+      try {
+        res = JSON.parse(xhr.responseText)
+      }
+      catch {
+        /* not JSON */
+      }
+      if (xhr.status === 201) {
+        Object.assign(item, { state: 'done', sent: item.size, sha256: res.sha256 })
+        onDone()
+      }
+      else
+        Object.assign(item, {
+          state: 'failed',
+          message:
+            res.data?.issues?.map(i => `${i.path}: ${i.message}`).join('; ')
+            ?? res.message
+            ?? `refused (${xhr.status})`,
+        })
     }
-    xhr.onerror = () => Object.assign(item, { state: 'failed', message: 'the connection dropped; nothing was kept' })
+    xhr.onerror = () =>
+      Object.assign(item, { state: 'failed', message: 'the connection dropped; nothing was kept' })
     xhr.onabort = () => Object.assign(item, { state: 'cancelled', message: 'cancelled; nothing was kept' })
     xhr.send(body)
   }
@@ -54,5 +82,9 @@ export function uploadFigures(item: UploadItem, now: number) {
   const seconds = Math.max(0.001, (now - item.startedAt) / 1000)
   const rate = item.sent / seconds
   const left = rate > 0 ? (item.size - item.sent) / rate : Infinity
-  return { percent: item.size ? Math.floor((item.sent / item.size) * 100) : 100, rate: `${formatBytes(rate)}/s`, left: Number.isFinite(left) ? `${Math.ceil(left)} s left` : '' }
+  return {
+    percent: item.size ? Math.floor((item.sent / item.size) * 100) : 100,
+    rate: `${formatBytes(rate)}/s`,
+    left: Number.isFinite(left) ? `${Math.ceil(left)} s left` : '',
+  }
 }

@@ -2,10 +2,25 @@ import { defineStore } from 'pinia'
 
 /** Display choices that stick across visits (kept in cookies so the server renders them too). */
 export const usePreferencesStore = defineStore('preferences', () => {
-  const unitCookie = useCookie<'km/h' | 'mph'>('trapline-unit', { default: () => 'km/h', maxAge: 60 * 60 * 24 * 365, sameSite: 'lax' })
-  const themeCookie = useCookie<'day' | 'dark'>('trapline-theme', { default: () => 'day', maxAge: 60 * 60 * 24 * 365, sameSite: 'lax' })
-  const unit = computed({ get: () => unitCookie.value, set: (v) => { unitCookie.value = v } })
+  const unitCookie = useCookie<'km/h' | 'mph'>('trapline-unit', {
+    default: () => 'km/h',
+    maxAge: 60 * 60 * 24 * 365,
+    sameSite: 'lax',
+  })
+  const themeCookie = useCookie<'day' | 'dark'>('trapline-theme', {
+    default: () => 'day',
+    maxAge: 60 * 60 * 24 * 365,
+    sameSite: 'lax',
+  })
+  const unit = computed({
+    get: () => unitCookie.value,
+    set: (v) => {
+      unitCookie.value = v
+    },
+  })
   const theme = computed(() => themeCookie.value)
-  const toggleTheme = () => { themeCookie.value = themeCookie.value === 'dark' ? 'day' : 'dark' }
+  const toggleTheme = () => {
+    themeCookie.value = themeCookie.value === 'dark' ? 'day' : 'dark'
+  }
   return { unit, theme, toggleTheme }
 })

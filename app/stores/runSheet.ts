@@ -16,13 +16,19 @@ export const useRunSheetStore = defineStore('run-sheet', () => {
   return {
     lastError,
     saving,
-    startRun: (eventId: string, body: { entryId: number, direction: 'out' | 'back', startedAt: string }) => send<{ id: number }>(`/api/events/${eventId}/runs`, body),
-    enterReading: (runId: number, body: { trapId: number, systemId: number, time: string }) => send(`/api/runs/${runId}/readings`, body),
-    correctReading: (readingId: number, body: { time: string, reason: string, expectedCurrentId: number }) => send(`/api/readings/${readingId}/corrections`, body),
+    startRun: (eventId: string, body: { entryId: number, direction: 'out' | 'back', startedAt: string }) =>
+      send<{ id: number }>(`/api/events/${eventId}/runs`, body),
+    enterReading: (runId: number, body: { trapId: number, systemId: number, time: string }) =>
+      send(`/api/runs/${runId}/readings`, body),
+    correctReading: (readingId: number, body: { time: string, reason: string, expectedCurrentId: number }) =>
+      send(`/api/readings/${readingId}/corrections`, body),
     abortRun: (runId: number, reason: string) => send(`/api/runs/${runId}/abort`, { reason }),
     addWeather: (runId: number, body: Record<string, string>) => send(`/api/runs/${runId}/weather`, body),
-    importCsv: (eventId: string, body: Record<string, unknown>) => send<{ ok: boolean, written: number }>(`/api/events/${eventId}/imports`, body),
-    sign: (attemptId: number, body: { password: string, typedName: string }) => send(`/api/attempts/${attemptId}/signatures`, body),
-    reopen: (attemptId: number, body: { password: string, typedName: string, reason: string }) => send(`/api/attempts/${attemptId}/reopen`, body),
+    importCsv: (eventId: string, body: Record<string, unknown>) =>
+      send<{ ok: boolean, written: number }>(`/api/events/${eventId}/imports`, body),
+    sign: (attemptId: number, body: { password: string, typedName: string }) =>
+      send(`/api/attempts/${attemptId}/signatures`, body),
+    reopen: (attemptId: number, body: { password: string, typedName: string, reason: string }) =>
+      send(`/api/attempts/${attemptId}/reopen`, body),
   }
 })

@@ -29,32 +29,97 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
   const passwordHash = await hash(demo.password)
   return db.transaction(async (tx: Tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(727001)`)
-    const [seeded] = await tx.select({ id: t.users.id }).from(t.users).where(eq(t.users.email, demo.people[0]!.email))
+    const [seeded] = await tx
+      .select({ id: t.users.id })
+      .from(t.users)
+      .where(eq(t.users.email, demo.people[0]!.email))
     if (seeded) return false
 
     const ids = new Map<string, number>()
     for (const p of demo.people) {
-      const [u] = await tx.insert(t.users).values({ email: p.email, name: p.name, passwordHash, isAdmin: !!p.admin }).returning()
+      const [u] = await tx
+        .insert(t.users)
+        .values({ email: p.email, name: p.name, passwordHash, isAdmin: !!p.admin })
+        .returning()
       ids.set(p.email, u!.id)
     }
     const adminId = ids.get('admin@trapline.test')!
-    const [event] = await tx.insert(t.events)
-      .values({ ...DEMO_EVENT, profile: copyProfile(profiles[DEMO_EVENT.profileId]), createdBy: adminId }).returning()
-    const [course] = await tx.insert(t.courses)
-      .values({ eventId: event!.id, name: 'North course', headingDeg: '172.00', surface: 'dry lake clay' }).returning()
-    const trapRows = await tx.insert(t.traps).values(TRAPS.map(x => ({ ...x, courseId: course!.id }))).returning()
+    const [event] = await tx
+      .insert(t.events)
+      .values({ ...DEMO_EVENT, profile: copyProfile(profiles[DEMO_EVENT.profileId]), createdBy: adminId })
+      .returning()
+    const [course] = await tx
+      .insert(t.courses)
+      .values({ eventId: event!.id, name: 'North course', headingDeg: '172.00', surface: 'dry lake clay' })
+      .returning()
+    const trapRows = await tx
+      .insert(t.traps)
+      .values(TRAPS.map(x => ({ ...x, courseId: course!.id })))
+      .returning()
     const trap = (label: string) => trapRows.find(x => x.label === label)!
-    const [mile, km] = await tx.insert(t.measuredDistances).values([
-      { courseId: course!.id, label: 'Flying mile', start: 'flying', nominalM: '1609.344', entryTrapId: trap('M-in').id, exitTrapId: trap('M-out').id },
-      { courseId: course!.id, label: 'Flying kilometre', start: 'flying', nominalM: '1000.000', entryTrapId: trap('K-in').id, exitTrapId: trap('K-out').id },
-    ]).returning()
-    const [primary, backup] = await tx.insert(t.timingSystems).values([
-      { eventId: event!.id, name: 'Beam set A', role: 'primary', ticksPerSecond: 10_000, toleranceS: '0.002', description: 'Infrared beams with GPS-disciplined clock', calibratedOn: '2026-06-02', calibrationExpires: '2027-06-01' },
-      { eventId: event!.id, name: 'Beam set B', role: 'backup', ticksPerSecond: 1000, toleranceS: '0.002', description: 'Independent beams and recorder', calibratedOn: '2026-05-20', calibrationExpires: '2027-05-19' },
-    ]).returning()
+    const [mile, km] = await tx
+      .insert(t.measuredDistances)
+      .values([
+        {
+          courseId: course!.id,
+          label: 'Flying mile',
+          start: 'flying',
+          nominalM: '1609.344',
+          entryTrapId: trap('M-in').id,
+          exitTrapId: trap('M-out').id,
+        },
+        {
+          courseId: course!.id,
+          label: 'Flying kilometre',
+          start: 'flying',
+          nominalM: '1000.000',
+          entryTrapId: trap('K-in').id,
+          exitTrapId: trap('K-out').id,
+        },
+      ])
+      .returning()
+    const [primary, backup] = await tx
+      .insert(t.timingSystems)
+      .values([
+        {
+          eventId: event!.id,
+          name: 'Beam set A',
+          role: 'primary',
+          ticksPerSecond: 10_000,
+          toleranceS: '0.002',
+          description: 'Infrared beams with GPS-disciplined clock',
+          calibratedOn: '2026-06-02',
+          calibrationExpires: '2027-06-01',
+        },
+        {
+          eventId: event!.id,
+          name: 'Beam set B',
+          role: 'backup',
+          ticksPerSecond: 1000,
+          toleranceS: '0.002',
+          description: 'Independent beams and recorder',
+          calibratedOn: '2026-05-20',
+          calibrationExpires: '2027-05-19',
+        },
+      ])
+      .returning()
     await tx.insert(t.standingRecords).values([
-      { eventId: event!.id, className: 'Electric, fully streamlined', distanceLabel: 'Flying mile', speedKmh: '385.000', setOn: '2024-09-03', note: 'invented for the demo' },
-      { eventId: event!.id, className: 'Electric, partially streamlined', distanceLabel: 'Flying kilometre', speedKmh: '330.000', setOn: '2025-08-21', note: 'invented for the demo' },
+      {
+        eventId: event!.id,
+        className: 'Electric, fully streamlined',
+        distanceLabel: 'Flying mile',
+        speedKmh: '385.000',
+        setOn: '2024-09-03',
+        note: 'invented for the demo',
+      },
+      {
+        eventId: event!.id,
+        className: 'Electric, partially streamlined',
+        distanceLabel: 'Flying kilometre',
+        speedKmh: '330.000',
+        setOn: '2025-08-21',
+        note: 'invented for the demo',
+      },
     ])
 
     const teamIds = new Map<string, number>()
@@ -62,40 +127,136 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
       const [team] = await tx.insert(t.teams).values({ eventId: event!.id, name }).returning()
       teamIds.set(name, team!.id)
     }
-    const [ls3, ember] = await tx.insert(t.machines).values([
-      { teamId: teamIds.get('Larkspur Works')!, name: 'Larkspur LS-3 streamliner', power: 'electric', declaredMassKg: '286.0', division: 'full' },
-      { teamId: teamIds.get('Cinder Hollow Engineering')!, name: 'Ember Mk II', power: 'electric', declaredMassKg: '212.5', division: 'partial' },
-    ]).returning()
-    const [mara, jory] = await tx.insert(t.riders).values([
-      { teamId: teamIds.get('Larkspur Works')!, name: 'Mara Quillfeather', licenceNo: 'DEMO-L-0417', licenceExpires: '2027-03-31' },
-      { teamId: teamIds.get('Cinder Hollow Engineering')!, name: 'Jory Vantreese', licenceNo: 'DEMO-L-0982', licenceExpires: '2026-08-12' },
-    ]).returning()
-    const [lsEntry, emberEntry] = await tx.insert(t.entries).values([
-      { eventId: event!.id, teamId: ls3!.teamId, machineId: ls3!.id, riderId: mara!.id, className: 'Electric, fully streamlined', distanceId: mile!.id },
-      { eventId: event!.id, teamId: ember!.teamId, machineId: ember!.id, riderId: jory!.id, className: 'Electric, partially streamlined', distanceId: km!.id },
-    ]).returning()
+    const [ls3, ember] = await tx
+      .insert(t.machines)
+      .values([
+        {
+          teamId: teamIds.get('Larkspur Works')!,
+          name: 'Larkspur LS-3 streamliner',
+          power: 'electric',
+          declaredMassKg: '286.0',
+          division: 'full',
+        },
+        {
+          teamId: teamIds.get('Cinder Hollow Engineering')!,
+          name: 'Ember Mk II',
+          power: 'electric',
+          declaredMassKg: '212.5',
+          division: 'partial',
+        },
+      ])
+      .returning()
+    const [mara, jory] = await tx
+      .insert(t.riders)
+      .values([
+        {
+          teamId: teamIds.get('Larkspur Works')!,
+          name: 'Mara Quillfeather',
+          licenceNo: 'DEMO-L-0417',
+          licenceExpires: '2027-03-31',
+        },
+        {
+          teamId: teamIds.get('Cinder Hollow Engineering')!,
+          name: 'Jory Vantreese',
+          licenceNo: 'DEMO-L-0982',
+          licenceExpires: '2026-08-12',
+        },
+      ])
+      .returning()
+    const [lsEntry, emberEntry] = await tx
+      .insert(t.entries)
+      .values([
+        {
+          eventId: event!.id,
+          teamId: ls3!.teamId,
+          machineId: ls3!.id,
+          riderId: mara!.id,
+          className: 'Electric, fully streamlined',
+          distanceId: mile!.id,
+        },
+        {
+          eventId: event!.id,
+          teamId: ember!.teamId,
+          machineId: ember!.id,
+          riderId: jory!.id,
+          className: 'Electric, partially streamlined',
+          distanceId: km!.id,
+        },
+      ])
+      .returning()
     const timekeeperId = ids.get('timekeeper@trapline.test')!
     // Runs of the invented day: a complete pair for the streamliner, a first run for the Ember.
     const day = [
-      { entry: lsEntry!, direction: 'out' as const, startedAt: '2026-08-12T14:05:00Z', firstTrap: '08:05:41.2000', kmh: 391.2 },
-      { entry: lsEntry!, direction: 'back' as const, startedAt: '2026-08-12T14:52:00Z', firstTrap: '08:52:38.5000', kmh: 394.6 },
-      { entry: emberEntry!, direction: 'out' as const, startedAt: '2026-08-12T15:40:00Z', firstTrap: '09:40:35.7500', kmh: 336.4 },
+      {
+        entry: lsEntry!,
+        direction: 'out' as const,
+        startedAt: '2026-08-12T14:05:00Z',
+        firstTrap: '08:05:41.2000',
+        kmh: 391.2,
+      },
+      {
+        entry: lsEntry!,
+        direction: 'back' as const,
+        startedAt: '2026-08-12T14:52:00Z',
+        firstTrap: '08:52:38.5000',
+        kmh: 394.6,
+      },
+      {
+        entry: emberEntry!,
+        direction: 'out' as const,
+        startedAt: '2026-08-12T15:40:00Z',
+        firstTrap: '09:40:35.7500',
+        kmh: 336.4,
+      },
     ]
     const attemptOf = new Map<number, number>()
     for (const r of day) {
       if (!attemptOf.has(r.entry.id)) {
-        const [a] = await tx.insert(t.attempts).values({ eventId: event!.id, entryId: r.entry.id, profile: event!.profile }).returning()
+        const [a] = await tx
+          .insert(t.attempts)
+          .values({ eventId: event!.id, entryId: r.entry.id, profile: event!.profile })
+          .returning()
         attemptOf.set(r.entry.id, a!.id)
       }
-      const [run] = await tx.insert(t.runs).values({ eventId: event!.id, attemptId: attemptOf.get(r.entry.id)!, direction: r.direction, startedAt: new Date(r.startedAt), status: 'finished', createdBy: timekeeperId }).returning()
-      await tx.insert(t.readings).values(demoReadings(r.firstTrap, r.kmh, r.direction, trapRows, primary!, backup!).map(x => ({ ...x, runId: run!.id, enteredBy: timekeeperId })))
-      await tx.insert(t.weather).values({ runId: run!.id, windSpeedMs: '2.40', windFromDeg: r.direction === 'out' ? '200.00' : '195.00', temperatureC: '27.5', pressureHpa: '872.4', enteredBy: timekeeperId })
+      const [run] = await tx
+        .insert(t.runs)
+        .values({
+          eventId: event!.id,
+          attemptId: attemptOf.get(r.entry.id)!,
+          direction: r.direction,
+          startedAt: new Date(r.startedAt),
+          status: 'finished',
+          createdBy: timekeeperId,
+        })
+        .returning()
+      await tx
+        .insert(t.readings)
+        .values(
+          demoReadings(r.firstTrap, r.kmh, r.direction, trapRows, primary!, backup!).map(x => ({
+            ...x,
+            runId: run!.id,
+            enteredBy: timekeeperId,
+          })),
+        )
+      await tx
+        .insert(t.weather)
+        .values({
+          runId: run!.id,
+          windSpeedMs: '2.40',
+          windFromDeg: r.direction === 'out' ? '200.00' : '195.00',
+          temperatureC: '27.5',
+          pressureHpa: '872.4',
+          enteredBy: timekeeperId,
+        })
     }
     for (const p of demo.people) {
       if (!p.role) continue
       await tx.insert(t.memberships).values({
-        eventId: event!.id, userId: ids.get(p.email)!, role: p.role as t.EventRole,
-        teamId: p.team ? teamIds.get(p.team)! : null, invitedBy: adminId,
+        eventId: event!.id,
+        userId: ids.get(p.email)!,
+        role: p.role as t.EventRole,
+        teamId: p.team ? teamIds.get(p.team)! : null,
+        invitedBy: adminId,
       })
     }
     return true
@@ -103,7 +264,14 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
 }
 
 /** Trap times for an invented run at a near-steady speed, on both timing systems. */
-function demoReadings(firstTrap: string, kmh: number, direction: 'out' | 'back', traps: { id: number, positionM: string }[], primary: { id: number, ticksPerSecond: number }, backup: { id: number, ticksPerSecond: number }) {
+function demoReadings(
+  firstTrap: string,
+  kmh: number,
+  direction: 'out' | 'back',
+  traps: { id: number, positionM: string }[],
+  primary: { id: number, ticksPerSecond: number },
+  backup: { id: number, ticksPerSecond: number },
+) {
   const [h, m, s] = firstTrap.split(':').map(Number) as [number, number, number]
   const t0 = h * 3600 + m * 60 + s
   const ordered = [...traps].sort((a, b) => Number(a.positionM) - Number(b.positionM))

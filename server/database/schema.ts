@@ -1,6 +1,19 @@
 import { sql } from 'drizzle-orm'
 import {
-  bigint, bigserial, boolean, date, index, integer, jsonb, numeric, pgEnum, pgTable, serial, text, timestamp, uniqueIndex,
+  bigint,
+  bigserial,
+  boolean,
+  date,
+  index,
+  integer,
+  jsonb,
+  numeric,
+  pgEnum,
+  pgTable,
+  serial,
+  text,
+  timestamp,
+  uniqueIndex,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { ChecklistTemplate } from '#shared/inspection/template'
@@ -15,10 +28,25 @@ export const startKind = pgEnum('start_kind', ['flying', 'standing'])
 export const systemRole = pgEnum('system_role', ['primary', 'backup'])
 export const runDirection = pgEnum('run_direction', ['out', 'back'])
 export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
-export const signedKind = pgEnum('signed_kind', ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement', 'ratification'])
+export const signedKind = pgEnum('signed_kind', [
+  'timing-sheet',
+  'timing-sheet-reopened',
+  'inspection',
+  'statement',
+  'ratification',
+])
 export const decisionKind = pgEnum('decision_kind', ['ratified', 'refused'])
 export const itemResult = pgEnum('item_result', ['pass', 'fail', 'na'])
-export const evidenceKind = pgEnum('evidence_kind', ['survey-certificate', 'calibration-certificate', 'scale-certificate', 'rider-licence', 'photo', 'video', 'data-log', 'other-document'])
+export const evidenceKind = pgEnum('evidence_kind', [
+  'survey-certificate',
+  'calibration-certificate',
+  'scale-certificate',
+  'rider-licence',
+  'photo',
+  'video',
+  'data-log',
+  'other-document',
+])
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),
@@ -46,31 +74,47 @@ export const events = pgTable('events', {
   createdAt: createdAt(),
 })
 
-export const teams = pgTable('teams', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  name: text('name').notNull(),
-  createdAt: createdAt(),
-}, t => [uniqueIndex('teams_event_name').on(t.eventId, t.name)])
+export const teams = pgTable(
+  'teams',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    name: text('name').notNull(),
+    createdAt: createdAt(),
+  },
+  t => [uniqueIndex('teams_event_name').on(t.eventId, t.name)],
+)
 
-export const memberships = pgTable('memberships', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  userId: integer('user_id').notNull().references(() => users.id),
-  role: eventRole('role').notNull(),
-  /** For the team role: the team this person enters for. */
-  teamId: integer('team_id').references(() => teams.id),
-  invitedBy: integer('invited_by').references(() => users.id),
-  createdAt: createdAt(),
-}, t => [
-  uniqueIndex('memberships_event_user_role').on(t.eventId, t.userId, t.role),
-  index('memberships_user').on(t.userId),
-])
+export const memberships = pgTable(
+  'memberships',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    role: eventRole('role').notNull(),
+    /** For the team role: the team this person enters for. */
+    teamId: integer('team_id').references(() => teams.id),
+    invitedBy: integer('invited_by').references(() => users.id),
+    createdAt: createdAt(),
+  },
+  t => [
+    uniqueIndex('memberships_event_user_role').on(t.eventId, t.userId, t.role),
+    index('memberships_user').on(t.userId),
+  ],
+)
 
 /** Single-use links for invitations and password resets; only the SHA-256 of the token is kept. */
 export const authTokens = pgTable('auth_tokens', {
   id: serial('id').primaryKey(),
-  userId: integer('user_id').notNull().references(() => users.id),
+  userId: integer('user_id')
+    .notNull()
+    .references(() => users.id),
   purpose: tokenPurpose('purpose').notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
@@ -79,16 +123,24 @@ export const authTokens = pgTable('auth_tokens', {
 })
 
 /** Kept in PostgreSQL so the sign-in limit holds across several app servers. */
-export const loginAttempts = pgTable('login_attempts', {
-  id: bigserial('id', { mode: 'number' }).primaryKey(),
-  email: text('email').notNull(),
-  succeeded: boolean('succeeded').notNull(),
-  at: timestamp('at', { withTimezone: true }).notNull().default(sql`now()`),
-}, t => [index('login_attempts_email_at').on(t.email, t.at)])
+export const loginAttempts = pgTable(
+  'login_attempts',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    email: text('email').notNull(),
+    succeeded: boolean('succeeded').notNull(),
+    at: timestamp('at', { withTimezone: true })
+      .notNull()
+      .default(sql`now()`),
+  },
+  t => [index('login_attempts_email_at').on(t.email, t.at)],
+)
 
 export const courses = pgTable('courses', {
   id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
   name: text('name').notNull(),
   /** Direction of travel of the "out" runs, degrees from true north. */
   headingDeg: numeric('heading_deg', { precision: 6, scale: 2 }).notNull(),
@@ -98,18 +150,26 @@ export const courses = pgTable('courses', {
   createdAt: createdAt(),
 })
 
-export const traps = pgTable('traps', {
-  id: serial('id').primaryKey(),
-  courseId: integer('course_id').notNull().references(() => courses.id),
-  label: text('label').notNull(),
-  /** Surveyed position, metres from the start line. */
-  positionM: numeric('position_m', { precision: 12, scale: 3 }).notNull(),
-  elevationM: numeric('elevation_m', { precision: 9, scale: 3 }).notNull(),
-}, t => [uniqueIndex('traps_course_label').on(t.courseId, t.label)])
+export const traps = pgTable(
+  'traps',
+  {
+    id: serial('id').primaryKey(),
+    courseId: integer('course_id')
+      .notNull()
+      .references(() => courses.id),
+    label: text('label').notNull(),
+    /** Surveyed position, metres from the start line. */
+    positionM: numeric('position_m', { precision: 12, scale: 3 }).notNull(),
+    elevationM: numeric('elevation_m', { precision: 9, scale: 3 }).notNull(),
+  },
+  t => [uniqueIndex('traps_course_label').on(t.courseId, t.label)],
+)
 
 export const machines = pgTable('machines', {
   id: serial('id').primaryKey(),
-  teamId: integer('team_id').notNull().references(() => teams.id),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
   name: text('name').notNull(),
   power: powerSource('power').notNull(),
   declaredMassKg: numeric('declared_mass_kg', { precision: 8, scale: 1 }).notNull(),
@@ -119,7 +179,9 @@ export const machines = pgTable('machines', {
 
 export const riders = pgTable('riders', {
   id: serial('id').primaryKey(),
-  teamId: integer('team_id').notNull().references(() => teams.id),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
   name: text('name').notNull(),
   licenceNo: text('licence_no').notNull(),
   licenceExpires: date('licence_expires').notNull(),
@@ -127,104 +189,168 @@ export const riders = pgTable('riders', {
 })
 
 /** A measured distance between two traps of one course (flying kilometre, flying mile, standing start). */
-export const measuredDistances = pgTable('measured_distances', {
-  id: serial('id').primaryKey(),
-  courseId: integer('course_id').notNull().references(() => courses.id),
-  label: text('label').notNull(),
-  start: startKind('start').notNull(),
-  nominalM: numeric('nominal_m', { precision: 12, scale: 3 }).notNull(),
-  entryTrapId: integer('entry_trap_id').notNull().references(() => traps.id),
-  exitTrapId: integer('exit_trap_id').notNull().references(() => traps.id),
-}, t => [uniqueIndex('distances_course_label').on(t.courseId, t.label)])
+export const measuredDistances = pgTable(
+  'measured_distances',
+  {
+    id: serial('id').primaryKey(),
+    courseId: integer('course_id')
+      .notNull()
+      .references(() => courses.id),
+    label: text('label').notNull(),
+    start: startKind('start').notNull(),
+    nominalM: numeric('nominal_m', { precision: 12, scale: 3 }).notNull(),
+    entryTrapId: integer('entry_trap_id')
+      .notNull()
+      .references(() => traps.id),
+    exitTrapId: integer('exit_trap_id')
+      .notNull()
+      .references(() => traps.id),
+  },
+  t => [uniqueIndex('distances_course_label').on(t.courseId, t.label)],
+)
 
-export const timingSystems = pgTable('timing_systems', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  name: text('name').notNull(),
-  role: systemRole('role').notNull(),
-  /** Resolution: 1000 is 1/1000 s. Readings are kept as integers of these ticks. */
-  ticksPerSecond: integer('ticks_per_second').notNull(),
-  description: text('description').notNull().default(''),
-  /** The equipment's stated agreement with an independent system, seconds. */
-  toleranceS: numeric('tolerance_s', { precision: 8, scale: 6 }).notNull(),
-  calibratedOn: date('calibrated_on').notNull(),
-  calibrationExpires: date('calibration_expires').notNull(),
-}, t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role)])
+export const timingSystems = pgTable(
+  'timing_systems',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    name: text('name').notNull(),
+    role: systemRole('role').notNull(),
+    /** Resolution: 1000 is 1/1000 s. Readings are kept as integers of these ticks. */
+    ticksPerSecond: integer('ticks_per_second').notNull(),
+    description: text('description').notNull().default(''),
+    /** The equipment's stated agreement with an independent system, seconds. */
+    toleranceS: numeric('tolerance_s', { precision: 8, scale: 6 }).notNull(),
+    calibratedOn: date('calibrated_on').notNull(),
+    calibrationExpires: date('calibration_expires').notNull(),
+  },
+  t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role)],
+)
 
 /** The organiser's copy of the record book: the standing record per class and distance. */
-export const standingRecords = pgTable('standing_records', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  className: text('class_name').notNull(),
-  distanceLabel: text('distance_label').notNull(),
-  speedKmh: numeric('speed_kmh', { precision: 10, scale: 3 }).notNull(),
-  setOn: date('set_on'),
-  note: text('note').notNull().default(''),
-}, t => [uniqueIndex('standing_records_event_class_distance').on(t.eventId, t.className, t.distanceLabel)])
+export const standingRecords = pgTable(
+  'standing_records',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    className: text('class_name').notNull(),
+    distanceLabel: text('distance_label').notNull(),
+    speedKmh: numeric('speed_kmh', { precision: 10, scale: 3 }).notNull(),
+    setOn: date('set_on'),
+    note: text('note').notNull().default(''),
+  },
+  t => [uniqueIndex('standing_records_event_class_distance').on(t.eventId, t.className, t.distanceLabel)],
+)
 
 /** A machine and rider entered for a record: a class at a measured distance. */
 export const entries = pgTable('entries', {
   id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  teamId: integer('team_id').notNull().references(() => teams.id),
-  machineId: integer('machine_id').notNull().references(() => machines.id),
-  riderId: integer('rider_id').notNull().references(() => riders.id),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
+  machineId: integer('machine_id')
+    .notNull()
+    .references(() => machines.id),
+  riderId: integer('rider_id')
+    .notNull()
+    .references(() => riders.id),
   className: text('class_name').notNull(),
-  distanceId: integer('distance_id').notNull().references(() => measuredDistances.id),
+  distanceId: integer('distance_id')
+    .notNull()
+    .references(() => measuredDistances.id),
   createdAt: createdAt(),
 })
 
 /** A pair of runs under the profile frozen when the attempt opened. */
 export const attempts = pgTable('attempts', {
   id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  entryId: integer('entry_id').notNull().references(() => entries.id),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  entryId: integer('entry_id')
+    .notNull()
+    .references(() => entries.id),
   profile: jsonb('profile').$type<RuleProfile>().notNull(),
   createdAt: createdAt(),
 })
 
-export const runs = pgTable('runs', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
-  direction: runDirection('direction').notNull(),
-  startedAt: timestamp('started_at', { withTimezone: true }).notNull(),
-  status: runStatus('status').notNull().default('open'),
-  abortedReason: text('aborted_reason'),
-  abortedBy: integer('aborted_by').references(() => users.id),
-  createdBy: integer('created_by').notNull().references(() => users.id),
-  createdAt: createdAt(),
-}, t => [index('runs_event').on(t.eventId)])
+export const runs = pgTable(
+  'runs',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    attemptId: integer('attempt_id')
+      .notNull()
+      .references(() => attempts.id),
+    direction: runDirection('direction').notNull(),
+    startedAt: timestamp('started_at', { withTimezone: true }).notNull(),
+    status: runStatus('status').notNull().default('open'),
+    abortedReason: text('aborted_reason'),
+    abortedBy: integer('aborted_by').references(() => users.id),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+  },
+  t => [index('runs_event').on(t.eventId)],
+)
 
 /**
  * A trap time of one timing system, as integer ticks since local midnight of the run's day.
  * Never updated: a correction is a new row naming the one it supersedes, with a reason.
  */
-export const readings = pgTable('readings', {
-  id: bigserial('id', { mode: 'number' }).primaryKey(),
-  runId: integer('run_id').notNull().references(() => runs.id),
-  trapId: integer('trap_id').notNull().references(() => traps.id),
-  systemId: integer('system_id').notNull().references(() => timingSystems.id),
-  ticks: bigint('ticks', { mode: 'bigint' }).notNull(),
-  supersedesId: bigint('supersedes_id', { mode: 'number' }),
-  reason: text('reason'),
-  enteredBy: integer('entered_by').notNull().references(() => users.id),
-  enteredAt: timestamp('entered_at', { withTimezone: true }).notNull().defaultNow(),
-}, t => [
-  index('readings_run').on(t.runId),
-  uniqueIndex('readings_supersedes_once').on(t.supersedesId),
-  uniqueIndex('readings_first_entry').on(t.runId, t.trapId, t.systemId).where(sql`supersedes_id is null`),
-])
+export const readings = pgTable(
+  'readings',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    runId: integer('run_id')
+      .notNull()
+      .references(() => runs.id),
+    trapId: integer('trap_id')
+      .notNull()
+      .references(() => traps.id),
+    systemId: integer('system_id')
+      .notNull()
+      .references(() => timingSystems.id),
+    ticks: bigint('ticks', { mode: 'bigint' }).notNull(),
+    supersedesId: bigint('supersedes_id', { mode: 'number' }),
+    reason: text('reason'),
+    enteredBy: integer('entered_by')
+      .notNull()
+      .references(() => users.id),
+    enteredAt: timestamp('entered_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [
+    index('readings_run').on(t.runId),
+    uniqueIndex('readings_supersedes_once').on(t.supersedesId),
+    uniqueIndex('readings_first_entry')
+      .on(t.runId, t.trapId, t.systemId)
+      .where(sql`supersedes_id is null`),
+  ],
+)
 
 /** Weather at a run from the course anemometer; the latest reading of a run counts. */
 export const weather = pgTable('weather', {
   id: serial('id').primaryKey(),
-  runId: integer('run_id').notNull().references(() => runs.id),
+  runId: integer('run_id')
+    .notNull()
+    .references(() => runs.id),
   windSpeedMs: numeric('wind_speed_ms', { precision: 6, scale: 2 }).notNull(),
   windFromDeg: numeric('wind_from_deg', { precision: 6, scale: 2 }).notNull(),
   temperatureC: numeric('temperature_c', { precision: 5, scale: 1 }),
   pressureHpa: numeric('pressure_hpa', { precision: 6, scale: 1 }),
-  enteredBy: integer('entered_by').notNull().references(() => users.id),
+  enteredBy: integer('entered_by')
+    .notNull()
+    .references(() => users.id),
   enteredAt: timestamp('entered_at', { withTimezone: true }).notNull().defaultNow(),
 })
 
@@ -232,34 +358,46 @@ export const weather = pgTable('weather', {
  * One signing mechanism for everything signed: who, when, the typed name, and the SHA-256 of the
  * record's canonical content (kept beside it). PostgreSQL refuses UPDATE and DELETE of these rows.
  */
-export const signatures = pgTable('signatures', {
-  id: serial('id').primaryKey(),
-  kind: signedKind('kind').notNull(),
-  subjectId: integer('subject_id').notNull(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  signerId: integer('signer_id').notNull().references(() => users.id),
-  typedName: text('typed_name').notNull(),
-  content: jsonb('content').notNull(),
-  contentSha256: text('content_sha256').notNull(),
-  /** Why a signed record is superseded or reopened. */
-  reason: text('reason'),
-  /** A signature drawn on a canvas, as a PNG data URL, when the signer drew one. */
-  drawingPng: text('drawing_png'),
-  supersedesId: integer('supersedes_id'),
-  signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
-}, t => [
-  index('signatures_subject').on(t.kind, t.subjectId),
-  uniqueIndex('signatures_supersedes_once').on(t.supersedesId),
-])
+export const signatures = pgTable(
+  'signatures',
+  {
+    id: serial('id').primaryKey(),
+    kind: signedKind('kind').notNull(),
+    subjectId: integer('subject_id').notNull(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    signerId: integer('signer_id')
+      .notNull()
+      .references(() => users.id),
+    typedName: text('typed_name').notNull(),
+    content: jsonb('content').notNull(),
+    contentSha256: text('content_sha256').notNull(),
+    /** Why a signed record is superseded or reopened. */
+    reason: text('reason'),
+    /** A signature drawn on a canvas, as a PNG data URL, when the signer drew one. */
+    drawingPng: text('drawing_png'),
+    supersedesId: integer('supersedes_id'),
+    signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [
+    index('signatures_subject').on(t.kind, t.subjectId),
+    uniqueIndex('signatures_supersedes_once').on(t.supersedesId),
+  ],
+)
 
 /** An event's copy of a checklist template, adapted by the organiser; versions are kept. */
 export const checklists = pgTable('checklists', {
   id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
   baseId: text('base_id').notNull(),
   content: jsonb('content').$type<ChecklistTemplate>().notNull(),
   note: text('note').notNull().default(''),
-  createdBy: integer('created_by').notNull().references(() => users.id),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 })
 
@@ -267,107 +405,168 @@ export const checklists = pgTable('checklists', {
  * A technical inspection of an entry against the checklist version it used (kept in the row). A
  * re-inspection is a new row pointing at the previous one. Signed rows are immutable (trigger).
  */
-export const inspections = pgTable('inspections', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  entryId: integer('entry_id').notNull().references(() => entries.id),
-  checklist: jsonb('checklist').$type<ChecklistTemplate>().notNull(),
-  busVoltageV: numeric('bus_voltage_v', { precision: 7, scale: 1 }),
-  busKind: text('bus_kind'),
-  previousId: integer('previous_id'),
-  signatureId: integer('signature_id').references(() => signatures.id),
-  createdBy: integer('created_by').notNull().references(() => users.id),
-  createdAt: createdAt(),
-}, t => [index('inspections_entry').on(t.entryId)])
+export const inspections = pgTable(
+  'inspections',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    entryId: integer('entry_id')
+      .notNull()
+      .references(() => entries.id),
+    checklist: jsonb('checklist').$type<ChecklistTemplate>().notNull(),
+    busVoltageV: numeric('bus_voltage_v', { precision: 7, scale: 1 }),
+    busKind: text('bus_kind'),
+    previousId: integer('previous_id'),
+    signatureId: integer('signature_id').references(() => signatures.id),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+  },
+  t => [index('inspections_entry').on(t.entryId)],
+)
 
-export const inspectionAnswers = pgTable('inspection_answers', {
-  id: serial('id').primaryKey(),
-  inspectionId: integer('inspection_id').notNull().references(() => inspections.id),
-  itemKey: text('item_key').notNull(),
-  result: itemResult('result').notNull(),
-  /** A measurement in the item's unit; `enteredAs` keeps what was typed. */
-  value: numeric('value', { precision: 16, scale: 6 }),
-  enteredAs: text('entered_as'),
-  note: text('note'),
-  updatedBy: integer('updated_by').notNull().references(() => users.id),
-  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-}, t => [uniqueIndex('inspection_answers_item').on(t.inspectionId, t.itemKey)])
+export const inspectionAnswers = pgTable(
+  'inspection_answers',
+  {
+    id: serial('id').primaryKey(),
+    inspectionId: integer('inspection_id')
+      .notNull()
+      .references(() => inspections.id),
+    itemKey: text('item_key').notNull(),
+    result: itemResult('result').notNull(),
+    /** A measurement in the item's unit; `enteredAs` keeps what was typed. */
+    value: numeric('value', { precision: 16, scale: 6 }),
+    enteredAs: text('entered_as'),
+    note: text('note'),
+    updatedBy: integer('updated_by')
+      .notNull()
+      .references(() => users.id),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [uniqueIndex('inspection_answers_item').on(t.inspectionId, t.itemKey)],
+)
 
 /** An official's signed statement on an attempt; withdrawn only by a new signed statement. */
-export const statements = pgTable('witness_statements', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
-  authorId: integer('author_id').notNull().references(() => users.id),
-  runsSeen: text('runs_seen').notNull(),
-  position: text('position').notNull(),
-  conditions: text('conditions').notNull(),
-  irregularities: text('irregularities').notNull(),
-  /** For a withdrawal: the statement it withdraws and why. */
-  withdrawsId: integer('withdraws_id'),
-  reason: text('reason'),
-  signatureId: integer('signature_id').references(() => signatures.id),
-  createdAt: createdAt(),
-}, t => [uniqueIndex('statements_withdrawn_once').on(t.withdrawsId)])
+export const statements = pgTable(
+  'witness_statements',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    attemptId: integer('attempt_id')
+      .notNull()
+      .references(() => attempts.id),
+    authorId: integer('author_id')
+      .notNull()
+      .references(() => users.id),
+    runsSeen: text('runs_seen').notNull(),
+    position: text('position').notNull(),
+    conditions: text('conditions').notNull(),
+    irregularities: text('irregularities').notNull(),
+    /** For a withdrawal: the statement it withdraws and why. */
+    withdrawsId: integer('withdraws_id'),
+    reason: text('reason'),
+    signatureId: integer('signature_id').references(() => signatures.id),
+    createdAt: createdAt(),
+  },
+  t => [uniqueIndex('statements_withdrawn_once').on(t.withdrawsId)],
+)
 
 /**
  * A file of evidence, stored once by its SHA-256 (several rows may share one stored file), and
  * what it belongs to. A row is written only after its file is complete and in place.
  */
-export const evidence = pgTable('evidence', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  kind: evidenceKind('kind').notNull(),
-  originalName: text('original_name').notNull(),
-  mediaType: text('media_type').notNull(),
-  size: bigint('size', { mode: 'number' }).notNull(),
-  sha256: text('sha256').notNull(),
-  courseId: integer('course_id').references(() => courses.id),
-  timingSystemId: integer('timing_system_id').references(() => timingSystems.id),
-  entryId: integer('entry_id').references(() => entries.id),
-  attemptId: integer('attempt_id').references(() => attempts.id),
-  runId: integer('run_id').references(() => runs.id),
-  inspectionId: integer('inspection_id').references(() => inspections.id),
-  itemKey: text('item_key'),
-  uploadedBy: integer('uploaded_by').notNull().references(() => users.id),
-  uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
-}, t => [index('evidence_event').on(t.eventId), index('evidence_sha256').on(t.sha256)])
+export const evidence = pgTable(
+  'evidence',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    kind: evidenceKind('kind').notNull(),
+    originalName: text('original_name').notNull(),
+    mediaType: text('media_type').notNull(),
+    size: bigint('size', { mode: 'number' }).notNull(),
+    sha256: text('sha256').notNull(),
+    courseId: integer('course_id').references(() => courses.id),
+    timingSystemId: integer('timing_system_id').references(() => timingSystems.id),
+    entryId: integer('entry_id').references(() => entries.id),
+    attemptId: integer('attempt_id').references(() => attempts.id),
+    runId: integer('run_id').references(() => runs.id),
+    inspectionId: integer('inspection_id').references(() => inspections.id),
+    itemKey: text('item_key'),
+    uploadedBy: integer('uploaded_by')
+      .notNull()
+      .references(() => users.id),
+    uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [index('evidence_event').on(t.eventId), index('evidence_sha256').on(t.sha256)],
+)
 
 /**
  * A sealed dossier: the canonical manifest, its Ed25519 seal and the SHA-256 of the PDF issued.
  * Never changed (trigger); a new version supersedes it and both are kept.
  */
-export const dossiers = pgTable('dossiers', {
-  id: serial('id').primaryKey(),
-  eventId: integer('event_id').notNull().references(() => events.id),
-  attemptId: integer('attempt_id').notNull().references(() => attempts.id),
-  version: integer('version').notNull(),
-  manifest: jsonb('manifest').notNull(),
-  manifestSha256: text('manifest_sha256').notNull(),
-  seal: text('seal').notNull(),
-  keyFingerprint: text('key_fingerprint').notNull(),
-  pdfSha256: text('pdf_sha256').notNull(),
-  pdfSize: bigint('pdf_size', { mode: 'number' }).notNull(),
-  supersedesId: integer('supersedes_id'),
-  createdBy: integer('created_by').notNull().references(() => users.id),
-  createdAt: createdAt(),
-}, t => [uniqueIndex('dossiers_attempt_version').on(t.attemptId, t.version), index('dossiers_pdf_sha256').on(t.pdfSha256)])
+export const dossiers = pgTable(
+  'dossiers',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    attemptId: integer('attempt_id')
+      .notNull()
+      .references(() => attempts.id),
+    version: integer('version').notNull(),
+    manifest: jsonb('manifest').notNull(),
+    manifestSha256: text('manifest_sha256').notNull(),
+    seal: text('seal').notNull(),
+    keyFingerprint: text('key_fingerprint').notNull(),
+    pdfSha256: text('pdf_sha256').notNull(),
+    pdfSize: bigint('pdf_size', { mode: 'number' }).notNull(),
+    supersedesId: integer('supersedes_id'),
+    createdBy: integer('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+  },
+  t => [
+    uniqueIndex('dossiers_attempt_version').on(t.attemptId, t.version),
+    index('dossiers_pdf_sha256').on(t.pdfSha256),
+  ],
+)
 
 export const submissions = pgTable('submissions', {
   id: serial('id').primaryKey(),
-  dossierId: integer('dossier_id').notNull().references(() => dossiers.id).unique(),
-  submittedBy: integer('submitted_by').notNull().references(() => users.id),
+  dossierId: integer('dossier_id')
+    .notNull()
+    .references(() => dossiers.id)
+    .unique(),
+  submittedBy: integer('submitted_by')
+    .notNull()
+    .references(() => users.id),
   submittedAt: timestamp('submitted_at', { withTimezone: true }).notNull().defaultNow(),
 })
 
 /** The officials' decision on a submitted dossier, signed; one per dossier. */
 export const decisions = pgTable('decisions', {
   id: serial('id').primaryKey(),
-  dossierId: integer('dossier_id').notNull().references(() => dossiers.id).unique(),
+  dossierId: integer('dossier_id')
+    .notNull()
+    .references(() => dossiers.id)
+    .unique(),
   decision: decisionKind('decision').notNull(),
   reasons: text('reasons').notNull(),
-  signatureId: integer('signature_id').notNull().references(() => signatures.id),
-  decidedBy: integer('decided_by').notNull().references(() => users.id),
+  signatureId: integer('signature_id')
+    .notNull()
+    .references(() => signatures.id),
+  decidedBy: integer('decided_by')
+    .notNull()
+    .references(() => users.id),
   decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow(),
 })
 

@@ -43,7 +43,10 @@ export async function requireEventRole(
   const roles = rows.map(r => r.role)
   const teamIds = rows.flatMap(r => (r.teamId ? [r.teamId] : []))
   if (options.admin && user.isAdmin) {
-    const found = await useDb().select({ id: tables.events.id }).from(tables.events).where(eq(tables.events.id, eventId))
+    const found = await useDb()
+      .select({ id: tables.events.id })
+      .from(tables.events)
+      .where(eq(tables.events.id, eventId))
     if (found.length) return { user, eventId, roles, teamIds, asAdmin: true }
   }
   return gate({ user, eventId, roles, teamIds, asAdmin: false }, allowed, 'No such event')
@@ -52,7 +55,10 @@ export async function requireEventRole(
 function gate(access: EventAccess, allowed: readonly EventRole[] | 'any', notFound: string): EventAccess {
   if (!access.roles.length) throw createError({ statusCode: 404, statusMessage: notFound })
   if (allowed !== 'any' && !access.roles.some(r => allowed.includes(r))) {
-    throw createError({ statusCode: 403, statusMessage: `This needs the role of ${allowed.join(' or ')} at this event` })
+    throw createError({
+      statusCode: 403,
+      statusMessage: `This needs the role of ${allowed.join(' or ')} at this event`,
+    })
   }
   return access
 }
@@ -72,14 +78,26 @@ const OWNER = {
  * The same question for a record that belongs to an event (a run, an attempt, a reading) named by
  * the route's `id`: the user's roles at the record's event, found in one query; none is 404.
  */
-export async function requireRoleOn(event: H3Event, kind: keyof typeof OWNER, allowed: readonly EventRole[] | 'any'): Promise<EventAccess & { recordId: number }> {
+export async function requireRoleOn(
+  event: H3Event,
+  kind: keyof typeof OWNER,
+  allowed: readonly EventRole[] | 'any',
+): Promise<EventAccess & { recordId: number }> {
   const user = await requireUser(event)
   const { id } = validParams(event, idParams)
   const { rows } = await useDb().execute<{ event_id: number, role: EventRole, team_id: number | null }>(sql`
     select m.event_id, m.role, m.team_id from memberships m
     where m.user_id = ${user.id} and m.event_id = (${OWNER[kind]}${id})`)
-  const access = gate({
-    user, eventId: rows[0]?.event_id ?? 0, roles: rows.map(r => r.role), teamIds: rows.flatMap(r => (r.team_id ? [r.team_id] : [])), asAdmin: false,
-  }, allowed, `No such ${kind}`)
+  const access = gate(
+    {
+      user,
+      eventId: rows[0]?.event_id ?? 0,
+      roles: rows.map(r => r.role),
+      teamIds: rows.flatMap(r => (r.team_id ? [r.team_id] : [])),
+      asAdmin: false,
+    },
+    allowed,
+    `No such ${kind}`,
+  )
   return { ...access, recordId: id }
 }

@@ -1,10 +1,22 @@
 import { rm } from 'node:fs/promises'
 import { createReadStream } from 'node:fs'
 import type { Readable } from 'node:stream'
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  ListObjectsV2Command,
+  S3Client,
+} from '@aws-sdk/client-s3'
 import { Upload } from '@aws-sdk/lib-storage'
 
-export interface S3Options { endpoint?: string, region: string, bucket: string, accessKeyId: string, secretAccessKey: string }
+export interface S3Options {
+  endpoint?: string
+  region: string
+  bucket: string
+  accessKeyId: string
+  secretAccessKey: string
+}
 
 /** Evidence in an S3-compatible store, for several app servers; objects are keyed by SHA-256. */
 export class S3BlobStore {
@@ -39,7 +51,13 @@ export class S3BlobStore {
       if (!(await this.has(sha))) {
         await new Upload({
           client: this.client,
-          params: { Bucket: this.options.bucket, Key: this.key(sha), Body: createReadStream(tmpPath), ContentType: mediaType, ContentLength: size },
+          params: {
+            Bucket: this.options.bucket,
+            Key: this.key(sha),
+            Body: createReadStream(tmpPath),
+            ContentType: mediaType,
+            ContentLength: size,
+          },
           partSize: 16 * 1024 * 1024,
           queueSize: 2,
         }).done()
@@ -62,7 +80,9 @@ export class S3BlobStore {
   async* list() {
     let token: string | undefined
     do {
-      const page = await this.client.send(new ListObjectsV2Command({ Bucket: this.options.bucket, Prefix: 'evidence/', ContinuationToken: token }))
+      const page = await this.client.send(
+        new ListObjectsV2Command({ Bucket: this.options.bucket, Prefix: 'evidence/', ContinuationToken: token }),
+      )
       for (const o of page.Contents ?? []) if (o.Key) yield o.Key.slice('evidence/'.length)
       token = page.NextContinuationToken
     } while (token)

@@ -16,19 +16,35 @@ export interface BlobStore {
 
 export class LocalBlobStore implements BlobStore {
   constructor(private dir: string) {}
-  private path(sha: string) { return join(this.dir, sha.slice(0, 2), sha) }
-  async has(sha: string) { return stat(this.path(sha)).then(() => true, () => false) }
+  private path(sha: string) {
+    return join(this.dir, sha.slice(0, 2), sha)
+  }
+
+  async has(sha: string) {
+    return stat(this.path(sha)).then(
+      () => true,
+      () => false,
+    )
+  }
+
   async put(sha: string, tmpPath: string) {
     await mkdir(join(this.dir, sha.slice(0, 2)), { recursive: true })
     if (await this.has(sha)) await rm(tmpPath, { force: true })
     else await rename(tmpPath, this.path(sha)) // same file system: atomic, never a half file in place
   }
 
-  async open(sha: string) { return createReadStream(this.path(sha)) }
-  async remove(sha: string) { await rm(this.path(sha), { force: true }) }
+  async open(sha: string) {
+    return createReadStream(this.path(sha))
+  }
+
+  async remove(sha: string) {
+    await rm(this.path(sha), { force: true })
+  }
+
   async* list() {
     for (const d of await readdir(this.dir).catch(() => [] as string[])) {
-      for (const f of await readdir(join(this.dir, d)).catch(() => [] as string[])) if (/^[0-9a-f]{64}$/.test(f)) yield f
+      for (const f of await readdir(join(this.dir, d)).catch(() => [] as string[]))
+        if (/^[0-9a-f]{64}$/.test(f)) yield f
     }
   }
 }
@@ -45,9 +61,16 @@ export const uploadTmpDir = () => join(dataDir(), 'uploads-tmp')
 export function useBlobStore(): BlobStore {
   if (!store) {
     const { storage } = useRuntimeConfig()
-    store = storage.driver === 's3'
-      ? new S3BlobStore({ endpoint: storage.s3.endpoint, region: storage.s3.region, bucket: storage.s3.bucket, accessKeyId: storage.s3.accessKeyId, secretAccessKey: storage.s3.secretAccessKey })
-      : new LocalBlobStore(join(dataDir(), 'evidence'))
+    store
+      = storage.driver === 's3'
+        ? new S3BlobStore({
+            endpoint: storage.s3.endpoint,
+            region: storage.s3.region,
+            bucket: storage.s3.bucket,
+            accessKeyId: storage.s3.accessKeyId,
+            secretAccessKey: storage.s3.secretAccessKey,
+          })
+        : new LocalBlobStore(join(dataDir(), 'evidence'))
   }
   return store
 }

@@ -18,21 +18,42 @@ export function startDemoSeed() {
       }
       console.info(created ? '[trapline] demo scenario seeded' : '[trapline] demo scenario already present')
     })
-    .catch((error) => { console.error('[trapline] demo seed failed', error); throw error })
+    .catch((error) => {
+      console.error('[trapline] demo seed failed', error)
+      throw error
+    })
 }
 
 /** Both demo machines inspected and signed off by the demo scrutineer, through the same code as the app. */
 async function seedDemoInspections() {
-  const [scrutineer] = await useDb().select().from(tables.users).where(eq(tables.users.email, 'scrutineer@trapline.test'))
-  const entries = await useDb().select({ entry: tables.entries, machine: tables.machines }).from(tables.entries).innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
-  const measured: Record<string, [number, string]> = { 'isolation': [2.4, 'MΩ'], 'bonding': [0.03, 'Ω'], 'canopy-exit': [21, 's'] }
+  const [scrutineer] = await useDb()
+    .select()
+    .from(tables.users)
+    .where(eq(tables.users.email, 'scrutineer@trapline.test'))
+  const entries = await useDb()
+    .select({ entry: tables.entries, machine: tables.machines })
+    .from(tables.entries)
+    .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
+  const measured: Record<string, [number, string]> = {
+    'isolation': [2.4, 'MΩ'],
+    'bonding': [0.03, 'Ω'],
+    'canopy-exit': [21, 's'],
+  }
   for (const { entry, machine } of entries) {
-    const inspection = await startInspection(entry.eventId, { entryId: entry.id, baseId: 'electric-motorcycle' }, scrutineer!.id)
+    const inspection = await startInspection(
+      entry.eventId,
+      { entryId: entry.id, baseId: 'electric-motorcycle' },
+      scrutineer!.id,
+    )
     await setBus(inspection.id, { busVoltageV: 400, busKind: 'dc' })
     for (const item of allItems(inspection.checklist)) {
       const streamlined = machine.division === 'full'
-      if (item.key === 'canopy-exit' && !streamlined) { await answerItem(inspection.id, { itemKey: item.key, result: 'na', note: 'no canopy' }, scrutineer!.id); continue }
-      const [value, unit] = item.key === 'mass' ? [Number(machine.declaredMassKg) + 1.5, 'kg'] : measured[item.key] ?? []
+      if (item.key === 'canopy-exit' && !streamlined) {
+        await answerItem(inspection.id, { itemKey: item.key, result: 'na', note: 'no canopy' }, scrutineer!.id)
+        continue
+      }
+      const [value, unit]
+        = item.key === 'mass' ? [Number(machine.declaredMassKg) + 1.5, 'kg'] : (measured[item.key] ?? [])
       await answerItem(inspection.id, { itemKey: item.key, result: 'pass', value, unit }, scrutineer!.id)
     }
     await signInspection(inspection.id, { password: demo.password, typedName: scrutineer!.name }, scrutineer!)
@@ -47,7 +68,12 @@ async function demoPdf(title: string, lines: string[]) {
   const page = doc.addPage([420, 300])
   page.drawText(title, { x: 30, y: 250, size: 16, font })
   lines.forEach((l, i) => page.drawText(l, { x: 30, y: 215 - i * 18, size: 10, font }))
-  page.drawText('DEMO DOCUMENT - invented for the Trapline demo; certifies nothing.', { x: 30, y: 30, size: 8, font })
+  page.drawText('DEMO DOCUMENT - invented for the Trapline demo; certifies nothing.', {
+    x: 30,
+    y: 30,
+    size: 8,
+    font,
+  })
   doc.setCreationDate(new Date('2026-08-01T00:00:00Z'))
   doc.setModificationDate(new Date('2026-08-01T00:00:00Z'))
   return Buffer.from(await doc.save())
@@ -59,7 +85,13 @@ async function stage(bytes: Buffer, name: string): Promise<StagedFile> {
   await mkdir(uploadTmpDir(), { recursive: true })
   const path = `${uploadTmpDir()}/${randomUUID()}.part`
   await writeFile(path, bytes)
-  return { path, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex'), head: bytes.subarray(0, 4100), originalname: name }
+  return {
+    path,
+    size: bytes.length,
+    sha256: createHash('sha256').update(bytes).digest('hex'),
+    head: bytes.subarray(0, 4100),
+    originalname: name,
+  }
 }
 
 /**
@@ -69,26 +101,99 @@ async function stage(bytes: Buffer, name: string): Promise<StagedFile> {
  */
 async function seedDemoDossier() {
   const db = useDb()
-  const user = async (email: string) => (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
-  const [organiser, timekeeper, team, official, official2] = await Promise.all(['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)))
+  const user = async (email: string) =>
+    (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
+  const [organiser, timekeeper, team, official, official2] = await Promise.all(
+    ['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)),
+  )
   const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
-  const access = (u: typeof organiser, roles: ('organiser' | 'team')[], teamIds: number[] = []) => ({ user: { id: u!.id, email: u!.email, name: u!.name, isAdmin: false }, eventId: event!.id, roles, teamIds, asAdmin: false })
+  const access = (u: typeof organiser, roles: ('organiser' | 'team')[], teamIds: number[] = []) => ({
+    user: { id: u!.id, email: u!.email, name: u!.name, isAdmin: false },
+    eventId: event!.id,
+    roles,
+    teamIds,
+    asAdmin: false,
+  })
   const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
   const systems = await db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, event!.id))
-  const [ls] = await db.select({ entry: tables.entries, rider: tables.riders }).from(tables.entries).innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId)).orderBy(tables.entries.id).limit(1)
+  const [ls] = await db
+    .select({ entry: tables.entries, rider: tables.riders })
+    .from(tables.entries)
+    .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
+    .orderBy(tables.entries.id)
+    .limit(1)
   const [attempt] = await db.select().from(tables.attempts).where(eq(tables.attempts.entryId, ls!.entry.id))
 
-  const put = async (who: ReturnType<typeof access>, kind: 'survey-certificate' | 'calibration-certificate' | 'rider-licence', name: string, title: string, lines: string[], target: Record<string, number>) =>
-    commitEvidence(who, { kind, ...target }, await stage(await demoPdf(title, lines), name))
-  await put(access(organiser, ['organiser']), 'survey-certificate', 'north-course-survey.pdf', 'Course survey certificate (demo)', ['Tamsel Flat north course, traps M-in 3000.000 m to M-out 4609.344 m', 'Surveyed 2026-07-28, tolerance 10 mm'], { courseId: course!.id })
-  for (const s of systems) await put(access(organiser, ['organiser']), 'calibration-certificate', `${s.name.toLowerCase().replace(/\s+/g, '-')}-calibration.pdf`, `Calibration certificate (demo): ${s.name}`, [`Calibrated ${s.calibratedOn}, valid to ${s.calibrationExpires}`, `Resolution 1/${s.ticksPerSecond} s`], { timingSystemId: s.id })
-  await put(access(team, ['team'], [ls!.entry.teamId]), 'rider-licence', 'rider-licence.pdf', 'Rider licence (demo)', [`${ls!.rider.name}, licence ${ls!.rider.licenceNo}`, `Valid to ${ls!.rider.licenceExpires}`], { entryId: ls!.entry.id })
+  const put = async (
+    who: ReturnType<typeof access>,
+    kind: 'survey-certificate' | 'calibration-certificate' | 'rider-licence',
+    name: string,
+    title: string,
+    lines: string[],
+    target: Record<string, number>,
+  ) => commitEvidence(who, { kind, ...target }, await stage(await demoPdf(title, lines), name))
+  await put(
+    access(organiser, ['organiser']),
+    'survey-certificate',
+    'north-course-survey.pdf',
+    'Course survey certificate (demo)',
+    ['Tamsel Flat north course, traps M-in 3000.000 m to M-out 4609.344 m', 'Surveyed 2026-07-28, tolerance 10 mm'],
+    { courseId: course!.id },
+  )
+  for (const s of systems)
+    await put(
+      access(organiser, ['organiser']),
+      'calibration-certificate',
+      `${s.name.toLowerCase().replace(/\s+/g, '-')}-calibration.pdf`,
+      `Calibration certificate (demo): ${s.name}`,
+      [`Calibrated ${s.calibratedOn}, valid to ${s.calibrationExpires}`, `Resolution 1/${s.ticksPerSecond} s`],
+      { timingSystemId: s.id },
+    )
+  await put(
+    access(team, ['team'], [ls!.entry.teamId]),
+    'rider-licence',
+    'rider-licence.pdf',
+    'Rider licence (demo)',
+    [`${ls!.rider.name}, licence ${ls!.rider.licenceNo}`, `Valid to ${ls!.rider.licenceExpires}`],
+    { entryId: ls!.entry.id },
+  )
 
-  for (const [o, position] of [[official, 'beside the exit trap of the mile'], [official2, 'at the timing hut, with a view of the entry trap']] as const) {
-    await createStatement(event!.id, { attemptId: attempt!.id, runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)', position, conditions: 'dry surface, light wind from the south-south-west, clear sky', irregularities: '', password: demo.password, typedName: o!.name }, o!)
+  for (const [o, position] of [
+    [official, 'beside the exit trap of the mile'],
+    [official2, 'at the timing hut, with a view of the entry trap'],
+  ] as const) {
+    await createStatement(
+      event!.id,
+      {
+        attemptId: attempt!.id,
+        runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)',
+        position,
+        conditions: 'dry surface, light wind from the south-south-west, clear sky',
+        irregularities: '',
+        password: demo.password,
+        typedName: o!.name,
+      },
+      o!,
+    )
   }
-  await signTimingSheet({ eventId: event!.id, attemptId: attempt!.id, userId: timekeeper!.id, password: demo.password, typedName: timekeeper!.name })
+  await signTimingSheet({
+    eventId: event!.id,
+    attemptId: attempt!.id,
+    userId: timekeeper!.id,
+    password: demo.password,
+    typedName: timekeeper!.name,
+  })
   const dossier = await issueDossier(event!.id, attempt!.id, team!.id)
   await submitDossier(dossier.id, team!.id)
-  await decideDossier(dossier.id, { decision: 'ratified', reasons: 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, two statements.', password: demo.password, typedName: official!.name }, official!)
+  await decideDossier(
+    dossier.id,
+    {
+      decision: 'ratified',
+      reasons:
+        'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, two statements.',
+      password: demo.password,
+      typedName: official!.name,
+    },
+    official!,
+  )
 }

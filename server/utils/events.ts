@@ -9,8 +9,13 @@ export async function membershipsOf(userId: number) {
   const { memberships, events, teams } = tables
   return useDb()
     .select({
-      eventId: memberships.eventId, eventName: events.name, role: memberships.role,
-      teamId: memberships.teamId, teamName: teams.name, startsOn: events.startsOn, endsOn: events.endsOn,
+      eventId: memberships.eventId,
+      eventName: events.name,
+      role: memberships.role,
+      teamId: memberships.teamId,
+      teamName: teams.name,
+      startsOn: events.startsOn,
+      endsOn: events.endsOn,
     })
     .from(memberships)
     .innerJoin(events, eq(events.id, memberships.eventId))
@@ -22,13 +27,23 @@ export async function membershipsOf(userId: number) {
 /** Events this person holds a role at; a site administrator sees them all. */
 export async function listEventsFor(user: User) {
   const { events, memberships } = tables
-  const cols = { id: events.id, name: events.name, venue: events.venue, startsOn: events.startsOn, endsOn: events.endsOn, profileId: events.profileId }
+  const cols = {
+    id: events.id,
+    name: events.name,
+    venue: events.venue,
+    startsOn: events.startsOn,
+    endsOn: events.endsOn,
+    profileId: events.profileId,
+  }
   const db = useDb()
   if (user.isAdmin) {
-    return db.select({
-      ...cols,
-      organisers: sql<number>`(select count(*)::int from ${memberships} m where m.event_id = ${events.id} and m.role = 'organiser')`,
-    }).from(events).orderBy(asc(events.startsOn))
+    return db
+      .select({
+        ...cols,
+        organisers: sql<number>`(select count(*)::int from ${memberships} m where m.event_id = ${events.id} and m.role = 'organiser')`,
+      })
+      .from(events)
+      .orderBy(asc(events.startsOn))
   }
   const mine = db.select({ id: memberships.eventId }).from(memberships).where(eq(memberships.userId, user.id))
   return db.select(cols).from(events).where(inArray(events.id, mine)).orderBy(asc(events.startsOn))
@@ -36,10 +51,17 @@ export async function listEventsFor(user: User) {
 
 export async function createEventWithOrganiser(input: z.infer<typeof createEventSchema>, adminId: number) {
   const { organiserEmail, organiserName, ...fields } = input
-  const [created] = await useDb().insert(tables.events)
+  const [created] = await useDb()
+    .insert(tables.events)
     .values({ ...fields, profile: copyProfile(profiles[input.profileId]), createdBy: adminId })
     .returning()
-  await invitePerson({ eventId: created!.id, email: organiserEmail, name: organiserName, role: 'organiser', invitedBy: adminId })
+  await invitePerson({
+    eventId: created!.id,
+    email: organiserEmail,
+    name: organiserName,
+    role: 'organiser',
+    invitedBy: adminId,
+  })
   return created!
 }
 
@@ -50,15 +72,31 @@ export async function eventOverview(access: EventAccess) {
   const db = useDb()
   const { events, courses, traps, teams, machines, riders } = tables
   const [ev] = await db.select().from(events).where(eq(events.id, access.eventId))
-  const courseRows = await db.select().from(courses).where(eq(courses.eventId, access.eventId)).orderBy(asc(courses.id))
+  const courseRows = await db
+    .select()
+    .from(courses)
+    .where(eq(courses.eventId, access.eventId))
+    .orderBy(asc(courses.id))
   const trapRows = courseRows.length
-    ? await db.select().from(traps).where(inArray(traps.courseId, courseRows.map(c => c.id))).orderBy(asc(traps.positionM))
+    ? await db
+        .select()
+        .from(traps)
+        .where(
+          inArray(
+            traps.courseId,
+            courseRows.map(c => c.id),
+          ),
+        )
+        .orderBy(asc(traps.positionM))
     : []
   const teamRows = await db.select().from(teams).where(eq(teams.eventId, access.eventId)).orderBy(asc(teams.name))
   const teamIds = teamRows.map(t => t.id)
-  const machineRows = teamIds.length ? await db.select().from(machines).where(inArray(machines.teamId, teamIds)) : []
+  const machineRows = teamIds.length
+    ? await db.select().from(machines).where(inArray(machines.teamId, teamIds))
+    : []
   const riderRows = teamIds.length ? await db.select().from(riders).where(inArray(riders.teamId, teamIds)) : []
-  const seesLicences = (teamId: number) => access.asAdmin || access.roles.some(r => LICENCE_ROLES.has(r)) || access.teamIds.includes(teamId)
+  const seesLicences = (teamId: number) =>
+    access.asAdmin || access.roles.some(r => LICENCE_ROLES.has(r)) || access.teamIds.includes(teamId)
   return {
     event: ev!,
     myRoles: access.roles,
@@ -67,7 +105,9 @@ export async function eventOverview(access: EventAccess) {
     teams: teamRows.map(t => ({
       ...t,
       machines: machineRows.filter(m => m.teamId === t.id),
-      riders: riderRows.filter(r => r.teamId === t.id).map(r => (seesLicences(t.id) ? r : { ...r, licenceNo: null, licenceExpires: null })),
+      riders: riderRows
+        .filter(r => r.teamId === t.id)
+        .map(r => (seesLicences(t.id) ? r : { ...r, licenceNo: null, licenceExpires: null })),
     })),
   }
 }
@@ -76,8 +116,14 @@ export async function peopleAt(eventId: number) {
   const { memberships, users, teams } = tables
   return useDb()
     .select({
-      membershipId: memberships.id, userId: users.id, name: users.name, email: users.email, role: memberships.role,
-      teamName: teams.name, accepted: sql<boolean>`${users.passwordHash} is not null`, since: memberships.createdAt,
+      membershipId: memberships.id,
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      teamName: teams.name,
+      accepted: sql<boolean>`${users.passwordHash} is not null`,
+      since: memberships.createdAt,
     })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))

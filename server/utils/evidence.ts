@@ -19,12 +19,41 @@ async function targetTeams(eventId: number, f: Fields): Promise<number[] | null>
     return rows[0]!.team_id
   }
   const teams: number[] = []
-  if (f.courseId) await one('courseId', sql`select null::int as team_id from courses where id = ${f.courseId} and event_id = ${eventId}`)
-  if (f.timingSystemId) await one('timingSystemId', sql`select null::int as team_id from timing_systems where id = ${f.timingSystemId} and event_id = ${eventId}`)
-  if (f.entryId) teams.push((await one('entryId', sql`select team_id from entries where id = ${f.entryId} and event_id = ${eventId}`))!)
-  if (f.attemptId) teams.push((await one('attemptId', sql`select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = ${f.attemptId} and a.event_id = ${eventId}`))!)
-  if (f.runId) teams.push((await one('runId', sql`select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = ${f.runId} and r.event_id = ${eventId}`))!)
-  if (f.inspectionId) teams.push((await one('inspectionId', sql`select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = ${f.inspectionId} and i.event_id = ${eventId}`))!)
+  if (f.courseId)
+    await one(
+      'courseId',
+      sql`select null::int as team_id from courses where id = ${f.courseId} and event_id = ${eventId}`,
+    )
+  if (f.timingSystemId)
+    await one(
+      'timingSystemId',
+      sql`select null::int as team_id from timing_systems where id = ${f.timingSystemId} and event_id = ${eventId}`,
+    )
+  if (f.entryId)
+    teams.push(
+      (await one('entryId', sql`select team_id from entries where id = ${f.entryId} and event_id = ${eventId}`))!,
+    )
+  if (f.attemptId)
+    teams.push(
+      (await one(
+        'attemptId',
+        sql`select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = ${f.attemptId} and a.event_id = ${eventId}`,
+      ))!,
+    )
+  if (f.runId)
+    teams.push(
+      (await one(
+        'runId',
+        sql`select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = ${f.runId} and r.event_id = ${eventId}`,
+      ))!,
+    )
+  if (f.inspectionId)
+    teams.push(
+      (await one(
+        'inspectionId',
+        sql`select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = ${f.inspectionId} and i.event_id = ${eventId}`,
+      ))!,
+    )
   return teams.length ? teams : null
 }
 
@@ -41,7 +70,8 @@ export function evidenceGate(access: EventAccess) {
     }
     const teams = await targetTeams(access.eventId, r.data)
     if (teamOnly(access) && teams && !teams.every(t => access.teamIds.includes(t))) throw notFound()
-    if (teamOnly(access) && !teams) throw field('entryId', 'a team attaches evidence to its own entry, attempt or run')
+    if (teamOnly(access) && !teams)
+      throw field('entryId', 'a team attaches evidence to its own entry, attempt or run')
     return limitFor(r.data.kind)
   }
 }
@@ -64,7 +94,10 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
     const detected = await sniff(file.head)
     const rule = evidenceKinds[fields.kind as EvidenceKind]
     if (!detected || !rule.accepts.includes(detected)) {
-      throw field('file', `the content is ${detected ?? 'not a recognised type'}, not what a ${rule.label.toLowerCase()} may be (${rule.accepts.map(a => (a === TEXT ? 'text' : a)).join(', ')})`)
+      throw field(
+        'file',
+        `the content is ${detected ?? 'not a recognised type'}, not what a ${rule.label.toLowerCase()} may be (${rule.accepts.map(a => (a === TEXT ? 'text' : a)).join(', ')})`,
+      )
     }
     const mismatch = extensionMismatch(file.originalname, detected)
     if (mismatch) throw field('file', mismatch)
@@ -74,11 +107,25 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
       const existed = await store.has(file.sha256)
       if (!existed) await store.put(file.sha256, file.path, file.size, mediaType)
       try {
-        const [row] = await tx.insert(tables.evidence).values({
-          eventId: access.eventId, kind: fields.kind, originalName: file.originalname, mediaType, size: file.size, sha256: file.sha256,
-          courseId: fields.courseId, timingSystemId: fields.timingSystemId, entryId: fields.entryId, attemptId: fields.attemptId,
-          runId: fields.runId, inspectionId: fields.inspectionId, itemKey: fields.itemKey, uploadedBy: access.user.id,
-        }).returning()
+        const [row] = await tx
+          .insert(tables.evidence)
+          .values({
+            eventId: access.eventId,
+            kind: fields.kind,
+            originalName: file.originalname,
+            mediaType,
+            size: file.size,
+            sha256: file.sha256,
+            courseId: fields.courseId,
+            timingSystemId: fields.timingSystemId,
+            entryId: fields.entryId,
+            attemptId: fields.attemptId,
+            runId: fields.runId,
+            inspectionId: fields.inspectionId,
+            itemKey: fields.itemKey,
+            uploadedBy: access.user.id,
+          })
+          .returning()
         return { ...row!, storedBefore: existed }
       }
       catch (e) {
@@ -95,7 +142,10 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
 const rmStaged = (path: string) => import('node:fs/promises').then(fs => fs.rm(path, { force: true }))
 
 /** Evidence at an event as this person may see it: a team sees its own and the event-level files. */
-export async function listEvidence(access: EventAccess, filter: { kind?: EvidenceKind, attemptId?: number, runId?: number, entryId?: number }) {
+export async function listEvidence(
+  access: EventAccess,
+  filter: { kind?: EvidenceKind, attemptId?: number, runId?: number, entryId?: number },
+) {
   const { rows } = await useDb().execute<Record<string, unknown>>(sql`
     select x.*, u.name as uploaded_by_name, ${teamSql} as team_id
     from evidence x join users u on u.id = x.uploaded_by
@@ -105,7 +155,9 @@ export async function listEvidence(access: EventAccess, filter: { kind?: Evidenc
       ${filter.runId ? sql`and x.run_id = ${filter.runId}` : sql``}
       ${filter.entryId ? sql`and x.entry_id = ${filter.entryId}` : sql``}
     order by x.id desc`)
-  return rows.filter(r => !teamOnly(access) || r.team_id === null || access.teamIds.includes(r.team_id as number)).map(camel)
+  return rows
+    .filter(r => !teamOnly(access) || r.team_id === null || access.teamIds.includes(r.team_id as number))
+    .map(camel)
 }
 
 const teamSql = sql`coalesce(
@@ -114,10 +166,28 @@ const teamSql = sql`coalesce(
   (select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = x.run_id),
   (select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = x.inspection_id))`
 
-const camel = (r: Record<string, unknown>) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase()), v])) as {
-  id: number; eventId: number; kind: EvidenceKind; originalName: string; mediaType: string; size: string | number; sha256: string; uploadedByName: string; uploadedAt: string; teamId: number | null
-  courseId: number | null; timingSystemId: number | null; entryId: number | null; attemptId: number | null; runId: number | null; inspectionId: number | null; itemKey: string | null
-}
+const camel = (r: Record<string, unknown>) =>
+  Object.fromEntries(
+    Object.entries(r).map(([k, v]) => [k.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase()), v]),
+  ) as {
+    id: number
+    eventId: number
+    kind: EvidenceKind
+    originalName: string
+    mediaType: string
+    size: string | number
+    sha256: string
+    uploadedByName: string
+    uploadedAt: string
+    teamId: number | null
+    courseId: number | null
+    timingSystemId: number | null
+    entryId: number | null
+    attemptId: number | null
+    runId: number | null
+    inspectionId: number | null
+    itemKey: string | null
+  }
 
 /** One piece of evidence by id or by hash within an event, as this person may see it; else 404. */
 export async function findEvidence(access: EventAccess, by: { id?: number, sha256?: string }) {

@@ -1,5 +1,12 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm'
-import { checkMeasurement, clears, missingItems, toItemUnit, allItems, type Answer } from '#shared/inspection/evaluate'
+import {
+  checkMeasurement,
+  clears,
+  missingItems,
+  toItemUnit,
+  allItems,
+  type Answer,
+} from '#shared/inspection/evaluate'
 import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
@@ -12,40 +19,78 @@ async function loadInspection(id: number) {
   return row
 }
 
-const answersOf = async (ids: number[]) => (ids.length
-  ? useDb().select().from(tables.inspectionAnswers).where(inArray(tables.inspectionAnswers.inspectionId, ids))
-  : [])
+const answersOf = async (ids: number[]) =>
+  ids.length
+    ? useDb().select().from(tables.inspectionAnswers).where(inArray(tables.inspectionAnswers.inspectionId, ids))
+    : []
 
 const asAnswers = (rows: (typeof tables.inspectionAnswers.$inferSelect)[]): Answer[] =>
-  rows.map(r => ({ itemKey: r.itemKey, result: r.result, value: r.value === null ? null : Number(r.value), note: r.note }))
+  rows.map(r => ({
+    itemKey: r.itemKey,
+    result: r.result,
+    value: r.value === null ? null : Number(r.value),
+    note: r.note,
+  }))
 
 /** The organiser's adapted copy of a library checklist, with a new version for the event. */
-export async function adaptChecklist(eventId: number, input: { baseId: string, removeItems: string[], addItems: { section: string, label: string }[], note: string }, userId: number) {
+export async function adaptChecklist(
+  eventId: number,
+  input: { baseId: string, removeItems: string[], addItems: { section: string, label: string }[], note: string },
+  userId: number,
+) {
   const base = checklistLibrary[input.baseId as ChecklistId]
   const known = new Set(allItems(base).map(i => i.key))
   const unknown = input.removeItems.filter(k => !known.has(k))
   if (unknown.length) throw fieldError('removeItems', `no such item: ${unknown.join(', ')}`)
-  const [{ n }] = await useDb().select({ n: sql<number>`count(*)::int` }).from(tables.checklists).where(and(eq(tables.checklists.eventId, eventId), eq(tables.checklists.baseId, base.id))) as [{ n: number }]
+  const [{ n }] = (await useDb()
+    .select({ n: sql<number>`count(*)::int` })
+    .from(tables.checklists)
+    .where(and(eq(tables.checklists.eventId, eventId), eq(tables.checklists.baseId, base.id)))) as [{ n: number }]
   const content: ChecklistTemplate = structuredClone(base)
   content.version = base.version + n + 1
   content.name = `${base.name} (adapted)`
-  content.sections = content.sections.map(s => ({ ...s, items: s.items.filter(i => !input.removeItems.includes(i.key)) }))
+  content.sections = content.sections.map(s => ({
+    ...s,
+    items: s.items.filter(i => !input.removeItems.includes(i.key)),
+  }))
   input.addItems.forEach((add, i) => {
     let section = content.sections.find(s => s.title === add.section)
-    if (!section) { section = { title: add.section, items: [] }; content.sections.push(section) }
-    section.items.push({ key: `added-${i + 1}`, label: add.label, kind: 'check', source: `added by the organiser: ${input.note}`, certainty: 'seen' })
+    if (!section) {
+      section = { title: add.section, items: [] }
+      content.sections.push(section)
+    }
+    section.items.push({
+      key: `added-${i + 1}`,
+      label: add.label,
+      kind: 'check',
+      source: `added by the organiser: ${input.note}`,
+      certainty: 'seen',
+    })
   })
-  const [row] = await useDb().insert(tables.checklists).values({ eventId, baseId: base.id, content, note: input.note, createdBy: userId }).returning()
+  const [row] = await useDb()
+    .insert(tables.checklists)
+    .values({ eventId, baseId: base.id, content, note: input.note, createdBy: userId })
+    .returning()
   return row!
 }
 
-export async function startInspection(eventId: number, input: { entryId: number, checklistId?: number, baseId?: string }, userId: number) {
+export async function startInspection(
+  eventId: number,
+  input: { entryId: number, checklistId?: number, baseId?: string },
+  userId: number,
+) {
   const db = useDb()
-  const [entry] = await db.select().from(tables.entries).where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId)))
+  const [entry] = await db
+    .select()
+    .from(tables.entries)
+    .where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId)))
   if (!entry) throw fieldError('entryId', 'is not an entry of this event')
   let checklist: ChecklistTemplate
   if (input.checklistId) {
-    const [c] = await db.select().from(tables.checklists).where(and(eq(tables.checklists.id, input.checklistId), eq(tables.checklists.eventId, eventId)))
+    const [c] = await db
+      .select()
+      .from(tables.checklists)
+      .where(and(eq(tables.checklists.id, input.checklistId), eq(tables.checklists.eventId, eventId)))
     if (!c) throw fieldError('checklistId', 'is not a checklist of this event')
     checklist = c.content
   }
@@ -53,45 +98,98 @@ export async function startInspection(eventId: number, input: { entryId: number,
     checklist = checklistLibrary[input.baseId as ChecklistId]
   }
   return db.transaction(async (tx) => {
-    const [previous] = await tx.select().from(tables.inspections).where(eq(tables.inspections.entryId, entry.id)).orderBy(desc(tables.inspections.id)).limit(1).for('update')
-    if (previous && !previous.signatureId) throw createError({ statusCode: 409, statusMessage: 'This entry already has an inspection in progress', data: { inspectionId: previous.id } })
-    const [row] = await tx.insert(tables.inspections).values({ eventId, entryId: entry.id, checklist, previousId: previous?.id ?? null, createdBy: userId }).returning()
+    const [previous] = await tx
+      .select()
+      .from(tables.inspections)
+      .where(eq(tables.inspections.entryId, entry.id))
+      .orderBy(desc(tables.inspections.id))
+      .limit(1)
+      .for('update')
+    if (previous && !previous.signatureId)
+      throw createError({
+        statusCode: 409,
+        statusMessage: 'This entry already has an inspection in progress',
+        data: { inspectionId: previous.id },
+      })
+    const [row] = await tx
+      .insert(tables.inspections)
+      .values({ eventId, entryId: entry.id, checklist, previousId: previous?.id ?? null, createdBy: userId })
+      .returning()
     return row!
   })
 }
 
 /** Records one item's result; a measurement is converted to the item's unit and checked. */
-export async function answerItem(inspectionId: number, input: { itemKey: string, result: 'pass' | 'fail' | 'na', value?: number, unit?: string, note?: string }, userId: number) {
+export async function answerItem(
+  inspectionId: number,
+  input: { itemKey: string, result: 'pass' | 'fail' | 'na', value?: number, unit?: string, note?: string },
+  userId: number,
+) {
   const inspection = await loadInspection(inspectionId)
-  if (inspection.signatureId) throw createError({ statusCode: 409, statusMessage: 'This inspection is signed; a re-inspection is a new inspection' })
+  if (inspection.signatureId)
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'This inspection is signed; a re-inspection is a new inspection',
+    })
   const item = allItems(inspection.checklist).find(i => i.key === input.itemKey)
   if (!item) throw fieldError('itemKey', 'is not an item of this checklist')
-  if (input.result === 'na' && !item.allowNotApplicable) throw fieldError('result', 'this item cannot be marked not applicable')
+  if (input.result === 'na' && !item.allowNotApplicable)
+    throw fieldError('result', 'this item cannot be marked not applicable')
   let value: number | null = null
   if (item.kind === 'measure' && input.result !== 'na') {
     if (input.value === undefined) throw fieldError('value', `enter the measurement in ${item.unit}`)
-    try { value = toItemUnit(item, input.value, input.unit ?? item.unit!) }
-    catch (e) { throw fieldError('unit', (e as Error).message) }
+    try {
+      value = toItemUnit(item, input.value, input.unit ?? item.unit!)
+    }
+    catch (e) {
+      throw fieldError('unit', (e as Error).message)
+    }
   }
-  const verdict = checkMeasurement(item, value, { busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null, busKind: inspection.busKind as 'dc' | 'ac' | null })
-  const values = { inspectionId, itemKey: item.key, result: input.result, value: value === null ? null : String(value), enteredAs: input.value === undefined ? null : `${input.value} ${input.unit ?? item.unit}`, note: input.note ?? null, updatedBy: userId, updatedAt: new Date() }
-  const [row] = await useDb().insert(tables.inspectionAnswers).values(values)
-    .onConflictDoUpdate({ target: [tables.inspectionAnswers.inspectionId, tables.inspectionAnswers.itemKey], set: values })
+  const verdict = checkMeasurement(item, value, {
+    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
+    busKind: inspection.busKind as 'dc' | 'ac' | null,
+  })
+  const values = {
+    inspectionId,
+    itemKey: item.key,
+    result: input.result,
+    value: value === null ? null : String(value),
+    enteredAs: input.value === undefined ? null : `${input.value} ${input.unit ?? item.unit}`,
+    note: input.note ?? null,
+    updatedBy: userId,
+    updatedAt: new Date(),
+  }
+  const [row] = await useDb()
+    .insert(tables.inspectionAnswers)
+    .values(values)
+    .onConflictDoUpdate({
+      target: [tables.inspectionAnswers.inspectionId, tables.inspectionAnswers.itemKey],
+      set: values,
+    })
     .returning()
   return { answer: row!, verdict }
 }
 
 export async function setBus(inspectionId: number, bus: { busVoltageV: number, busKind: 'dc' | 'ac' }) {
   const inspection = await loadInspection(inspectionId)
-  if (inspection.signatureId) throw createError({ statusCode: 409, statusMessage: 'This inspection is signed; a re-inspection is a new inspection' })
-  const [row] = await useDb().update(tables.inspections).set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind }).where(eq(tables.inspections.id, inspectionId)).returning()
+  if (inspection.signatureId)
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'This inspection is signed; a re-inspection is a new inspection',
+    })
+  const [row] = await useDb()
+    .update(tables.inspections)
+    .set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind })
+    .where(eq(tables.inspections.id, inspectionId))
+    .returning()
   return row!
 }
 
 /** The canonical content an inspection signature covers. */
 export async function inspectionContent(inspectionId: number) {
   const inspection = await loadInspection(inspectionId)
-  const [entry] = await useDb().select({ entry: tables.entries, machine: tables.machines, rider: tables.riders, team: tables.teams.name })
+  const [entry] = await useDb()
+    .select({ entry: tables.entries, machine: tables.machines, rider: tables.riders, team: tables.teams.name })
     .from(tables.entries)
     .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
     .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
@@ -101,28 +199,62 @@ export async function inspectionContent(inspectionId: number) {
   return {
     inspection: inspection.id,
     previous: inspection.previousId,
-    entry: { id: entry!.entry.id, team: entry!.team, machine: entry!.machine.name, power: entry!.machine.power, declaredMassKg: entry!.machine.declaredMassKg, rider: entry!.rider.name, className: entry!.entry.className },
+    entry: {
+      id: entry!.entry.id,
+      team: entry!.team,
+      machine: entry!.machine.name,
+      power: entry!.machine.power,
+      declaredMassKg: entry!.machine.declaredMassKg,
+      rider: entry!.rider.name,
+      className: entry!.entry.className,
+    },
     checklist: inspection.checklist,
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
-    answers: answers.map(a => ({ item: a.itemKey, result: a.result, value: a.value, enteredAs: a.enteredAs, note: a.note })),
+    answers: answers.map(a => ({
+      item: a.itemKey,
+      result: a.result,
+      value: a.value,
+      enteredAs: a.enteredAs,
+      note: a.note,
+    })),
   }
 }
 
-export async function signInspection(inspectionId: number, input: { password: string, typedName: string, drawingPng?: string }, user: { id: number }) {
+export async function signInspection(
+  inspectionId: number,
+  input: { password: string, typedName: string, drawingPng?: string },
+  user: { id: number },
+) {
   await assertPassword(user.id, input.password)
   const inspection = await loadInspection(inspectionId)
   const missing = missingItems(inspection.checklist, asAnswers(await answersOf([inspectionId])))
   if (missing.length) {
     throw createError({
-      statusCode: 422, statusMessage: 'Invalid input', message: `items: not answered: ${missing.map(m => m.label).join('; ')}`,
-      data: { issues: [{ path: 'items', message: `not answered: ${missing.map(m => m.label).join('; ')}` }], missing: missing.map(m => m.key) },
+      statusCode: 422,
+      statusMessage: 'Invalid input',
+      message: `items: not answered: ${missing.map(m => m.label).join('; ')}`,
+      data: {
+        issues: [{ path: 'items', message: `not answered: ${missing.map(m => m.label).join('; ')}` }],
+        missing: missing.map(m => m.key),
+      },
     })
   }
   const content = await inspectionContent(inspectionId)
   return useDb().transaction(async (tx) => {
-    const locked = await tx.execute<{ signature_id: number | null }>(sql`select signature_id from inspections where id = ${inspectionId} for update`)
-    if (locked.rows[0]?.signature_id) throw createError({ statusCode: 409, statusMessage: 'This inspection is already signed' })
-    const sig = await insertSignature(tx, { kind: 'inspection', subjectId: inspectionId, eventId: inspection.eventId, signerId: user.id, typedName: input.typedName, content, drawingPng: input.drawingPng })
+    const locked = await tx.execute<{ signature_id: number | null }>(
+      sql`select signature_id from inspections where id = ${inspectionId} for update`,
+    )
+    if (locked.rows[0]?.signature_id)
+      throw createError({ statusCode: 409, statusMessage: 'This inspection is already signed' })
+    const sig = await insertSignature(tx, {
+      kind: 'inspection',
+      subjectId: inspectionId,
+      eventId: inspection.eventId,
+      signerId: user.id,
+      typedName: input.typedName,
+      content,
+      drawingPng: input.drawingPng,
+    })
     await tx.update(tables.inspections).set({ signatureId: sig.id }).where(eq(tables.inspections.id, inspectionId))
     return { id: sig.id, sha256: sig.contentSha256, signedAt: sig.signedAt }
   })
@@ -132,13 +264,22 @@ export async function signInspection(inspectionId: number, input: { password: st
 export async function clearanceOf(entryIds: number[]) {
   const out = new Map<number, { cleared: boolean, why: string, inspectionId: number | null }>()
   if (!entryIds.length) return out
-  const latest = await useDb().selectDistinctOn([tables.inspections.entryId]).from(tables.inspections)
-    .where(inArray(tables.inspections.entryId, entryIds)).orderBy(tables.inspections.entryId, desc(tables.inspections.id))
+  const latest = await useDb()
+    .selectDistinctOn([tables.inspections.entryId])
+    .from(tables.inspections)
+    .where(inArray(tables.inspections.entryId, entryIds))
+    .orderBy(tables.inspections.entryId, desc(tables.inspections.id))
   const answers = await answersOf(latest.map(l => l.id))
   for (const id of entryIds) {
     const ins = latest.find(l => l.entryId === id)
-    if (!ins) { out.set(id, { cleared: false, why: 'no technical inspection yet', inspectionId: null }); continue }
-    out.set(id, { ...clears(ins.checklist, asAnswers(answers.filter(a => a.inspectionId === ins.id)), !!ins.signatureId), inspectionId: ins.id })
+    if (!ins) {
+      out.set(id, { cleared: false, why: 'no technical inspection yet', inspectionId: null })
+      continue
+    }
+    out.set(id, {
+      ...clears(ins.checklist, asAnswers(answers.filter(a => a.inspectionId === ins.id)), !!ins.signatureId),
+      inspectionId: ins.id,
+    })
   }
   return out
 }
@@ -147,21 +288,47 @@ export async function clearanceOf(entryIds: number[]) {
 export async function inspectionView(inspectionId: number) {
   const inspection = await loadInspection(inspectionId)
   const answers = await answersOf([inspectionId])
-  const bus = { busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null, busKind: inspection.busKind as 'dc' | 'ac' | null }
-  const [event] = await useDb().select({ profile: tables.events.profile }).from(tables.events).where(eq(tables.events.id, inspection.eventId))
+  const bus = {
+    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
+    busKind: inspection.busKind as 'dc' | 'ac' | null,
+  }
+  const [event] = await useDb()
+    .select({ profile: tables.events.profile })
+    .from(tables.events)
+    .where(eq(tables.events.id, inspection.eventId))
   const mass = answers.find(a => a.itemKey === 'mass')
   const klass = mass?.value ? massClass(event!.profile.massClasses.value, Number(mass.value)) : null
   const signature = inspection.signatureId
-    ? (await useDb().select({ id: tables.signatures.id, typedName: tables.signatures.typedName, at: tables.signatures.signedAt, sha256: tables.signatures.contentSha256, by: tables.users.name })
-        .from(tables.signatures).innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId)).where(eq(tables.signatures.id, inspection.signatureId)))[0]
+    ? (
+        await useDb()
+          .select({
+            id: tables.signatures.id,
+            typedName: tables.signatures.typedName,
+            at: tables.signatures.signedAt,
+            sha256: tables.signatures.contentSha256,
+            by: tables.users.name,
+          })
+          .from(tables.signatures)
+          .innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId))
+          .where(eq(tables.signatures.id, inspection.signatureId))
+      )[0]
     : null
   const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId)
   return {
     inspection,
-    answers: answers.map(a => ({ ...a, verdict: checkMeasurement(allItems(inspection.checklist).find(i => i.key === a.itemKey)!, a.value === null ? null : Number(a.value), bus) })),
+    answers: answers.map(a => ({
+      ...a,
+      verdict: checkMeasurement(
+        allItems(inspection.checklist).find(i => i.key === a.itemKey)!,
+        a.value === null ? null : Number(a.value),
+        bus,
+      ),
+    })),
     missing: missingItems(inspection.checklist, asAnswers(answers)).map(i => i.key),
     massClass: klass?.label ?? null,
-    massClassNote: event!.profile.massClasses.value ? null : `the profile in force defines no mass classes (${event!.profile.massClasses.source})`,
+    massClassNote: event!.profile.massClasses.value
+      ? null
+      : `the profile in force defines no mass classes (${event!.profile.massClasses.source})`,
     signature,
     clearance,
   }

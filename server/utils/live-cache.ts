@@ -8,7 +8,10 @@ const MAX_EVENTS = 64
 
 /** The version tag of an event's live results, for ETag revalidation without computing anything. */
 export async function liveResultsTag(eventId: number) {
-  const [row] = await useDb().select({ version: tables.events.dataVersion }).from(tables.events).where(eq(tables.events.id, eventId))
+  const [row] = await useDb()
+    .select({ version: tables.events.dataVersion })
+    .from(tables.events)
+    .where(eq(tables.events.id, eventId))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'No such event' })
   return { version: row.version, etag: `"live-${eventId}-${row.version}"` }
 }
@@ -20,6 +23,8 @@ export async function liveResultsJson(eventId: number, version: number): Promise
   cache.delete(eventId)
   cache.set(eventId, { version, json })
   if (cache.size > MAX_EVENTS) cache.delete(cache.keys().next().value!)
-  json.catch(() => { if (cache.get(eventId)?.json === json) cache.delete(eventId) })
+  json.catch(() => {
+    if (cache.get(eventId)?.json === json) cache.delete(eventId)
+  })
   return json
 }

@@ -9,13 +9,18 @@ export async function assertLoginAllowed(email: string) {
   const [row] = await useDb()
     .select({ failures: count(), oldest: sql<string>`min(${loginAttempts.at})` })
     .from(loginAttempts)
-    .where(and(
-      eq(loginAttempts.email, email),
-      eq(loginAttempts.succeeded, false),
-      gt(loginAttempts.at, sql`now() - make_interval(mins => ${LOGIN_WINDOW_MIN})`),
-    ))
+    .where(
+      and(
+        eq(loginAttempts.email, email),
+        eq(loginAttempts.succeeded, false),
+        gt(loginAttempts.at, sql`now() - make_interval(mins => ${LOGIN_WINDOW_MIN})`),
+      ),
+    )
   if ((row?.failures ?? 0) >= LOGIN_MAX_FAILURES) {
-    const retryS = Math.max(1, Math.ceil((new Date(row!.oldest).getTime() + LOGIN_WINDOW_MIN * 60_000 - Date.now()) / 1000))
+    const retryS = Math.max(
+      1,
+      Math.ceil((new Date(row!.oldest).getTime() + LOGIN_WINDOW_MIN * 60_000 - Date.now()) / 1000),
+    )
     throw createError({
       statusCode: 429,
       statusMessage: 'Too many failed sign-ins',

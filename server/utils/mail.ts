@@ -12,6 +12,11 @@ export interface OutgoingMail {
 /** Sends through the SMTP server in runtimeConfig (the local mail catcher in the demo and tests). */
 export async function sendMail(mail: OutgoingMail) {
   const { mail: cfg } = useRuntimeConfig()
-  transport ??= nodemailer.createTransport({ host: cfg.host, port: Number(cfg.port), secure: false, ignoreTLS: true })
+  transport ??= nodemailer.createTransport({
+    host: cfg.host,
+    port: Number(cfg.port),
+    secure: false,
+    ignoreTLS: true,
+  })
   await transport.sendMail({ from: cfg.from, ...mail })
 }

@@ -26,15 +26,22 @@ export async function invitePerson(inv: Invitation) {
     let teamId: number | null = null
     if (inv.role === 'team' && inv.teamName) {
       await tx.insert(teams).values({ eventId: inv.eventId, name: inv.teamName }).onConflictDoNothing()
-      const [team] = await tx.select({ id: teams.id }).from(teams).where(and(eq(teams.eventId, inv.eventId), eq(teams.name, inv.teamName)))
+      const [team] = await tx
+        .select({ id: teams.id })
+        .from(teams)
+        .where(and(eq(teams.eventId, inv.eventId), eq(teams.name, inv.teamName)))
       teamId = team!.id
     }
-    const inserted = await tx.insert(memberships)
+    const inserted = await tx
+      .insert(memberships)
       .values({ eventId: inv.eventId, userId: user!.id, role: inv.role, teamId, invitedBy: inv.invitedBy })
       .onConflictDoNothing()
       .returning({ id: memberships.id })
     if (!inserted.length) {
-      throw createError({ statusCode: 409, statusMessage: `${inv.email} already holds the role of ${inv.role} at this event` })
+      throw createError({
+        statusCode: 409,
+        statusMessage: `${inv.email} already holds the role of ${inv.role} at this event`,
+      })
     }
     return { user: user!, membershipId: inserted[0]!.id, eventName: event.name }
   })
@@ -45,7 +52,8 @@ export async function invitePerson(inv: Invitation) {
     await sendMail({
       to: inv.email,
       subject: `Trapline: you are invited as ${role} at ${result.eventName}`,
-      text: `Hello ${result.user.name},\n\nYou have been invited to ${result.eventName} on Trapline as ${role}.\n`
+      text:
+        `Hello ${result.user.name},\n\nYou have been invited to ${result.eventName} on Trapline as ${role}.\n`
         + `Set your password with this link (valid for 7 days, usable once):\n\n${linkFor(token)}\n`,
     })
   }

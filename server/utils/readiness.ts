@@ -1,7 +1,13 @@
 import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
 
-export interface ReadinessItem { key: string, label: string, met: boolean, detail: string, fix: string }
+export interface ReadinessItem {
+  key: string
+  label: string
+  met: boolean
+  detail: string
+  fix: string
+}
 
 /**
  * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
@@ -18,44 +24,109 @@ export async function readinessOf(eventId: number, attemptId: number) {
   const counted = live.runs.filter(r => r.counted)
   const runDays = counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone))
   const evidence = await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId))
-  const statements = (await statementsAt(eventId, null)).filter(s => s.attemptId === attemptId && !s.withdrawsId && !s.withdrawnBy)
+  const statements = (await statementsAt(eventId, null)).filter(
+    s => s.attemptId === attemptId && !s.withdrawsId && !s.withdrawnBy,
+  )
   const clearance = (await clearanceOf([entry.entry.id])).get(entry.entry.id)!
   const needed = attempt.profile.witnessStatements.value
   const failing = live.findings.filter(f => f.severity === 'fail')
   const items: ReadinessItem[] = [
     {
-      key: 'pair', label: 'A valid pair of runs under the profile', fix: `${at}/live`,
+      key: 'pair',
+      label: 'A valid pair of runs under the profile',
+      fix: `${at}/live`,
       met: !!live.result && counted.length === 2 && failing.length === 0,
-      detail: live.result ? (failing.length ? failing.map(f => f.message).join(' ') : `${live.result.kmh} km/h, ${live.window?.rule}`) : `${counted.length} complete run(s) so far`,
+      detail: live.result
+        ? failing.length
+          ? failing.map(f => f.message).join(' ')
+          : `${live.result.kmh} km/h, ${live.window?.rule}`
+        : `${counted.length} complete run(s) so far`,
     },
-    { key: 'timing-sheet', label: 'The signed timing sheet', fix: `${at}/run-sheet`, met: live.sheet.locked, detail: live.sheet.locked ? `signed by ${live.sheet.latest?.typedName}` : 'not signed' },
-    { key: 'inspection', label: 'A signed inspection that cleared the machine', fix: `${at}/inspections`, met: clearance.cleared, detail: clearance.why },
-    { key: 'statements', label: `${needed} signed witness statement(s)`, fix: `${at}/statements`, met: statements.length >= needed, detail: `${statements.length} signed, not withdrawn` },
+    {
+      key: 'timing-sheet',
+      label: 'The signed timing sheet',
+      fix: `${at}/run-sheet`,
+      met: live.sheet.locked,
+      detail: live.sheet.locked ? `signed by ${live.sheet.latest?.typedName}` : 'not signed',
+    },
+    {
+      key: 'inspection',
+      label: 'A signed inspection that cleared the machine',
+      fix: `${at}/inspections`,
+      met: clearance.cleared,
+      detail: clearance.why,
+    },
+    {
+      key: 'statements',
+      label: `${needed} signed witness statement(s)`,
+      fix: `${at}/statements`,
+      met: statements.length >= needed,
+      detail: `${statements.length} signed, not withdrawn`,
+    },
   ]
   const survey = evidence.find(e => e.kind === 'survey-certificate' && e.courseId === distance.courseId)
-  items.push({ key: 'survey', label: 'The course survey certificate', fix: `${at}/evidence?kind=survey-certificate&target=courseId:${distance.courseId}`, met: !!survey, detail: survey ? survey.originalName : 'not attached to the course' })
+  items.push({
+    key: 'survey',
+    label: 'The course survey certificate',
+    fix: `${at}/evidence?kind=survey-certificate&target=courseId:${distance.courseId}`,
+    met: !!survey,
+    detail: survey ? survey.originalName : 'not attached to the course',
+  })
   for (const s of day.systems) {
     const cert = evidence.find(e => e.kind === 'calibration-certificate' && e.timingSystemId === s.id)
     const valid = runDays.every(d => d >= s.calibratedOn && d <= s.calibrationExpires)
     items.push({
-      key: `calibration-${s.role}`, label: `Calibration certificate of the ${s.role} timing system, valid on the day`, fix: `${at}/evidence?kind=calibration-certificate&target=timingSystemId:${s.id}`,
-      met: !!cert && valid, detail: `${cert ? cert.originalName : 'no certificate attached'}; calibrated ${s.calibratedOn} to ${s.calibrationExpires}${valid ? '' : ', not valid on the day of the runs'}`,
+      key: `calibration-${s.role}`,
+      label: `Calibration certificate of the ${s.role} timing system, valid on the day`,
+      fix: `${at}/evidence?kind=calibration-certificate&target=timingSystemId:${s.id}`,
+      met: !!cert && valid,
+      detail: `${cert ? cert.originalName : 'no certificate attached'}; calibrated ${s.calibratedOn} to ${s.calibrationExpires}${valid ? '' : ', not valid on the day of the runs'}`,
     })
   }
-  if (day.systems.length < 2) items.push({ key: 'calibration-backup', label: 'A primary and a backup timing system', fix: `${at}/setup`, met: false, detail: `${day.systems.length} timing system(s) set up` })
+  if (day.systems.length < 2)
+    items.push({
+      key: 'calibration-backup',
+      label: 'A primary and a backup timing system',
+      fix: `${at}/setup`,
+      met: false,
+      detail: `${day.systems.length} timing system(s) set up`,
+    })
   const noWeather = counted.filter(r => !r.weather)
-  items.push({ key: 'weather', label: 'Weather at each run', fix: `${at}/run-sheet`, met: counted.length > 0 && noWeather.length === 0, detail: noWeather.length ? `missing for run(s) ${noWeather.map(r => `#${r.id}`).join(', ')}` : 'recorded' })
+  items.push({
+    key: 'weather',
+    label: 'Weather at each run',
+    fix: `${at}/run-sheet`,
+    met: counted.length > 0 && noWeather.length === 0,
+    detail: noWeather.length ? `missing for run(s) ${noWeather.map(r => `#${r.id}`).join(', ')}` : 'recorded',
+  })
   const licence = evidence.find(e => e.kind === 'rider-licence' && e.entryId === entry.entry.id)
   const licenceValid = runDays.every(d => d <= entry.rider.licenceExpires)
   items.push({
-    key: 'licence', label: 'The rider\'s licence', fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
-    met: !!licence && licenceValid, detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires ${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
+    key: 'licence',
+    label: 'The rider\'s licence',
+    fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
+    met: !!licence && licenceValid,
+    detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires ${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
   })
-  return { attemptId, ready: items.every(i => i.met), items, live, day, entry, distance, evidence, statements, clearance }
+  return {
+    attemptId,
+    ready: items.every(i => i.met),
+    items,
+    live,
+    day,
+    entry,
+    distance,
+    evidence,
+    statements,
+    clearance,
+  }
 }
 
 export async function attemptOfEvent(eventId: number, attemptId: number) {
-  const [a] = await useDb().select().from(tables.attempts).where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
+  const [a] = await useDb()
+    .select()
+    .from(tables.attempts)
+    .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
   if (!a) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
   return a
 }

@@ -1,4 +1,12 @@
-import { createHash, createPrivateKey, createPublicKey, generateKeyPairSync, sign, verify, type KeyObject } from 'node:crypto'
+import {
+  createHash,
+  createPrivateKey,
+  createPublicKey,
+  generateKeyPairSync,
+  sign,
+  verify,
+  type KeyObject,
+} from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 
@@ -21,7 +29,12 @@ export function useSealKey() {
     }
     const privateKey = createPrivateKey(readFileSync(file))
     const publicKey = createPublicKey(privateKey)
-    keys = { privateKey, publicKey, publicPem: publicKey.export({ type: 'spki', format: 'pem' }).toString(), fingerprint: fingerprintOf(publicKey) }
+    keys = {
+      privateKey,
+      publicKey,
+      publicPem: publicKey.export({ type: 'spki', format: 'pem' }).toString(),
+      fingerprint: fingerprintOf(publicKey),
+    }
   }
   return keys
 }

@@ -9,7 +9,10 @@ const unprocessable = fieldInvalid
 
 /** A course of this event, else 422 on the field (the caller already holds a role at the event). */
 export async function courseOf(eventId: number, courseId: number, field = 'courseId') {
-  const [course] = await useDb().select().from(tables.courses).where(and(eq(tables.courses.id, courseId), eq(tables.courses.eventId, eventId)))
+  const [course] = await useDb()
+    .select()
+    .from(tables.courses)
+    .where(and(eq(tables.courses.id, courseId), eq(tables.courses.eventId, eventId)))
   if (!course) throw unprocessable(field, 'is not a course of this event')
   return course
 }
@@ -17,22 +20,37 @@ export async function courseOf(eventId: number, courseId: number, field = 'cours
 /** Adds a measured distance after checking it against the surveyed trap positions and the profile. */
 export async function addMeasuredDistance(eventId: number, input: z.infer<typeof distanceSchema>) {
   const course = await courseOf(eventId, input.courseId)
-  const traps = await useDb().select().from(tables.traps).where(and(eq(tables.traps.courseId, course.id), inArray(tables.traps.id, [input.entryTrapId, input.exitTrapId])))
+  const traps = await useDb()
+    .select()
+    .from(tables.traps)
+    .where(
+      and(eq(tables.traps.courseId, course.id), inArray(tables.traps.id, [input.entryTrapId, input.exitTrapId])),
+    )
   const entry = traps.find(t => t.id === input.entryTrapId)
   const exit = traps.find(t => t.id === input.exitTrapId)
   if (!entry) throw unprocessable('entryTrapId', 'is not a trap of this course')
   if (!exit) throw unprocessable('exitTrapId', 'is not a trap of this course')
-  const [event] = await useDb().select({ profile: tables.events.profile }).from(tables.events).where(eq(tables.events.id, eventId))
+  const [event] = await useDb()
+    .select({ profile: tables.events.profile })
+    .from(tables.events)
+    .where(eq(tables.events.id, eventId))
   const check = checkMeasuredDistance(event!.profile, entry, exit, input.nominalM, course.surveyToleranceMm)
   if (!check.withinTolerance) throw unprocessable('nominalM', check.findings[0]!.message)
   const [row] = await useDb().insert(tables.measuredDistances).values(input).onConflictDoNothing().returning()
-  if (!row) throw createError({ statusCode: 409, statusMessage: `This course already has a distance called ${input.label}` })
+  if (!row)
+    throw createError({
+      statusCode: 409,
+      statusMessage: `This course already has a distance called ${input.label}`,
+    })
   return { ...row, check }
 }
 
 /** Copies a library profile, adapts the given values with the organiser's stated source, bumps the version. */
 export async function adaptProfile(eventId: number, input: z.infer<typeof profileAdaptSchema>) {
-  const [event] = await useDb().select({ profile: tables.events.profile }).from(tables.events).where(eq(tables.events.id, eventId))
+  const [event] = await useDb()
+    .select({ profile: tables.events.profile })
+    .from(tables.events)
+    .where(eq(tables.events.id, eventId))
   const base = profiles[input.baseId]
   const p: RuleProfile = copyProfile(base)
   const adapted = { source: `adapted by the organiser: ${input.source}`, certainty: 'seen' as const }
@@ -41,42 +59,68 @@ export async function adaptProfile(eventId: number, input: z.infer<typeof profil
     const to = p.window.value.kind === 'elapsed' ? p.window.value.to : 'finish-second'
     p.window = { value: { kind: 'elapsed', minutes: input.windowMinutes, from, to }, ...adapted }
   }
-  if (input.marginPercent !== undefined) p.margin = { value: { percent: input.marginPercent, inclusive: input.marginPercent > 0 }, ...adapted }
+  if (input.marginPercent !== undefined)
+    p.margin = { value: { percent: input.marginPercent, inclusive: input.marginPercent > 0 }, ...adapted }
   if (input.tailWindLimitMs !== undefined) p.tailWindLimitMs = { value: input.tailWindLimitMs, ...adapted }
   if (input.witnessStatements !== undefined) p.witnessStatements = { value: input.witnessStatements, ...adapted }
   if (input.averaging !== undefined) p.averaging = { value: input.averaging, ...adapted }
   p.id = `${base.id}-adapted`
   p.name = `${base.name} (adapted)`
   p.version = Math.max(event!.profile.version, base.version) + 1
-  const [row] = await useDb().update(tables.events).set({ profile: p, profileId: input.baseId }).where(eq(tables.events.id, eventId)).returning()
+  const [row] = await useDb()
+    .update(tables.events)
+    .set({ profile: p, profileId: input.baseId })
+    .where(eq(tables.events.id, eventId))
+    .returning()
   return row!.profile
 }
 
 /** A team enters a machine and rider (new or already entered by the same team) for a class and distance. */
 export async function addEntry(eventId: number, teamId: number, input: z.infer<typeof entrySchema>) {
   const db = useDb()
-  const [distance] = await db.select({ id: tables.measuredDistances.id }).from(tables.measuredDistances)
+  const [distance] = await db
+    .select({ id: tables.measuredDistances.id })
+    .from(tables.measuredDistances)
     .innerJoin(tables.courses, eq(tables.courses.id, tables.measuredDistances.courseId))
     .where(and(eq(tables.measuredDistances.id, input.distanceId), eq(tables.courses.eventId, eventId)))
   if (!distance) throw unprocessable('distanceId', 'is not a measured distance of this event')
   return db.transaction(async (tx) => {
     let machineId = input.machineId
     if (machineId) {
-      const [m] = await tx.select().from(tables.machines).where(and(eq(tables.machines.id, machineId), eq(tables.machines.teamId, teamId)))
+      const [m] = await tx
+        .select()
+        .from(tables.machines)
+        .where(and(eq(tables.machines.id, machineId), eq(tables.machines.teamId, teamId)))
       if (!m) throw unprocessable('machineId', 'is not a machine of your team')
     }
     else {
-      machineId = (await tx.insert(tables.machines).values({ ...input.machine!, teamId }).returning())[0]!.id
+      machineId = (
+        await tx
+          .insert(tables.machines)
+          .values({ ...input.machine!, teamId })
+          .returning()
+      )[0]!.id
     }
     let riderId = input.riderId
     if (riderId) {
-      const [r] = await tx.select().from(tables.riders).where(and(eq(tables.riders.id, riderId), eq(tables.riders.teamId, teamId)))
+      const [r] = await tx
+        .select()
+        .from(tables.riders)
+        .where(and(eq(tables.riders.id, riderId), eq(tables.riders.teamId, teamId)))
       if (!r) throw unprocessable('riderId', 'is not a rider of your team')
     }
     else {
-      riderId = (await tx.insert(tables.riders).values({ ...input.rider!, teamId }).returning())[0]!.id
+      riderId = (
+        await tx
+          .insert(tables.riders)
+          .values({ ...input.rider!, teamId })
+          .returning()
+      )[0]!.id
     }
-    const [entry] = await tx.insert(tables.entries).values({ eventId, teamId, machineId, riderId, className: input.className, distanceId: input.distanceId }).returning()
+    const [entry] = await tx
+      .insert(tables.entries)
+      .values({ eventId, teamId, machineId, riderId, className: input.className, distanceId: input.distanceId })
+      .returning()
     return entry!
   })
 }
@@ -85,19 +129,75 @@ export async function addEntry(eventId: number, teamId: number, input: z.infer<t
  * Starts a run for an entry. It joins the entry's open attempt (one with fewer than two runs that
  * were not aborted), or opens a new attempt with a frozen copy of the event's profile.
  */
-export async function startRun(eventId: number, input: { entryId: number, direction: 'out' | 'back', startedAt: string }, userId: number) {
+export async function startRun(
+  eventId: number,
+  input: { entryId: number, direction: 'out' | 'back', startedAt: string },
+  userId: number,
+) {
   return useDb().transaction(async (tx) => {
-    const [entry] = await tx.select().from(tables.entries).where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId))).for('update')
+    const [entry] = await tx
+      .select()
+      .from(tables.entries)
+      .where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId)))
+      .for('update')
     if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
     const clearance = (await clearanceOf([entry.id])).get(entry.id)!
-    if (!clearance.cleared) throw createError({ statusCode: 409, statusMessage: `This entry is not cleared to run: ${clearance.why}`, data: clearance })
-    const [event] = await tx.select({ profile: tables.events.profile }).from(tables.events).where(eq(tables.events.id, eventId))
+    if (!clearance.cleared)
+      throw createError({
+        statusCode: 409,
+        statusMessage: `This entry is not cleared to run: ${clearance.why}`,
+        data: clearance,
+      })
+    const [event] = await tx
+      .select({ profile: tables.events.profile })
+      .from(tables.events)
+      .where(eq(tables.events.id, eventId))
     const attempts = await tx.select().from(tables.attempts).where(eq(tables.attempts.entryId, entry.id))
-    const runs = attempts.length ? await tx.select().from(tables.runs).where(inArray(tables.runs.attemptId, attempts.map(a => a.id))) : []
-    const signed = attempts.length ? await tx.select({ subjectId: tables.signatures.subjectId }).from(tables.signatures).where(and(eq(tables.signatures.kind, 'timing-sheet'), inArray(tables.signatures.subjectId, attempts.map(a => a.id)))) : []
-    const open = attempts.findLast(a => runs.filter(r => r.attemptId === a.id && r.status !== 'aborted').length < 2 && !signed.some(s => s.subjectId === a.id))
-    const attemptId = open?.id ?? (await tx.insert(tables.attempts).values({ eventId, entryId: entry.id, profile: event!.profile }).returning())[0]!.id
-    const [run] = await tx.insert(tables.runs).values({ eventId, attemptId, direction: input.direction, startedAt: new Date(input.startedAt), createdBy: userId }).returning()
+    const runs = attempts.length
+      ? await tx
+          .select()
+          .from(tables.runs)
+          .where(
+            inArray(
+              tables.runs.attemptId,
+              attempts.map(a => a.id),
+            ),
+          )
+      : []
+    const signed = attempts.length
+      ? await tx
+          .select({ subjectId: tables.signatures.subjectId })
+          .from(tables.signatures)
+          .where(
+            and(
+              eq(tables.signatures.kind, 'timing-sheet'),
+              inArray(
+                tables.signatures.subjectId,
+                attempts.map(a => a.id),
+              ),
+            ),
+          )
+      : []
+    const open = attempts.findLast(
+      a =>
+        runs.filter(r => r.attemptId === a.id && r.status !== 'aborted').length < 2
+        && !signed.some(s => s.subjectId === a.id),
+    )
+    const attemptId
+      = open?.id
+        ?? (
+          await tx.insert(tables.attempts).values({ eventId, entryId: entry.id, profile: event!.profile }).returning()
+        )[0]!.id
+    const [run] = await tx
+      .insert(tables.runs)
+      .values({
+        eventId,
+        attemptId,
+        direction: input.direction,
+        startedAt: new Date(input.startedAt),
+        createdBy: userId,
+      })
+      .returning()
     return run!
   })
 }

@@ -2,8 +2,10 @@ import { eq } from 'drizzle-orm'
 
 /** A signature with the checks of its content: as stored, and as the record is now. */
 export async function signatureReport(signatureId: number) {
-  const [row] = await useDb().select({ s: tables.signatures, by: tables.users.name, email: tables.users.email })
-    .from(tables.signatures).innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId))
+  const [row] = await useDb()
+    .select({ s: tables.signatures, by: tables.users.name, email: tables.users.email })
+    .from(tables.signatures)
+    .innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId))
     .where(eq(tables.signatures.id, signatureId))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'No such signature' })
   const s = row.s
@@ -12,15 +14,25 @@ export async function signatureReport(signatureId: number) {
   let title = ''
   if (s.kind === 'inspection') {
     current = await inspectionContent(s.subjectId)
-    const [e] = await useDb().select({ teamId: tables.entries.teamId }).from(tables.inspections).innerJoin(tables.entries, eq(tables.entries.id, tables.inspections.entryId)).where(eq(tables.inspections.id, s.subjectId))
+    const [e] = await useDb()
+      .select({ teamId: tables.entries.teamId })
+      .from(tables.inspections)
+      .innerJoin(tables.entries, eq(tables.entries.id, tables.inspections.entryId))
+      .where(eq(tables.inspections.id, s.subjectId))
     teamId = e!.teamId
     title = `Technical inspection #${s.subjectId}`
   }
   else if (s.kind === 'statement') {
-    const [st] = await useDb().select({ s: tables.statements, author: tables.users.name }).from(tables.statements).innerJoin(tables.users, eq(tables.users.id, tables.statements.authorId)).where(eq(tables.statements.id, s.subjectId))
+    const [st] = await useDb()
+      .select({ s: tables.statements, author: tables.users.name })
+      .from(tables.statements)
+      .innerJoin(tables.users, eq(tables.users.id, tables.statements.authorId))
+      .where(eq(tables.statements.id, s.subjectId))
     current = statementContent(st!.s, st!.author)
     teamId = await teamOfAttempt(st!.s.attemptId)
-    title = st!.s.withdrawsId ? `Withdrawal of witness statement #${st!.s.withdrawsId}` : `Witness statement #${s.subjectId}`
+    title = st!.s.withdrawsId
+      ? `Withdrawal of witness statement #${st!.s.withdrawsId}`
+      : `Witness statement #${s.subjectId}`
   }
   else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
@@ -28,14 +40,28 @@ export async function signatureReport(signatureId: number) {
     title = `${s.kind === 'timing-sheet' ? 'Timing sheet' : 'Reopening of the timing sheet'} of attempt #${s.subjectId}`
   }
   return {
-    id: s.id, kind: s.kind, title, subjectId: s.subjectId, signedBy: row.by, typedName: s.typedName, signedAt: s.signedAt,
-    reason: s.reason, drawingPng: s.drawingPng, sha256: s.contentSha256, content: s.content, teamId,
+    id: s.id,
+    kind: s.kind,
+    title,
+    subjectId: s.subjectId,
+    signedBy: row.by,
+    typedName: s.typedName,
+    signedAt: s.signedAt,
+    reason: s.reason,
+    drawingPng: s.drawingPng,
+    sha256: s.contentSha256,
+    content: s.content,
+    teamId,
     storedContentMatches: sha256(canonicalJson(s.content)) === s.contentSha256,
     recordStillMatches: sha256(canonicalJson(current)) === s.contentSha256,
   }
 }
 
 async function teamOfAttempt(attemptId: number) {
-  const [a] = await useDb().select({ teamId: tables.entries.teamId }).from(tables.attempts).innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId)).where(eq(tables.attempts.id, attemptId))
+  const [a] = await useDb()
+    .select({ teamId: tables.entries.teamId })
+    .from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+    .where(eq(tables.attempts.id, attemptId))
   return a?.teamId ?? 0
 }

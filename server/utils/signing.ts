@@ -18,28 +18,44 @@ export async function assertPassword(userId: number, password: string) {
  * The one signing mechanism: who, when, the typed name, an optional drawn signature, and the
  * SHA-256 of the record's canonical content, kept beside the content. The row is append-only.
  */
-export async function insertSignature(tx: Tx, input: {
-  kind: Kind; subjectId: number; eventId: number; signerId: number; typedName: string; content: unknown
-  drawingPng?: string | null; reason?: string | null; supersedesId?: number | null
-}) {
-  const [row] = await tx.insert(tables.signatures).values({
-    kind: input.kind,
-    subjectId: input.subjectId,
-    eventId: input.eventId,
-    signerId: input.signerId,
-    typedName: input.typedName,
-    content: input.content,
-    contentSha256: sha256(canonicalJson(input.content)),
-    drawingPng: input.drawingPng ?? null,
-    reason: input.reason ?? null,
-    supersedesId: input.supersedesId ?? null,
-  }).returning()
+export async function insertSignature(
+  tx: Tx,
+  input: {
+    kind: Kind
+    subjectId: number
+    eventId: number
+    signerId: number
+    typedName: string
+    content: unknown
+    drawingPng?: string | null
+    reason?: string | null
+    supersedesId?: number | null
+  },
+) {
+  const [row] = await tx
+    .insert(tables.signatures)
+    .values({
+      kind: input.kind,
+      subjectId: input.subjectId,
+      eventId: input.eventId,
+      signerId: input.signerId,
+      typedName: input.typedName,
+      content: input.content,
+      contentSha256: sha256(canonicalJson(input.content)),
+      drawingPng: input.drawingPng ?? null,
+      reason: input.reason ?? null,
+      supersedesId: input.supersedesId ?? null,
+    })
+    .returning()
   return row!
 }
 
 /** The content each signature signed, as stored beside it. */
 export async function signedContents(ids: number[]) {
   if (!ids.length) return new Map<number, unknown>()
-  const rows = await useDb().select({ id: tables.signatures.id, content: tables.signatures.content }).from(tables.signatures).where(inArray(tables.signatures.id, ids))
+  const rows = await useDb()
+    .select({ id: tables.signatures.id, content: tables.signatures.content })
+    .from(tables.signatures)
+    .where(inArray(tables.signatures.id, ids))
   return new Map(rows.map(r => [r.id, r.content]))
 }

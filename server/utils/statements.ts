@@ -3,58 +3,167 @@ import { and, asc, eq, inArray } from 'drizzle-orm'
 type StatementRow = typeof tables.statements.$inferSelect
 
 export const statementContent = (s: StatementRow, authorName: string) => ({
-  statement: s.id, attempt: s.attemptId, author: authorName,
-  runsSeen: s.runsSeen, position: s.position, conditions: s.conditions, irregularities: s.irregularities,
-  withdraws: s.withdrawsId, reason: s.reason,
+  statement: s.id,
+  attempt: s.attemptId,
+  author: authorName,
+  runsSeen: s.runsSeen,
+  position: s.position,
+  conditions: s.conditions,
+  irregularities: s.irregularities,
+  withdraws: s.withdrawsId,
+  reason: s.reason,
 })
 
 /** Writes and signs a witness statement in one step: the statement exists only signed. */
-export async function createStatement(eventId: number, input: { attemptId: number, runsSeen: string, position: string, conditions: string, irregularities: string, password: string, typedName: string, drawingPng?: string }, user: { id: number, name: string }) {
-  const [attempt] = await useDb().select({ id: tables.attempts.id }).from(tables.attempts).where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
+export async function createStatement(
+  eventId: number,
+  input: {
+    attemptId: number
+    runsSeen: string
+    position: string
+    conditions: string
+    irregularities: string
+    password: string
+    typedName: string
+    drawingPng?: string
+  },
+  user: { id: number, name: string },
+) {
+  const [attempt] = await useDb()
+    .select({ id: tables.attempts.id })
+    .from(tables.attempts)
+    .where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
   if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
   await assertPassword(user.id, input.password)
-  return signStatement(eventId, { attemptId: input.attemptId, runsSeen: input.runsSeen, position: input.position, conditions: input.conditions, irregularities: input.irregularities }, user, input)
+  return signStatement(
+    eventId,
+    {
+      attemptId: input.attemptId,
+      runsSeen: input.runsSeen,
+      position: input.position,
+      conditions: input.conditions,
+      irregularities: input.irregularities,
+    },
+    user,
+    input,
+  )
 }
 
-async function signStatement(eventId: number, body: Pick<StatementRow, 'attemptId' | 'runsSeen' | 'position' | 'conditions' | 'irregularities'> & { withdrawsId?: number, reason?: string }, user: { id: number, name: string }, sign: { typedName: string, drawingPng?: string }) {
+async function signStatement(
+  eventId: number,
+  body: Pick<StatementRow, 'attemptId' | 'runsSeen' | 'position' | 'conditions' | 'irregularities'> & {
+    withdrawsId?: number
+    reason?: string
+  },
+  user: { id: number, name: string },
+  sign: { typedName: string, drawingPng?: string },
+) {
   return useDb().transaction(async (tx) => {
-    const [row] = await tx.insert(tables.statements).values({ eventId, authorId: user.id, ...body }).onConflictDoNothing().returning()
+    const [row] = await tx
+      .insert(tables.statements)
+      .values({ eventId, authorId: user.id, ...body })
+      .onConflictDoNothing()
+      .returning()
     if (!row) throw createError({ statusCode: 409, statusMessage: 'This statement has already been withdrawn' })
-    const sig = await insertSignature(tx, { kind: 'statement', subjectId: row.id, eventId, signerId: user.id, typedName: sign.typedName, content: statementContent(row, user.name), drawingPng: sign.drawingPng, reason: body.reason, supersedesId: null })
-    const [signed] = await tx.update(tables.statements).set({ signatureId: sig.id }).where(eq(tables.statements.id, row.id)).returning()
+    const sig = await insertSignature(tx, {
+      kind: 'statement',
+      subjectId: row.id,
+      eventId,
+      signerId: user.id,
+      typedName: sign.typedName,
+      content: statementContent(row, user.name),
+      drawingPng: sign.drawingPng,
+      reason: body.reason,
+      supersedesId: null,
+    })
+    const [signed] = await tx
+      .update(tables.statements)
+      .set({ signatureId: sig.id })
+      .where(eq(tables.statements.id, row.id))
+      .returning()
     return { ...signed!, sha256: sig.contentSha256 }
   })
 }
 
 /** Withdraws a signed statement by a new signed statement that says why; both are kept. */
-export async function withdrawStatement(statementId: number, input: { reason: string, password: string, typedName: string, drawingPng?: string }, user: { id: number, name: string }) {
+export async function withdrawStatement(
+  statementId: number,
+  input: { reason: string, password: string, typedName: string, drawingPng?: string },
+  user: { id: number, name: string },
+) {
   const [original] = await useDb().select().from(tables.statements).where(eq(tables.statements.id, statementId))
   if (!original) throw createError({ statusCode: 404, statusMessage: 'No such statement' })
-  if (original.authorId !== user.id) throw createError({ statusCode: 403, statusMessage: 'Only the official who signed a statement withdraws it' })
-  if (original.withdrawsId) throw createError({ statusCode: 409, statusMessage: 'This is a withdrawal; it cannot itself be withdrawn' })
+  if (original.authorId !== user.id)
+    throw createError({ statusCode: 403, statusMessage: 'Only the official who signed a statement withdraws it' })
+  if (original.withdrawsId)
+    throw createError({ statusCode: 409, statusMessage: 'This is a withdrawal; it cannot itself be withdrawn' })
   await assertPassword(user.id, input.password)
-  return signStatement(original.eventId, {
-    attemptId: original.attemptId, runsSeen: '', position: '', conditions: '', irregularities: '',
-    withdrawsId: original.id, reason: input.reason,
-  }, user, input)
+  return signStatement(
+    original.eventId,
+    {
+      attemptId: original.attemptId,
+      runsSeen: '',
+      position: '',
+      conditions: '',
+      irregularities: '',
+      withdrawsId: original.id,
+      reason: input.reason,
+    },
+    user,
+    input,
+  )
 }
 
 /** Statements at an event; a team sees those on its own attempts only. */
 export async function statementsAt(eventId: number, onlyTeamIds: number[] | null) {
   const db = useDb()
   const attemptIds = onlyTeamIds
-    ? (await db.select({ id: tables.attempts.id }).from(tables.attempts).innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
-        .where(and(eq(tables.attempts.eventId, eventId), inArray(tables.entries.teamId, onlyTeamIds.length ? onlyTeamIds : [0])))).map(a => a.id)
+    ? (
+        await db
+          .select({ id: tables.attempts.id })
+          .from(tables.attempts)
+          .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+          .where(
+            and(
+              eq(tables.attempts.eventId, eventId),
+              inArray(tables.entries.teamId, onlyTeamIds.length ? onlyTeamIds : [0]),
+            ),
+          )
+      ).map(a => a.id)
     : null
-  const rows = await db.select({ s: tables.statements, author: tables.users.name, signedAt: tables.signatures.signedAt, typedName: tables.signatures.typedName, sha256: tables.signatures.contentSha256 })
+  const rows = await db
+    .select({
+      s: tables.statements,
+      author: tables.users.name,
+      signedAt: tables.signatures.signedAt,
+      typedName: tables.signatures.typedName,
+      sha256: tables.signatures.contentSha256,
+    })
     .from(tables.statements)
     .innerJoin(tables.users, eq(tables.users.id, tables.statements.authorId))
     .innerJoin(tables.signatures, eq(tables.signatures.id, tables.statements.signatureId))
-    .where(attemptIds ? and(eq(tables.statements.eventId, eventId), inArray(tables.statements.attemptId, attemptIds.length ? attemptIds : [0])) : eq(tables.statements.eventId, eventId))
+    .where(
+      attemptIds
+        ? and(
+            eq(tables.statements.eventId, eventId),
+            inArray(tables.statements.attemptId, attemptIds.length ? attemptIds : [0]),
+          )
+        : eq(tables.statements.eventId, eventId),
+    )
     .orderBy(asc(tables.statements.id))
   const withdrawn = new Map(rows.filter(r => r.s.withdrawsId).map(r => [r.s.withdrawsId!, r]))
   return rows.map(r => ({
-    ...r.s, author: r.author, signedAt: r.signedAt, typedName: r.typedName, sha256: r.sha256,
-    withdrawnBy: withdrawn.get(r.s.id) ? { id: withdrawn.get(r.s.id)!.s.id, reason: withdrawn.get(r.s.id)!.s.reason, at: withdrawn.get(r.s.id)!.signedAt } : null,
+    ...r.s,
+    author: r.author,
+    signedAt: r.signedAt,
+    typedName: r.typedName,
+    sha256: r.sha256,
+    withdrawnBy: withdrawn.get(r.s.id)
+      ? {
+          id: withdrawn.get(r.s.id)!.s.id,
+          reason: withdrawn.get(r.s.id)!.s.reason,
+          at: withdrawn.get(r.s.id)!.signedAt,
+        }
+      : null,
   }))
 }

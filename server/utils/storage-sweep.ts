@@ -7,14 +7,18 @@ export async function sweepStorage() {
   const tmp = uploadTmpDir()
   for (const f of await readdir(tmp).catch(() => [] as string[])) await rm(join(tmp, f), { force: true })
   const store = useBlobStore()
-  const { rows } = await useDb().execute<{ sha: string }>(sql`select sha256 as sha from evidence union select pdf_sha256 from dossiers`)
+  const { rows } = await useDb().execute<{ sha: string }>(
+    sql`select sha256 as sha from evidence union select pdf_sha256 from dossiers`,
+  )
   const known = new Set(rows.map(r => r.sha))
   for await (const sha of store.list()) {
     if (known.has(sha)) continue
     // Under the same lock as an upload that is storing this hash, so a file about to get its row stays.
     await useDb().transaction(async (tx) => {
       await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${sha}, 0))`)
-      const { rows } = await tx.execute(sql`select 1 from evidence where sha256 = ${sha} union all select 1 from dossiers where pdf_sha256 = ${sha} limit 1`)
+      const { rows } = await tx.execute(
+        sql`select 1 from evidence where sha256 = ${sha} union all select 1 from dossiers where pdf_sha256 = ${sha} limit 1`,
+      )
       if (!rows.length) await store.remove(sha)
     })
   }

@@ -3,24 +3,46 @@ import type { EventAccess } from './auth'
 
 /** The team an attempt belongs to; a team may act only on its own attempts (else 404). */
 export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
-  const [row] = await useDb().select({ teamId: tables.entries.teamId }).from(tables.attempts)
+  const [row] = await useDb()
+    .select({ teamId: tables.entries.teamId })
+    .from(tables.attempts)
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, access.eventId)))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
   const teamOnly = !access.asAdmin && access.roles.every(r => r === 'team')
-  if (teamOnly && !access.teamIds.includes(row.teamId)) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  if (teamOnly && !access.teamIds.includes(row.teamId))
+    throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
   return row.teamId
 }
 
 export async function dossiersOf(attemptId: number) {
-  const rows = await useDb().select({ d: tables.dossiers, submittedAt: tables.submissions.submittedAt, decision: tables.decisions.decision, reasons: tables.decisions.reasons, decidedAt: tables.decisions.decidedAt, signatureId: tables.decisions.signatureId })
+  const rows = await useDb()
+    .select({
+      d: tables.dossiers,
+      submittedAt: tables.submissions.submittedAt,
+      decision: tables.decisions.decision,
+      reasons: tables.decisions.reasons,
+      decidedAt: tables.decisions.decidedAt,
+      signatureId: tables.decisions.signatureId,
+    })
     .from(tables.dossiers)
     .leftJoin(tables.submissions, eq(tables.submissions.dossierId, tables.dossiers.id))
     .leftJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
-    .where(eq(tables.dossiers.attemptId, attemptId)).orderBy(desc(tables.dossiers.version))
+    .where(eq(tables.dossiers.attemptId, attemptId))
+    .orderBy(desc(tables.dossiers.version))
   return rows.map(r => ({
-    id: r.d.id, version: r.d.version, manifestSha256: r.d.manifestSha256, pdfSha256: r.d.pdfSha256, pdfSize: r.d.pdfSize, keyFingerprint: r.d.keyFingerprint,
-    createdAt: r.d.createdAt, supersedesId: r.d.supersedesId, submittedAt: r.submittedAt, decision: r.decision ? { decision: r.decision, reasons: r.reasons, at: r.decidedAt, signatureId: r.signatureId } : null,
+    id: r.d.id,
+    version: r.d.version,
+    manifestSha256: r.d.manifestSha256,
+    pdfSha256: r.d.pdfSha256,
+    pdfSize: r.d.pdfSize,
+    keyFingerprint: r.d.keyFingerprint,
+    createdAt: r.d.createdAt,
+    supersedesId: r.d.supersedesId,
+    submittedAt: r.submittedAt,
+    decision: r.decision
+      ? { decision: r.decision, reasons: r.reasons, at: r.decidedAt, signatureId: r.signatureId }
+      : null,
   }))
 }
 
@@ -31,76 +53,187 @@ async function dossierRow(id: number) {
 }
 
 const emailsOf = async (eventId: number, role: 'official' | 'team', teamId?: number) =>
-  (await useDb().select({ email: tables.users.email }).from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
-    .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.role, role), ...(teamId ? [eq(tables.memberships.teamId, teamId)] : []))))
-    .map(r => r.email)
+  (
+    await useDb()
+      .select({ email: tables.users.email })
+      .from(tables.memberships)
+      .innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
+      .where(
+        and(
+          eq(tables.memberships.eventId, eventId),
+          eq(tables.memberships.role, role),
+          ...(teamId ? [eq(tables.memberships.teamId, teamId)] : []),
+        ),
+      )
+  ).map(r => r.email)
 
 /** The team submits a sealed dossier: recorded first, then the officials are e-mailed the PDF. */
 export async function submitDossier(dossierId: number, userId: number) {
   const d = await dossierRow(dossierId)
   const latest = await latestDossier(d.attemptId)
-  if (latest!.id !== d.id) throw createError({ statusCode: 409, statusMessage: `Version ${d.version} is superseded by version ${latest!.version}; submit that one` })
-  const [row] = await useDb().insert(tables.submissions).values({ dossierId, submittedBy: userId }).onConflictDoNothing().returning()
+  if (latest!.id !== d.id)
+    throw createError({
+      statusCode: 409,
+      statusMessage: `Version ${d.version} is superseded by version ${latest!.version}; submit that one`,
+    })
+  const [row] = await useDb()
+    .insert(tables.submissions)
+    .values({ dossierId, submittedBy: userId })
+    .onConflictDoNothing()
+    .returning()
   if (!row) throw createError({ statusCode: 409, statusMessage: 'This dossier has already been submitted' })
-  const m = d.manifest as { entry: { machineName: string, teamName: string, className: string, distanceLabel: string }, result: { kmh: string, mph: string } }
+  const m = d.manifest as {
+    entry: { machineName: string, teamName: string, className: string, distanceLabel: string }
+    result: { kmh: string, mph: string }
+  }
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
   const name = `trapline-dossier-attempt-${d.attemptId}-v${d.version}.pdf`
-  const mail = await queueMail((await emailsOf(d.eventId, 'official')).map(to => ({
-    to,
-    subject: `Trapline: dossier submitted for ratification — ${m.entry.machineName}, ${m.result.kmh} km/h`,
-    text: `A sealed dossier has been submitted for ratification.\n\n${m.entry.machineName} (${m.entry.teamName}), ${m.entry.className}, ${m.entry.distanceLabel}: ${m.result.kmh} km/h, ${m.result.mph} mph.\n\n`
-      + `PDF: ${name}, attached.\nSHA-256 of the PDF: ${d.pdfSha256}\nManifest SHA-256: ${d.manifestSha256}\nSeal key: ${d.keyFingerprint}\n\nVerify it at ${site}/verify and decide at ${site}/attempts/${d.attemptId}/dossier\n`,
-    attachmentSha256: d.pdfSha256,
-    attachmentName: name,
-  })))
-  return { submission: row, mail, message: mail.sent === mail.queued ? `E-mailed to ${mail.sent} official(s).` : `Submitted. ${mail.queued - mail.sent} e-mail(s) could not be sent yet and will be retried; nothing is lost.` }
+  const mail = await queueMail(
+    (await emailsOf(d.eventId, 'official')).map(to => ({
+      to,
+      subject: `Trapline: dossier submitted for ratification — ${m.entry.machineName}, ${m.result.kmh} km/h`,
+      text:
+        `A sealed dossier has been submitted for ratification.\n\n${m.entry.machineName} (${m.entry.teamName}), ${m.entry.className}, ${m.entry.distanceLabel}: ${m.result.kmh} km/h, ${m.result.mph} mph.\n\n`
+        + `PDF: ${name}, attached.\nSHA-256 of the PDF: ${d.pdfSha256}\nManifest SHA-256: ${d.manifestSha256}\nSeal key: ${d.keyFingerprint}\n\nVerify it at ${site}/verify and decide at ${site}/attempts/${d.attemptId}/dossier\n`,
+      attachmentSha256: d.pdfSha256,
+      attachmentName: name,
+    })),
+  )
+  return {
+    submission: row,
+    mail,
+    message:
+      mail.sent === mail.queued
+        ? `E-mailed to ${mail.sent} official(s).`
+        : `Submitted. ${mail.queued - mail.sent} e-mail(s) could not be sent yet and will be retried; nothing is lost.`,
+  }
 }
 
 /** An official ratifies or refuses a submitted dossier, with reasons, signed; the team is e-mailed. */
-export async function decideDossier(dossierId: number, input: { decision: 'ratified' | 'refused', reasons: string, password: string, typedName: string }, user: { id: number, name: string }) {
+export async function decideDossier(
+  dossierId: number,
+  input: { decision: 'ratified' | 'refused', reasons: string, password: string, typedName: string },
+  user: { id: number, name: string },
+) {
   const d = await dossierRow(dossierId)
-  const [submitted] = await useDb().select().from(tables.submissions).where(eq(tables.submissions.dossierId, dossierId))
+  const [submitted] = await useDb()
+    .select()
+    .from(tables.submissions)
+    .where(eq(tables.submissions.dossierId, dossierId))
   if (!submitted) throw createError({ statusCode: 409, statusMessage: 'This dossier has not been submitted' })
   await assertPassword(user.id, input.password)
   const decision = await useDb().transaction(async (tx) => {
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
-    if (existing) throw createError({ statusCode: 409, statusMessage: `This dossier was already ${existing.decision}` })
-    const content = { dossier: d.id, attempt: d.attemptId, version: d.version, pdfSha256: d.pdfSha256, manifestSha256: d.manifestSha256, decision: input.decision, reasons: input.reasons }
-    const sig = await insertSignature(tx, { kind: 'ratification', subjectId: d.id, eventId: d.eventId, signerId: user.id, typedName: input.typedName, content })
-    const [row] = await tx.insert(tables.decisions).values({ dossierId, decision: input.decision, reasons: input.reasons, signatureId: sig.id, decidedBy: user.id }).returning()
+    if (existing)
+      throw createError({ statusCode: 409, statusMessage: `This dossier was already ${existing.decision}` })
+    const content = {
+      dossier: d.id,
+      attempt: d.attemptId,
+      version: d.version,
+      pdfSha256: d.pdfSha256,
+      manifestSha256: d.manifestSha256,
+      decision: input.decision,
+      reasons: input.reasons,
+    }
+    const sig = await insertSignature(tx, {
+      kind: 'ratification',
+      subjectId: d.id,
+      eventId: d.eventId,
+      signerId: user.id,
+      typedName: input.typedName,
+      content,
+    })
+    const [row] = await tx
+      .insert(tables.decisions)
+      .values({
+        dossierId,
+        decision: input.decision,
+        reasons: input.reasons,
+        signatureId: sig.id,
+        decidedBy: user.id,
+      })
+      .returning()
     return row!
   })
-  const teamId = await useDb().select({ t: tables.entries.teamId }).from(tables.attempts).innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId)).where(eq(tables.attempts.id, d.attemptId)).then(r => r[0]!.t)
+  const teamId = await useDb()
+    .select({ t: tables.entries.teamId })
+    .from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+    .where(eq(tables.attempts.id, d.attemptId))
+    .then(r => r[0]!.t)
   const m = d.manifest as { entry: { machineName: string }, result: { kmh: string } }
-  await queueMail((await emailsOf(d.eventId, 'team', teamId)).map(to => ({
-    to,
-    subject: `Trapline: dossier ${input.decision} — ${m.entry.machineName}, ${m.result.kmh} km/h`,
-    text: `The officials have ${input.decision} dossier version ${d.version} of attempt #${d.attemptId}.\n\nReasons: ${input.reasons}\nSigned by ${input.typedName}.\n`,
-  })))
+  await queueMail(
+    (await emailsOf(d.eventId, 'team', teamId)).map(to => ({
+      to,
+      subject: `Trapline: dossier ${input.decision} — ${m.entry.machineName}, ${m.result.kmh} km/h`,
+      text: `The officials have ${input.decision} dossier version ${d.version} of attempt #${d.attemptId}.\n\nReasons: ${input.reasons}\nSigned by ${input.typedName}.\n`,
+    })),
+  )
   return decision
 }
 
 /** Current records: the best ratified result per class and distance. */
 export async function recordBook() {
-  const rows = await useDb().select({ d: tables.dossiers, decidedAt: tables.decisions.decidedAt })
-    .from(tables.decisions).innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
-    .where(eq(tables.decisions.decision, 'ratified')).orderBy(asc(tables.decisions.id))
+  const rows = await useDb()
+    .select({ d: tables.dossiers, decidedAt: tables.decisions.decidedAt })
+    .from(tables.decisions)
+    .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
+    .where(eq(tables.decisions.decision, 'ratified'))
+    .orderBy(asc(tables.decisions.id))
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const best = new Map<string, { class: string, distance: string, speedKmh: string, speedMph: string, date: string, dossierUrl: string, verifyUrl: string, machine: string, rider: string, team: string }>()
+  const best = new Map<
+    string,
+    {
+      class: string
+      distance: string
+      speedKmh: string
+      speedMph: string
+      date: string
+      dossierUrl: string
+      verifyUrl: string
+      machine: string
+      rider: string
+      team: string
+    }
+  >()
   for (const { d } of rows) {
-    const m = d.manifest as { entry: { className: string, distanceLabel: string, machineName: string, riderName: string, teamName: string }, result: { kmh: string, mph: string }, runs: { startedAt: string, counted: boolean }[], event: { timeZone: string } }
+    const m = d.manifest as {
+      entry: { className: string, distanceLabel: string, machineName: string, riderName: string, teamName: string }
+      result: { kmh: string, mph: string }
+      runs: { startedAt: string, counted: boolean }[]
+      event: { timeZone: string }
+    }
     const key = `${m.entry.className}\u0000${m.entry.distanceLabel}`
-    const date = m.runs.filter(r => r.counted).map(r => r.startedAt).sort().at(-1)!.slice(0, 10)
+    const date = m.runs
+      .filter(r => r.counted)
+      .map(r => r.startedAt)
+      .sort()
+      .at(-1)!
+      .slice(0, 10)
     const current = best.get(key)
     // Equal speeds: the later ratification (a newer version of the same dossier) stands.
     if (!current || Number(m.result.kmh) >= Number(current.speedKmh)) {
-      best.set(key, { class: m.entry.className, distance: m.entry.distanceLabel, speedKmh: m.result.kmh, speedMph: m.result.mph, date, dossierUrl: `${site}/api/dossiers/${d.id}/pdf`, verifyUrl: `${site}/verify`, machine: m.entry.machineName, rider: m.entry.riderName, team: m.entry.teamName })
+      best.set(key, {
+        class: m.entry.className,
+        distance: m.entry.distanceLabel,
+        speedKmh: m.result.kmh,
+        speedMph: m.result.mph,
+        date,
+        dossierUrl: `${site}/api/dossiers/${d.id}/pdf`,
+        verifyUrl: `${site}/verify`,
+        machine: m.entry.machineName,
+        rider: m.entry.riderName,
+        team: m.entry.teamName,
+      })
     }
   }
   return [...best.values()].sort((a, b) => a.class.localeCompare(b.class) || a.distance.localeCompare(b.distance))
 }
 
 export async function isRatified(dossierId: number) {
-  const rows = await useDb().select({ id: tables.decisions.id }).from(tables.decisions).where(and(eq(tables.decisions.dossierId, dossierId), inArray(tables.decisions.decision, ['ratified'])))
+  const rows = await useDb()
+    .select({ id: tables.decisions.id })
+    .from(tables.decisions)
+    .where(and(eq(tables.decisions.dossierId, dossierId), inArray(tables.decisions.decision, ['ratified'])))
   return rows.length > 0
 }

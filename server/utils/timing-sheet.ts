@@ -16,14 +16,33 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
     event: { id: day.event.id, name: day.event.name, timeZone: day.event.timeZone },
     entry: live.entry,
     profile: attempt.profile,
-    timingSystems: day.systems.map(s => ({ id: s.id, name: s.name, role: s.role, ticksPerSecond: s.ticksPerSecond, calibratedOn: s.calibratedOn, calibrationExpires: s.calibrationExpires })),
+    timingSystems: day.systems.map(s => ({
+      id: s.id,
+      name: s.name,
+      role: s.role,
+      ticksPerSecond: s.ticksPerSecond,
+      calibratedOn: s.calibratedOn,
+      calibrationExpires: s.calibrationExpires,
+    })),
     runs: runs.map(r => ({
-      id: r.id, direction: r.direction, startedAt: r.startedAt.toISOString(), status: r.status, abortedReason: r.abortedReason,
-      readings: day.readings.filter(x => x.runId === r.id).map(x => ({
-        id: x.id, trap: trapLabel.get(x.trapId), system: system.get(x.systemId)!.name,
-        time: formatTimeOfDay(x.ticks, BigInt(system.get(x.systemId)!.ticksPerSecond)), ticks: x.ticks.toString(),
-        supersedes: x.supersedesId, reason: x.reason, enteredBy: x.enteredBy, enteredAt: x.enteredAt.toISOString(),
-      })),
+      id: r.id,
+      direction: r.direction,
+      startedAt: r.startedAt.toISOString(),
+      status: r.status,
+      abortedReason: r.abortedReason,
+      readings: day.readings
+        .filter(x => x.runId === r.id)
+        .map(x => ({
+          id: x.id,
+          trap: trapLabel.get(x.trapId),
+          system: system.get(x.systemId)!.name,
+          time: formatTimeOfDay(x.ticks, BigInt(system.get(x.systemId)!.ticksPerSecond)),
+          ticks: x.ticks.toString(),
+          supersedes: x.supersedesId,
+          reason: x.reason,
+          enteredBy: x.enteredBy,
+          enteredAt: x.enteredAt.toISOString(),
+        })),
       official: live.runs.find(lr => lr.id === r.id)?.official ?? null,
     })),
     result: live.result,
@@ -33,27 +52,53 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
 }
 
 /** Locks the attempt row so that signing and entering readings never interleave. */
-export async function lockAttempt(tx: Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0], attemptId: number) {
+export async function lockAttempt(
+  tx: Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0],
+  attemptId: number,
+) {
   await tx.execute(sql`select id from attempts where id = ${attemptId} for update`)
-  const { rows } = await tx.execute<{ kind: string }>(sql`select kind from signatures where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by id desc limit 1`)
+  const { rows } = await tx.execute<{ kind: string }>(
+    sql`select kind from signatures where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by id desc limit 1`,
+  )
   return { signed: rows[0]?.kind === 'timing-sheet' }
 }
 
 /** Signs (or reopens) the timing sheet of an attempt: who, when, typed name, SHA-256 of the content. */
-export async function signTimingSheet(input: { eventId: number, attemptId: number, userId: number, password: string, typedName: string, reopen?: string, drawingPng?: string }) {
+export async function signTimingSheet(input: {
+  eventId: number
+  attemptId: number
+  userId: number
+  password: string
+  typedName: string
+  reopen?: string
+  drawingPng?: string
+}) {
   await assertPassword(input.userId, input.password)
   return useDb().transaction(async (tx) => {
     const { signed } = await lockAttempt(tx, input.attemptId)
     if (input.reopen ? !signed : signed) {
-      throw createError({ statusCode: 409, statusMessage: input.reopen ? 'The timing sheet is not signed, so there is nothing to reopen' : 'The timing sheet is already signed; reopen it with a reason to correct it' })
+      throw createError({
+        statusCode: 409,
+        statusMessage: input.reopen
+          ? 'The timing sheet is not signed, so there is nothing to reopen'
+          : 'The timing sheet is already signed; reopen it with a reason to correct it',
+      })
     }
     const day = await loadEventDay(input.eventId, { history: true })
     const content = timingSheetContent(day, input.attemptId)
-    const previous = day.signatures.filter(x => x.s.subjectId === input.attemptId && x.s.kind.startsWith('timing-sheet')).at(-1)
+    const previous = day.signatures
+      .filter(x => x.s.subjectId === input.attemptId && x.s.kind.startsWith('timing-sheet'))
+      .at(-1)
     const row = await insertSignature(tx, {
       kind: input.reopen ? 'timing-sheet-reopened' : 'timing-sheet',
-      subjectId: input.attemptId, eventId: input.eventId, signerId: input.userId, typedName: input.typedName,
-      content, reason: input.reopen, supersedesId: previous?.s.id, drawingPng: input.drawingPng,
+      subjectId: input.attemptId,
+      eventId: input.eventId,
+      signerId: input.userId,
+      typedName: input.typedName,
+      content,
+      reason: input.reopen,
+      supersedesId: previous?.s.id,
+      drawingPng: input.drawingPng,
     })
     return { id: row.id, kind: row.kind, sha256: row.contentSha256, signedAt: row.signedAt }
   })

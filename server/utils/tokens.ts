@@ -9,9 +9,14 @@ const digest = (token: string) => createHash('sha256').update(token).digest('hex
 /** A single-use link token; only its SHA-256 is stored. */
 export async function issueToken(userId: number, purpose: Purpose) {
   const token = randomBytes(32).toString('base64url')
-  await useDb().insert(tables.authTokens).values({
-    userId, purpose, tokenHash: digest(token), expiresAt: new Date(Date.now() + TOKEN_TTL_MS[purpose]),
-  })
+  await useDb()
+    .insert(tables.authTokens)
+    .values({
+      userId,
+      purpose,
+      tokenHash: digest(token),
+      expiresAt: new Date(Date.now() + TOKEN_TTL_MS[purpose]),
+    })
   return token
 }
 
@@ -24,7 +29,8 @@ export async function findUsableToken(token: string) {
     .where(eq(tables.authTokens.tokenHash, digest(token)))
   if (!row) throw createError({ statusCode: 404, statusMessage: 'This link is not valid' })
   if (row.token.usedAt) throw createError({ statusCode: 410, statusMessage: 'This link has already been used' })
-  if (row.token.expiresAt.getTime() < Date.now()) throw createError({ statusCode: 410, statusMessage: 'This link has expired; ask for a new one' })
+  if (row.token.expiresAt.getTime() < Date.now())
+    throw createError({ statusCode: 410, statusMessage: 'This link has expired; ask for a new one' })
   return row
 }
 
@@ -32,11 +38,14 @@ export async function findUsableToken(token: string) {
 export async function spendToken(token: string, passwordHash: string, name?: string) {
   const row = await findUsableToken(token)
   return useDb().transaction(async (tx) => {
-    const spent = await tx.update(tables.authTokens).set({ usedAt: new Date() })
+    const spent = await tx
+      .update(tables.authTokens)
+      .set({ usedAt: new Date() })
       .where(and(eq(tables.authTokens.id, row.token.id), isNull(tables.authTokens.usedAt)))
       .returning({ id: tables.authTokens.id })
     if (!spent.length) throw createError({ statusCode: 410, statusMessage: 'This link has already been used' })
-    const [user] = await tx.update(tables.users)
+    const [user] = await tx
+      .update(tables.users)
       .set({ passwordHash, passwordChangedAt: new Date(), ...(name ? { name } : {}) })
       .where(eq(tables.users.id, row.user.id))
       .returning()

@@ -9,21 +9,41 @@ import type { H3Event } from 'h3'
 import multer from 'multer'
 import { evidenceKinds, fileNameProblem, type EvidenceKind } from '#shared/evidence/kinds'
 
-export interface StagedFile { path: string, size: number, sha256: string, head: Buffer, originalname: string }
+export interface StagedFile {
+  path: string
+  size: number
+  sha256: string
+  head: Buffer
+  originalname: string
+}
 
 const HEAD_BYTES = 4100
 const LIMIT_KEYS: Record<EvidenceKind, string> = {
-  'survey-certificate': 'survey', 'calibration-certificate': 'calibration', 'scale-certificate': 'scale', 'rider-licence': 'licence',
-  'photo': 'photo', 'video': 'video', 'data-log': 'dataLog', 'other-document': 'other',
+  'survey-certificate': 'survey',
+  'calibration-certificate': 'calibration',
+  'scale-certificate': 'scale',
+  'rider-licence': 'licence',
+  'photo': 'photo',
+  'video': 'video',
+  'data-log': 'dataLog',
+  'other-document': 'other',
 }
 
 export function limitFor(kind: EvidenceKind): number {
-  const configured = Number((useRuntimeConfig().evidenceLimits as Record<string, number | string>)[LIMIT_KEYS[kind]] ?? 0)
+  const configured = Number(
+    (useRuntimeConfig().evidenceLimits as Record<string, number | string>)[LIMIT_KEYS[kind]] ?? 0,
+  )
   return configured > 0 ? configured : evidenceKinds[kind].maxBytes
 }
 
 export class UploadError extends Error {
-  constructor(public statusCode: number, public field: string, message: string) { super(message) }
+  constructor(
+    public statusCode: number,
+    public field: string,
+    message: string,
+  ) {
+    super(message)
+  }
 }
 
 /**
@@ -34,7 +54,11 @@ export class UploadError extends Error {
 class HashingStagingStorage implements multer.StorageEngine {
   constructor(private beforeFile: (fields: Record<string, unknown>) => Promise<number>) {}
 
-  _handleFile(req: IncomingMessage & { body?: Record<string, unknown> }, file: Express.Multer.File, cb: (error?: unknown, info?: Partial<StagedFile>) => void) {
+  _handleFile(
+    req: IncomingMessage & { body?: Record<string, unknown> },
+    file: Express.Multer.File,
+    cb: (error?: unknown, info?: Partial<StagedFile>) => void,
+  ) {
     const tmp = join(uploadTmpDir(), `${randomUUID()}.part`)
     ;(async () => {
       const problem = fileNameProblem(file.originalname)
@@ -49,9 +73,13 @@ class HashingStagingStorage implements multer.StorageEngine {
         highWaterMark: 1 << 20,
         transform(chunk: Buffer, _enc, done) {
           size += chunk.length
-          if (size > limit) return done(new UploadError(413, 'file', `is over the limit of ${limit} bytes for this kind`))
+          if (size > limit)
+            return done(new UploadError(413, 'file', `is over the limit of ${limit} bytes for this kind`))
           hash.update(chunk)
-          if (headLength < HEAD_BYTES) { head.push(chunk.subarray(0, HEAD_BYTES - headLength)); headLength += Math.min(chunk.length, HEAD_BYTES - headLength) }
+          if (headLength < HEAD_BYTES) {
+            head.push(chunk.subarray(0, HEAD_BYTES - headLength))
+            headLength += Math.min(chunk.length, HEAD_BYTES - headLength)
+          }
           done(null, chunk)
         },
       })
@@ -64,27 +92,48 @@ class HashingStagingStorage implements multer.StorageEngine {
         throw e
       }
       return { path: tmp, size, sha256: hash.digest('hex'), head: Buffer.concat(head) }
-    })().then(info => cb(null, info), (e) => { file.stream.resume(); cb(e) })
+    })().then(
+      info => cb(null, info),
+      (e) => {
+        file.stream.resume()
+        cb(e)
+      },
+    )
   }
 
-  _removeFile(_req: IncomingMessage, file: Express.Multer.File & Partial<StagedFile>, cb: (error: Error | null) => void) {
+  _removeFile(
+    _req: IncomingMessage,
+    file: Express.Multer.File & Partial<StagedFile>,
+    cb: (error: Error | null) => void,
+  ) {
     rm(file.path ?? '', { force: true }).then(() => cb(null), cb)
   }
 }
 
 /** Runs multer on the raw request; resolves with the staged file and the form fields. */
 export function receiveUpload(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<number>) {
-  return receiveUploadWith(event, beforeFile, Math.max(...Object.keys(evidenceKinds).map(k => limitFor(k as EvidenceKind))))
+  return receiveUploadWith(
+    event,
+    beforeFile,
+    Math.max(...Object.keys(evidenceKinds).map(k => limitFor(k as EvidenceKind))),
+  )
 }
 
-function receiveUploadWith(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<number>, maxBytes = 6 * 1024 * 1024 * 1024) {
+function receiveUploadWith(
+  event: H3Event,
+  beforeFile: (fields: Record<string, unknown>) => Promise<number>,
+  maxBytes = 6 * 1024 * 1024 * 1024,
+) {
   const handler = multer({
     storage: new HashingStagingStorage(beforeFile),
     preservePath: true, // so that a name with a path is refused, not silently shortened
     defParamCharset: 'utf8',
     limits: { files: 1, fields: 12, fieldSize: 2000, parts: 14, fileSize: maxBytes },
   }).single('file')
-  const req = event.node.req as IncomingMessage & { file?: StagedFile & Express.Multer.File, body?: Record<string, unknown> }
+  const req = event.node.req as IncomingMessage & {
+    file?: StagedFile & Express.Multer.File
+    body?: Record<string, unknown>
+  }
   return new Promise<{ file: StagedFile | null, fields: Record<string, unknown> }>((resolve, reject) => {
     handler(req as never, event.node.res as ServerResponse as never, (err: unknown) => {
       if (err) return reject(toHttpError(err))
@@ -100,7 +149,8 @@ function toHttpError(err: unknown) {
   const code = (err as { code?: string }).code
   if (code === 'LIMIT_FILE_SIZE') return issue(413, 'file', 'is over the size limit')
   if (code?.startsWith('LIMIT_')) return issue(422, 'file', (err as Error).message)
-  if ((err as Error).message === 'Malformed part header') return issue(422, 'file', 'the part header is malformed; a file name must not contain control characters')
+  if ((err as Error).message === 'Malformed part header')
+    return issue(422, 'file', 'the part header is malformed; a file name must not contain control characters')
   return issue(400, 'file', `the upload did not arrive whole: ${(err as Error).message}`)
 }
 

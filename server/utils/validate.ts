@@ -17,7 +17,8 @@ export function fieldsInvalid(issues: FieldIssue[], statusCode = 422) {
   })
 }
 
-export const fieldInvalid = (path: string, message: string, statusCode = 422) => fieldsInvalid([{ path, message }], statusCode)
+export const fieldInvalid = (path: string, message: string, statusCode = 422) =>
+  fieldsInvalid([{ path, message }], statusCode)
 
 export function invalidInput(error: z.ZodError) {
   const issues: FieldIssue[] = error.issues.map(i => ({ path: i.path.join('.') || '(body)', message: i.message }))
@@ -46,5 +47,7 @@ export async function validBody<S extends z.ZodType>(event: H3Event, schema: S):
   return parse(schema, body ?? {})
 }
 
-export const validParams = <S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> => parse(schema, getRouterParams(event))
-export const validQuery = <S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> => parse(schema, getQuery(event))
+export const validParams = <S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> =>
+  parse(schema, getRouterParams(event))
+export const validQuery = <S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> =>
+  parse(schema, getQuery(event))

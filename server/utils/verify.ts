@@ -3,7 +3,13 @@ import { eq } from 'drizzle-orm'
 import { attachmentName } from './dossier'
 import { readAttachments } from './pdf-attachments'
 
-export interface Verification { sealValid: boolean, keyFingerprint: string | null, items: { name: string, ok: boolean }[], message: string, dossier?: { id: number, attemptId: number, version: number } | null }
+export interface Verification {
+  sealValid: boolean
+  keyFingerprint: string | null
+  items: { name: string, ok: boolean }[]
+  message: string
+  dossier?: { id: number, attemptId: number, version: number } | null
+}
 
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
@@ -13,7 +19,8 @@ const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('h
  */
 export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   const fail = (message: string): Verification => ({ sealValid: false, keyFingerprint: null, items: [], message })
-  if (bytes.length < 8 || Buffer.from(bytes.subarray(0, 5)).toString('latin1') !== '%PDF-') return fail('This is not a PDF file.')
+  if (bytes.length < 8 || Buffer.from(bytes.subarray(0, 5)).toString('latin1') !== '%PDF-')
+    return fail('This is not a PDF file.')
   let files: { name: string, data: Uint8Array }[]
   try {
     files = await readAttachments(bytes)
@@ -23,14 +30,19 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   }
   const manifestFile = files.find(f => f.name === 'manifest.json')
   const sigFile = files.find(f => f.name === 'manifest.sig')
-  if (!manifestFile || !sigFile) return fail('This PDF carries no Trapline seal (no manifest.json and manifest.sig attached).')
+  if (!manifestFile || !sigFile)
+    return fail('This PDF carries no Trapline seal (no manifest.json and manifest.sig attached).')
   const key = useSealKey()
   const items: { name: string, ok: boolean }[] = []
   const manifestText = new TextDecoder().decode(manifestFile.data)
   const digest = sha(manifestText)
   let manifest: { evidence?: { name: string, sha256: string }[] } | null = null
-  try { manifest = JSON.parse(manifestText) }
-  catch { /* reported below */ }
+  try {
+    manifest = JSON.parse(manifestText)
+  }
+  catch {
+    /* reported below */
+  }
   const canonical = manifest !== null && canonicalJson(manifest) === manifestText
   const sealOk = canonical && sealHolds(digest, new TextDecoder().decode(sigFile.data).trim())
   items.push({ name: 'manifest.json', ok: sealOk })
@@ -38,9 +50,16 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
     const f = files.find(x => x.name === attachmentName(e.sha256, e.name))
     if (f) items.push({ name: e.name, ok: sha(f.data) === e.sha256 })
   }
-  const known = new Set(['manifest.json', 'manifest.sig', ...(manifest?.evidence ?? []).map(e => attachmentName(e.sha256, e.name))])
+  const known = new Set([
+    'manifest.json',
+    'manifest.sig',
+    ...(manifest?.evidence ?? []).map(e => attachmentName(e.sha256, e.name)),
+  ])
   for (const f of files.filter(x => !known.has(x.name))) items.push({ name: f.name, ok: false })
-  const [issued] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.pdfSha256, sha(bytes)))
+  const [issued] = await useDb()
+    .select()
+    .from(tables.dossiers)
+    .where(eq(tables.dossiers.pdfSha256, sha(bytes)))
   items.push({ name: 'PDF file as issued', ok: !!issued })
   const failing = items.filter(i => !i.ok).map(i => i.name)
   const sealValid = failing.length === 0

@@ -1,4 +1,13 @@
-export const EVIDENCE_KINDS = ['survey-certificate', 'calibration-certificate', 'scale-certificate', 'rider-licence', 'photo', 'video', 'data-log', 'other-document'] as const
+export const EVIDENCE_KINDS = [
+  'survey-certificate',
+  'calibration-certificate',
+  'scale-certificate',
+  'rider-licence',
+  'photo',
+  'video',
+  'data-log',
+  'other-document',
+] as const
 export type EvidenceKind = (typeof EVIDENCE_KINDS)[number]
 
 const MB = 1024 * 1024
@@ -18,14 +27,49 @@ export interface KindRule {
 }
 
 export const evidenceKinds: Record<EvidenceKind, KindRule> = {
-  'survey-certificate': { label: 'Course survey certificate', accepts: DOCUMENT_TYPES, maxBytes: 50 * MB, attachTo: 'course' },
-  'calibration-certificate': { label: 'Timing calibration certificate', accepts: DOCUMENT_TYPES, maxBytes: 50 * MB, attachTo: 'timing system' },
-  'scale-certificate': { label: 'Scale certificate', accepts: DOCUMENT_TYPES, maxBytes: 50 * MB, attachTo: 'inspection' },
+  'survey-certificate': {
+    label: 'Course survey certificate',
+    accepts: DOCUMENT_TYPES,
+    maxBytes: 50 * MB,
+    attachTo: 'course',
+  },
+  'calibration-certificate': {
+    label: 'Timing calibration certificate',
+    accepts: DOCUMENT_TYPES,
+    maxBytes: 50 * MB,
+    attachTo: 'timing system',
+  },
+  'scale-certificate': {
+    label: 'Scale certificate',
+    accepts: DOCUMENT_TYPES,
+    maxBytes: 50 * MB,
+    attachTo: 'inspection',
+  },
   'rider-licence': { label: 'Rider licence', accepts: DOCUMENT_TYPES, maxBytes: 50 * MB, attachTo: 'entry' },
-  'photo': { label: 'Photo', accepts: ['image/jpeg', 'image/png', 'image/webp', 'image/heic'], maxBytes: 50 * MB, attachTo: 'inspection item, run or entry' },
-  'video': { label: 'Video', accepts: ['video/mp4', 'video/quicktime', 'video/webm', 'video/x-matroska'], maxBytes: 4 * GB, attachTo: 'run' },
-  'data-log': { label: 'Data log', accepts: [TEXT, 'application/zip', 'application/gzip'], maxBytes: 2 * GB, attachTo: 'run' },
-  'other-document': { label: 'Other document', accepts: [...DOCUMENT_TYPES, 'image/webp'], maxBytes: 50 * MB, attachTo: 'event' },
+  'photo': {
+    label: 'Photo',
+    accepts: ['image/jpeg', 'image/png', 'image/webp', 'image/heic'],
+    maxBytes: 50 * MB,
+    attachTo: 'inspection item, run or entry',
+  },
+  'video': {
+    label: 'Video',
+    accepts: ['video/mp4', 'video/quicktime', 'video/webm', 'video/x-matroska'],
+    maxBytes: 4 * GB,
+    attachTo: 'run',
+  },
+  'data-log': {
+    label: 'Data log',
+    accepts: [TEXT, 'application/zip', 'application/gzip'],
+    maxBytes: 2 * GB,
+    attachTo: 'run',
+  },
+  'other-document': {
+    label: 'Other document',
+    accepts: [...DOCUMENT_TYPES, 'image/webp'],
+    maxBytes: 50 * MB,
+    attachTo: 'event',
+  },
 }
 
 /** A file name we store and show: no path separators, no control characters, at most 200 characters. */
@@ -41,9 +85,21 @@ export function fileNameProblem(name: string): string | null {
 
 /** What a file name's extension promises; the content's magic bytes must keep the promise. */
 const EXTENSIONS: Record<string, string[]> = {
-  pdf: ['application/pdf'], png: ['image/png'], jpg: ['image/jpeg'], jpeg: ['image/jpeg'], webp: ['image/webp'], heic: ['image/heic'],
-  mp4: ['video/mp4'], mov: ['video/quicktime'], webm: ['video/webm'], mkv: ['video/x-matroska'],
-  csv: [TEXT], txt: [TEXT], log: [TEXT], zip: ['application/zip'], gz: ['application/gzip'],
+  pdf: ['application/pdf'],
+  png: ['image/png'],
+  jpg: ['image/jpeg'],
+  jpeg: ['image/jpeg'],
+  webp: ['image/webp'],
+  heic: ['image/heic'],
+  mp4: ['video/mp4'],
+  mov: ['video/quicktime'],
+  webm: ['video/webm'],
+  mkv: ['video/x-matroska'],
+  csv: [TEXT],
+  txt: [TEXT],
+  log: [TEXT],
+  zip: ['application/zip'],
+  gz: ['application/gzip'],
 }
 
 export function extensionMismatch(name: string, detected: string): string | null {
@@ -53,4 +109,11 @@ export function extensionMismatch(name: string, detected: string): string | null
   return `the name ends in .${ext} but the content is ${detected === TEXT ? 'text' : detected}`
 }
 
-export const formatBytes = (n: number) => (n >= GB ? `${(n / GB).toFixed(2)} GB` : n >= MB ? `${(n / MB).toFixed(1)} MB` : n >= 1024 ? `${(n / 1024).toFixed(0)} kB` : `${n} B`)
+export const formatBytes = (n: number) =>
+  n >= GB
+    ? `${(n / GB).toFixed(2)} GB`
+    : n >= MB
+      ? `${(n / MB).toFixed(1)} MB`
+      : n >= 1024
+        ? `${(n / 1024).toFixed(0)} kB`
+        : `${n} B`

@@ -10,7 +10,10 @@ export interface Answer {
   note?: string | null
 }
 
-export interface BusContext { busVoltageV?: number | null, busKind?: 'dc' | 'ac' | null }
+export interface BusContext {
+  busVoltageV?: number | null
+  busKind?: 'dc' | 'ac' | null
+}
 
 /** Units a measurement may be typed in, with the factor to the item's unit. */
 export const UNIT_FACTORS: Record<string, Record<string, number>> = {
@@ -21,7 +24,8 @@ export const UNIT_FACTORS: Record<string, Record<string, number>> = {
 
 export function toItemUnit(item: ChecklistItem, value: number, unit: string): number {
   const factor = UNIT_FACTORS[item.unit ?? '']?.[unit]
-  if (factor === undefined) throw new RangeError(`must be in ${Object.keys(UNIT_FACTORS[item.unit ?? ''] ?? {}).join(', ')}`)
+  if (factor === undefined)
+    throw new RangeError(`must be in ${Object.keys(UNIT_FACTORS[item.unit ?? ''] ?? {}).join(', ')}`)
   return value * factor
 }
 
@@ -35,16 +39,30 @@ export interface ItemVerdict {
  * Checks a measurement against its limit. Isolation: measured resistance ÷ bus voltage against
  * 100 Ω/V on a DC bus and 500 Ω/V on an AC bus (UN ECE Regulation 100, 5.1.3).
  */
-export function checkMeasurement(item: ChecklistItem, value: number | null | undefined, bus: BusContext): ItemVerdict {
-  if (item.kind !== 'measure' || value === null || value === undefined || !item.limit) return { withinLimit: null, message: null }
+export function checkMeasurement(
+  item: ChecklistItem,
+  value: number | null | undefined,
+  bus: BusContext,
+): ItemVerdict {
+  if (item.kind !== 'measure' || value === null || value === undefined || !item.limit)
+    return { withinLimit: null, message: null }
   const l = item.limit
-  if (l.kind === 'max') return value <= l.value ? { withinLimit: true, message: null } : { withinLimit: false, message: `${value} ${item.unit} is over the limit of ${l.value} ${item.unit}` }
-  if (l.kind === 'min') return value >= l.value ? { withinLimit: true, message: null } : { withinLimit: false, message: `${value} ${item.unit} is under the minimum of ${l.value} ${item.unit}` }
-  if (!bus.busVoltageV || !bus.busKind) return { withinLimit: null, message: 'enter the bus voltage and whether it is DC or AC to check the isolation' }
+  if (l.kind === 'max')
+    return value <= l.value
+      ? { withinLimit: true, message: null }
+      : { withinLimit: false, message: `${value} ${item.unit} is over the limit of ${l.value} ${item.unit}` }
+  if (l.kind === 'min')
+    return value >= l.value
+      ? { withinLimit: true, message: null }
+      : { withinLimit: false, message: `${value} ${item.unit} is under the minimum of ${l.value} ${item.unit}` }
+  if (!bus.busVoltageV || !bus.busKind)
+    return { withinLimit: null, message: 'enter the bus voltage and whether it is DC or AC to check the isolation' }
   const perVolt = value / bus.busVoltageV
   const needed = bus.busKind === 'dc' ? l.dc : l.ac
   const text = `${perVolt.toFixed(1)} Ω/V at ${bus.busVoltageV} V ${bus.busKind.toUpperCase()}`
-  return perVolt >= needed ? { withinLimit: true, message: `${text}, at least ${needed} Ω/V needed` } : { withinLimit: false, message: `${text} is under the ${needed} Ω/V needed` }
+  return perVolt >= needed
+    ? { withinLimit: true, message: `${text}, at least ${needed} Ω/V needed` }
+    : { withinLimit: false, message: `${text} is under the ${needed} Ω/V needed` }
 }
 
 export const allItems = (t: ChecklistTemplate) => t.sections.flatMap(s => s.items)
@@ -60,7 +78,11 @@ export function missingItems(t: ChecklistTemplate, answers: Answer[]): Checklist
 }
 
 /** An entry is cleared only by a signed inspection with every item passed or not applicable. */
-export function clears(t: ChecklistTemplate, answers: Answer[], signed: boolean): { cleared: boolean, why: string } {
+export function clears(
+  t: ChecklistTemplate,
+  answers: Answer[],
+  signed: boolean,
+): { cleared: boolean, why: string } {
   if (!signed) return { cleared: false, why: 'the inspection is not signed' }
   const missing = missingItems(t, answers)
   if (missing.length) return { cleared: false, why: `items not answered: ${missing.map(i => i.label).join('; ')}` }

@@ -22,7 +22,10 @@ export interface ChecklistItem {
   certainty: Certainty
 }
 
-export interface ChecklistSection { title: string, items: ChecklistItem[] }
+export interface ChecklistSection {
+  title: string
+  items: ChecklistItem[]
+}
 
 export interface ChecklistTemplate {
   id: string
@@ -32,4 +35,5 @@ export interface ChecklistTemplate {
   sections: ChecklistSection[]
 }
 
-export const CHECKLIST_CAUTION = 'This checklist is a template. The applicable rulebook, the chief scrutineer and qualified high-voltage practice decide; Trapline records the inspection, it does not certify safety.'
+export const CHECKLIST_CAUTION
+  = 'This checklist is a template. The applicable rulebook, the chief scrutineer and qualified high-voltage practice decide; Trapline records the inspection, it does not certify safety.'

@@ -5,7 +5,13 @@ const SEEN = { source: 'published rulebook and safety-standard extracts', certai
 const riderControls: ChecklistSection = {
   title: 'Rider controls',
   items: [
-    { key: 'cutoff-lanyard', label: 'Emergency cut-off on the handlebar, tethered to the rider by a non-elastic lanyard, breaks the power supply', kind: 'check', ...SEEN },
+    {
+      key: 'cutoff-lanyard',
+      label:
+        'Emergency cut-off on the handlebar, tethered to the rider by a non-elastic lanyard, breaks the power supply',
+      kind: 'check',
+      ...SEEN,
+    },
     { key: 'cutoff-reach', label: 'Cut-off reachable without letting go of the bars', kind: 'check', ...SEEN },
   ],
 }
@@ -13,32 +19,75 @@ const riderControls: ChecklistSection = {
 const highVoltage: ChecklistSection = {
   title: 'High-voltage system',
   items: [
-    { key: 'live-dash-light', label: '"Live" indicator light on the dashboard, flashing when the system is live', kind: 'check', ...SEEN },
-    { key: 'live-rear-light', label: '"Live" indicator light at the rear, flashing when the system is live', kind: 'check', ...SEEN },
+    {
+      key: 'live-dash-light',
+      label: '"Live" indicator light on the dashboard, flashing when the system is live',
+      kind: 'check',
+      ...SEEN,
+    },
+    {
+      key: 'live-rear-light',
+      label: '"Live" indicator light at the rear, flashing when the system is live',
+      kind: 'check',
+      ...SEEN,
+    },
     { key: 'hv-cables-orange', label: 'High-voltage cables in orange covering', kind: 'check', ...SEEN },
     {
-      key: 'isolation', label: 'Isolation resistance of the high-voltage bus', kind: 'measure', unit: 'Ω',
+      key: 'isolation',
+      label: 'Isolation resistance of the high-voltage bus',
+      kind: 'measure',
+      unit: 'Ω',
       limit: { kind: 'isolation-per-volt', dc: 100, ac: 500 },
-      source: 'UN ECE Regulation 100, 5.1.3: at least 100 Ω per volt for DC and 500 Ω per volt for AC', certainty: 'seen',
+      source: 'UN ECE Regulation 100, 5.1.3: at least 100 Ω per volt for DC and 500 Ω per volt for AC',
+      certainty: 'seen',
     },
-    { key: 'bonding', label: 'Bonding of exposed conductive parts', kind: 'measure', unit: 'Ω', limit: { kind: 'max', value: 0.1 }, source: 'published safety-standard extracts: below 0.1 Ω', certainty: 'seen' },
+    {
+      key: 'bonding',
+      label: 'Bonding of exposed conductive parts',
+      kind: 'measure',
+      unit: 'Ω',
+      limit: { kind: 'max', value: 0.1 },
+      source: 'published safety-standard extracts: below 0.1 Ω',
+      certainty: 'seen',
+    },
   ],
 }
 
 const chassis: ChecklistSection = {
   title: 'Machine',
   items: [
-    { key: 'chain-guard', label: 'Chain guard on any exposed chain', kind: 'check', allowNotApplicable: true, ...SEEN },
+    {
+      key: 'chain-guard',
+      label: 'Chain guard on any exposed chain',
+      kind: 'check',
+      allowNotApplicable: true,
+      ...SEEN,
+    },
     { key: 'stands-removed', label: 'Stands, mirrors and passenger pegs removed', kind: 'check', ...SEEN },
     { key: 'lenses-taped', label: 'Lenses taped', kind: 'check', allowNotApplicable: true, ...SEEN },
-    { key: 'tyres-rated', label: 'Tyres rated for the speed (above 200 mph, tyres designated by the maker for that use)', kind: 'check', source: 'club rule', certainty: 'seen' },
+    {
+      key: 'tyres-rated',
+      label: 'Tyres rated for the speed (above 200 mph, tyres designated by the maker for that use)',
+      kind: 'check',
+      source: 'club rule',
+      certainty: 'seen',
+    },
   ],
 }
 
 const streamlining: ChecklistSection = {
   title: 'Streamlining',
   items: [
-    { key: 'canopy-exit', label: 'Rider exits unaided with the canopy shut', kind: 'measure', unit: 's', limit: { kind: 'max', value: 30 }, allowNotApplicable: true, source: 'reported: 30 s', certainty: 'seen' },
+    {
+      key: 'canopy-exit',
+      label: 'Rider exits unaided with the canopy shut',
+      kind: 'measure',
+      unit: 's',
+      limit: { kind: 'max', value: 30 },
+      allowNotApplicable: true,
+      source: 'reported: 30 s',
+      certainty: 'seen',
+    },
   ],
 }
 
@@ -54,20 +103,53 @@ const riderKit: ChecklistSection = {
 const mass: ChecklistSection = {
   title: 'Mass',
   items: [
-    { key: 'mass', label: 'Mass on a calibrated scale (the scale certificate is evidence)', kind: 'measure', unit: 'kg', limit: { kind: 'min', value: 1 }, ...SEEN } satisfies ChecklistItem,
+    {
+      key: 'mass',
+      label: 'Mass on a calibrated scale (the scale certificate is evidence)',
+      kind: 'measure',
+      unit: 'kg',
+      limit: { kind: 'min', value: 1 },
+      ...SEEN,
+    } satisfies ChecklistItem,
   ],
 }
 
 export const electricMotorcycle: ChecklistTemplate = {
-  id: 'electric-motorcycle', version: 1, name: 'Electric motorcycle', power: 'electric',
+  id: 'electric-motorcycle',
+  version: 1,
+  name: 'Electric motorcycle',
+  power: 'electric',
   sections: [riderControls, highVoltage, chassis, streamlining, riderKit, mass],
 }
 
 export const combustionMotorcycle: ChecklistTemplate = {
-  id: 'combustion-motorcycle', version: 1, name: 'Combustion motorcycle', power: 'combustion',
-  sections: [{ ...riderControls, items: riderControls.items.map(i => (i.key === 'cutoff-lanyard' ? { ...i, label: 'Emergency cut-off on the handlebar, tethered to the rider by a non-elastic lanyard, stops the engine' } : i)) }, chassis, streamlining, riderKit, mass],
+  id: 'combustion-motorcycle',
+  version: 1,
+  name: 'Combustion motorcycle',
+  power: 'combustion',
+  sections: [
+    {
+      ...riderControls,
+      items: riderControls.items.map(i =>
+        i.key === 'cutoff-lanyard'
+          ? {
+              ...i,
+              label:
+                'Emergency cut-off on the handlebar, tethered to the rider by a non-elastic lanyard, stops the engine',
+            }
+          : i,
+      ),
+    },
+    chassis,
+    streamlining,
+    riderKit,
+    mass,
+  ],
 }
 
-export const checklistLibrary = { 'electric-motorcycle': electricMotorcycle, 'combustion-motorcycle': combustionMotorcycle } as const
+export const checklistLibrary = {
+  'electric-motorcycle': electricMotorcycle,
+  'combustion-motorcycle': combustionMotorcycle,
+} as const
 export type ChecklistId = keyof typeof checklistLibrary
 export const CHECKLIST_IDS = Object.keys(checklistLibrary) as ChecklistId[]

@@ -1,6 +1,4 @@
-import {
-  add, ceilTo, cmp, div, floorTo, isPositive, mul, q, sub, toFixed, toNumber, type Q,
-} from './exact'
+import { add, ceilTo, cmp, div, floorTo, isPositive, mul, q, sub, toFixed, toNumber, type Q } from './exact'
 import type { Finding } from './findings'
 import { describeWindow, type RuleProfile, type WindowAnchor } from './profile'
 import { speed } from './timing'
@@ -62,8 +60,16 @@ export interface AttemptResult {
   findings: Finding[]
 }
 
-const ruleOf = (profile: RuleProfile, key: 'runs' | 'window' | 'averaging' | 'margin', name: string, value: string) => ({
-  name, value, source: profile[key].source, certainty: profile[key].certainty,
+const ruleOf = (
+  profile: RuleProfile,
+  key: 'runs' | 'window' | 'averaging' | 'margin',
+  name: string,
+  value: string,
+) => ({
+  name,
+  value,
+  source: profile[key].source,
+  certainty: profile[key].certainty,
 })
 
 const publish = (profile: RuleProfile, v: Q, unit: SpeedUnit) =>
@@ -94,7 +100,14 @@ function evaluateWindow(profile: RuleProfile, runs: RunInput[], timeZone: string
   const deadlineMs = from ? Math.floor(toNumber(add(from, limitMs))) : null
   if (!from || !to) return { ok: true, rule, usedS: null, deadlineMs, opensMs: null, closingAnchor: w.to }
   const used = sub(to, from)
-  return { ok: cmp(used, limitMs) <= 0, rule, usedS: div(used, q(1000n)), deadlineMs, opensMs: null, closingAnchor: w.to }
+  return {
+    ok: cmp(used, limitMs) <= 0,
+    rule,
+    usedS: div(used, q(1000n)),
+    deadlineMs,
+    opensMs: null,
+    closingAnchor: w.to,
+  }
 }
 
 /** The smallest exact speed (m/s) whose published figure counts against the record. */
@@ -117,7 +130,14 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
 
   const figures: RunFigures[] = runs.map((r) => {
     const v = speed(distanceM, r.elapsedS)
-    return { direction: r.direction, startedAtMs: r.startedAtMs, elapsedS: r.elapsedS, speedMs: v, kmh: publish(profile, v, 'km/h'), mph: publish(profile, v, 'mph') }
+    return {
+      direction: r.direction,
+      startedAtMs: r.startedAtMs,
+      elapsedS: r.elapsedS,
+      speedMs: v,
+      kmh: publish(profile, v, 'km/h'),
+      mph: publish(profile, v, 'mph'),
+    }
   })
 
   const wanted = profile.runs.value.directions
@@ -126,7 +146,10 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     findings.push({
       code: 'pair.awaiting-return',
       severity: 'info',
-      message: wanted === 'opposite' ? 'One run so far: the return run in the opposite direction completes the pair.' : 'One run so far: the record run in the same direction completes the pair.',
+      message:
+        wanted === 'opposite'
+          ? 'One run so far: the return run in the opposite direction completes the pair.'
+          : 'One run so far: the record run in the same direction completes the pair.',
       rule: ruleOf(profile, 'runs', 'Runs', `2, ${wanted} directions`),
     })
   }
@@ -136,13 +159,20 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
       findings.push({
         code: 'pair.direction',
         severity: 'fail',
-        message: wanted === 'opposite' ? 'Both runs went the same way; the profile needs one run in each direction.' : 'The runs went in opposite directions; the profile needs both in the same direction.',
+        message:
+          wanted === 'opposite'
+            ? 'Both runs went the same way; the profile needs one run in each direction.'
+            : 'The runs went in opposite directions; the profile needs both in the same direction.',
         rule: ruleOf(profile, 'runs', 'Runs', `2, ${wanted} directions`),
       })
     }
     const firstFinish = first!.startedAtMs + toNumber(first!.elapsedS) * 1000
     if (second.startedAtMs < firstFinish) {
-      findings.push({ code: 'pair.overlap', severity: 'fail', message: 'The second run starts before the first one finished: check the start times.' })
+      findings.push({
+        code: 'pair.overlap',
+        severity: 'fail',
+        message: 'The second run starts before the first one finished: check the start times.',
+      })
     }
   }
 
@@ -151,9 +181,10 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     findings.push({
       code: 'window.exceeded',
       severity: 'fail',
-      message: profile.window.value.kind === 'next-day'
-        ? 'The record run is not on the calendar day after the qualifying run.'
-        : `The runs took ${toFixed(div(window.usedS!, q(60n)), 1, 'truncate')} min between the anchors; the window is ${window.rule}.`,
+      message:
+        profile.window.value.kind === 'next-day'
+          ? 'The record run is not on the calendar day after the qualifying run.'
+          : `The runs took ${toFixed(div(window.usedS!, q(60n)), 1, 'truncate')} min between the anchors; the window is ${window.rule}.`,
       rule: ruleOf(profile, 'window', 'Time window', window.rule),
     })
   }
@@ -162,9 +193,10 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
   let result: AttemptResult['result'] = null
   if (second) {
     meanTimeS = div(add(first!.elapsedS, second.elapsedS), q(2n))
-    const v = profile.averaging.value === 'mean-of-times'
-      ? speed(distanceM, meanTimeS)
-      : div(add(figures[0]!.speedMs, figures[1]!.speedMs), q(2n))
+    const v
+      = profile.averaging.value === 'mean-of-times'
+        ? speed(distanceM, meanTimeS)
+        : div(add(figures[0]!.speedMs, figures[1]!.speedMs), q(2n))
     result = { speedMs: v, kmh: publish(profile, v, 'km/h'), mph: publish(profile, v, 'mph') }
     if (profile.averaging.certainty === 'not settled') {
       findings.push({
@@ -184,10 +216,19 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     const t = thresholdSpeed(profile, input.record)
     const unit = input.record.unit
     required = { value: t.figure, text: toFixed(t.figure, decimals, 'truncate'), unit }
-    const marginRule = ruleOf(profile, 'margin', 'Improvement needed',
-      profile.margin.value.percent ? `at least ${profile.margin.value.percent} % over the standing record` : 'exceed the standing record')
+    const marginRule = ruleOf(
+      profile,
+      'margin',
+      'Improvement needed',
+      profile.margin.value.percent
+        ? `at least ${profile.margin.value.percent} % over the standing record`
+        : 'exceed the standing record',
+    )
     if (result) {
-      const fig = q(BigInt(toFixed(convertSpeed(result.speedMs, 'm/s', unit), decimals, rounding).replace('.', '')), 10n ** BigInt(decimals))
+      const fig = q(
+        BigInt(toFixed(convertSpeed(result.speedMs, 'm/s', unit), decimals, rounding).replace('.', '')),
+        10n ** BigInt(decimals),
+      )
       beatsRecord = cmp(fig, t.figure) >= 0
       if (!beatsRecord) {
         const overOld = cmp(fig, input.record.value) > 0
@@ -218,7 +259,13 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
  * The longest return time t2 such that the pair still reaches speed vMin: under the mean of times,
  * d / ((t1 + t2) / 2) ≥ vMin ⇔ t2 ≤ 2d / vMin − t1. Floored to the timing resolution; null if none.
  */
-export function returnTarget(profile: RuleProfile, distanceM: Q, first: { elapsedS: Q, speedMs: Q }, vMin: Q, decimals: number): Q | null {
+export function returnTarget(
+  profile: RuleProfile,
+  distanceM: Q,
+  first: { elapsedS: Q, speedMs: Q },
+  vMin: Q,
+  decimals: number,
+): Q | null {
   let longest: Q
   if (profile.averaging.value === 'mean-of-times') {
     longest = sub(div(mul(q(2n), distanceM), vMin), first.elapsedS)

@@ -7,26 +7,48 @@ import { profiles } from './profiles'
 export function calculate(req: CalculatorRequest): CalculatorResponse {
   const profile = profiles[req.profile]
   const timeDecimals = Math.max(3, ...req.runs.map(r => decimalsOf(r.elapsedS)))
-  const record = req.recordKmh !== undefined
-    ? { value: fromNumber(req.recordKmh), unit: 'km/h' as const }
-    : req.recordMph !== undefined ? { value: fromNumber(req.recordMph), unit: 'mph' as const } : undefined
+  const record
+    = req.recordKmh !== undefined
+      ? { value: fromNumber(req.recordKmh), unit: 'km/h' as const }
+      : req.recordMph !== undefined
+        ? { value: fromNumber(req.recordMph), unit: 'mph' as const }
+        : undefined
   const r = evaluateAttempt({
     profile,
     distanceM: fromNumber(req.distanceM),
-    runs: req.runs.map(run => ({ direction: run.direction, startedAtMs: Date.parse(run.startedAt), elapsedS: fromInput(run.elapsedS) })),
+    runs: req.runs.map(run => ({
+      direction: run.direction,
+      startedAtMs: Date.parse(run.startedAt),
+      elapsedS: fromInput(run.elapsedS),
+    })),
     record,
     timeZone: req.timeZone,
     timeDecimals,
   })
   const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
   return {
-    profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
-    runs: r.runs.map(x => ({ direction: x.direction, elapsedS: toFixed(x.elapsedS, timeDecimals), speedKmh: x.kmh, speedMph: x.mph })),
+    profile: {
+      id: profile.id,
+      version: profile.version,
+      name: profile.name,
+      decimals: profile.figures.value.decimals,
+    },
+    runs: r.runs.map(x => ({
+      direction: x.direction,
+      elapsedS: toFixed(x.elapsedS, timeDecimals),
+      speedKmh: x.kmh,
+      speedMph: x.mph,
+    })),
     meanTimeS: r.meanTimeS ? exactTime(r.meanTimeS, timeDecimals) : null,
     resultKmh: r.result?.kmh ?? null,
     resultMph: r.result?.mph ?? null,
     windowOk: r.window.ok,
-    window: { rule: r.window.rule, usedS: r.window.usedS ? toFixed(r.window.usedS, 3) : null, deadline: iso(r.window.deadlineMs), opens: iso(r.window.opensMs) },
+    window: {
+      rule: r.window.rule,
+      usedS: r.window.usedS ? toFixed(r.window.usedS, 3) : null,
+      deadline: iso(r.window.deadlineMs),
+      opens: iso(r.window.opensMs),
+    },
     beatsRecord: r.beatsRecord,
     required: r.required ? { figure: r.required.text, unit: r.required.unit } : null,
     returnTargetS: r.returnTargetS ? toFixed(r.returnTargetS, timeDecimals) : null,

@@ -25,12 +25,19 @@ export function checkWind(profile: RuleProfile, wind: WindComponents): Finding[]
   const limit = profile.tailWindLimitMs.value
   const tail = -wind.headMs
   if (limit === null || tail <= limit) return []
-  return [{
-    code: 'wind.tail-over-limit',
-    severity: 'fail',
-    message: `Tail-wind component ${tail.toFixed(2)} m/s is over the profile's limit of ${limit} m/s.`,
-    rule: { name: 'Tail-wind limit', value: `${limit} m/s`, source: profile.tailWindLimitMs.source, certainty: profile.tailWindLimitMs.certainty },
-  }]
+  return [
+    {
+      code: 'wind.tail-over-limit',
+      severity: 'fail',
+      message: `Tail-wind component ${tail.toFixed(2)} m/s is over the profile's limit of ${limit} m/s.`,
+      rule: {
+        name: 'Tail-wind limit',
+        value: `${limit} m/s`,
+        source: profile.tailWindLimitMs.source,
+        certainty: profile.tailWindLimitMs.certainty,
+      },
+    },
+  ]
 }
 
 /** Gradient in percent from surveyed elevations at both ends and the horizontal distance between them. */
@@ -42,16 +49,27 @@ export function gradientPercent(elevationStartM: Q, elevationEndM: Q, horizontal
 export function checkGradient(profile: RuleProfile, percent: Q): Finding[] {
   const limit = profile.gradientMaxPercent.value
   if (limit === null || cmp(abs(percent), fromInput(limit)) <= 0) return []
-  return [{
-    code: 'course.gradient-over-limit',
-    severity: 'fail',
-    message: `The measured distance has a gradient of ${toFixed(abs(percent), 3, 'round')} %, over the limit of ${limit} %.`,
-    rule: { name: 'Course gradient', value: `at most ${limit} %`, source: profile.gradientMaxPercent.source, certainty: profile.gradientMaxPercent.certainty },
-  }]
+  return [
+    {
+      code: 'course.gradient-over-limit',
+      severity: 'fail',
+      message: `The measured distance has a gradient of ${toFixed(abs(percent), 3, 'round')} %, over the limit of ${limit} %.`,
+      rule: {
+        name: 'Course gradient',
+        value: `at most ${limit} %`,
+        source: profile.gradientMaxPercent.source,
+        certainty: profile.gradientMaxPercent.certainty,
+      },
+    },
+  ]
 }
 
 /** Primary and backup timing systems should agree on a segment within the equipment's tolerance. */
-export function crossCheck(primaryS: Q, backupS: Q, toleranceS: Q): { differenceS: Q, ok: boolean, findings: Finding[] } {
+export function crossCheck(
+  primaryS: Q,
+  backupS: Q,
+  toleranceS: Q,
+): { differenceS: Q, ok: boolean, findings: Finding[] } {
   const differenceS = abs(sub(primaryS, backupS))
   const ok = cmp(differenceS, toleranceS) <= 0
   return {
@@ -59,11 +77,13 @@ export function crossCheck(primaryS: Q, backupS: Q, toleranceS: Q): { difference
     ok,
     findings: ok
       ? []
-      : [{
-          code: 'timing.cross-check',
-          severity: 'fail',
-          message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
-        }],
+      : [
+          {
+            code: 'timing.cross-check',
+            severity: 'fail',
+            message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
+          },
+        ],
   }
 }
 

@@ -33,7 +33,16 @@ export function checkMeasuredDistance(
       message: `The traps are ${toFixed(surveyed, 3)} m apart, ${toFixed(difference, 0, 'round')} mm from the nominal ${nominalM} m; the survey tolerance is ${toleranceMm} mm.`,
     })
   }
-  const gradient = cmp(surveyed, q(0n)) > 0 ? gradientPercent(fromDecimal(entry.elevationM), fromDecimal(exit.elevationM), surveyed) : q(0n)
+  const gradient
+    = cmp(surveyed, q(0n)) > 0
+      ? gradientPercent(fromDecimal(entry.elevationM), fromDecimal(exit.elevationM), surveyed)
+      : q(0n)
   findings.push(...checkGradient(profile, gradient))
-  return { surveyedM: toFixed(surveyed, 3), differenceMm: toFixed(difference, 0, 'round'), withinTolerance, gradientPercent: toFixed(gradient, 4, 'round'), findings }
+  return {
+    surveyedM: toFixed(surveyed, 3),
+    differenceMm: toFixed(difference, 0, 'round'),
+    withinTolerance,
+    gradientPercent: toFixed(gradient, 4, 'round'),
+    findings,
+  }
 }

@@ -19,7 +19,10 @@ export function q(n: bigint | number, d: bigint | number = 1n): Q {
   let nn = BigInt(n)
   let dd = BigInt(d)
   if (dd === 0n) throw new RangeError('division by zero')
-  if (dd < 0n) { nn = -nn; dd = -dd }
+  if (dd < 0n) {
+    nn = -nn
+    dd = -dd
+  }
   const g = gcd(nn, dd) || 1n
   return { n: nn / g, d: dd / g }
 }
@@ -73,7 +76,7 @@ export const fromInput = (x: number | string): Q => (typeof x === 'number' ? fro
 export const toNumber = (a: Q): number => {
   const intPart = a.n / a.d
   const rest = a.n - intPart * a.d
-  return Number(intPart) + Number(rest * 10n ** 17n / a.d) / 1e17
+  return Number(intPart) + Number((rest * 10n ** 17n) / a.d) / 1e17
 }
 
 const pow10 = (k: number) => 10n ** BigInt(k)

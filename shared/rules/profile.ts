@@ -81,17 +81,35 @@ export function describeWindow(w: RunWindow): string {
 export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown): string {
   if (value === null || value === undefined) return 'none'
   switch (key) {
-    case 'window': return describeWindow(value as RunWindow)
-    case 'distances': return (value as MeasuredDistanceSpec[]).map(d => `${d.label} (${d.metres} m)`).join('; ')
-    case 'figures': { const f = value as { decimals: number, rounding: string }; return `${f.decimals} decimals, ${f.rounding === 'truncate' ? 'truncated' : 'rounded'}` }
-    case 'margin': { const m = value as { percent: number, inclusive: boolean }; return m.percent ? `at least ${m.percent} % over the standing record` : 'exceed the standing record' }
-    case 'runs': { const r = value as { count: number, directions: string }; return `${r.count}, ${r.directions} directions` }
-    case 'averaging': return value === 'mean-of-times' ? 'distance over the mean of the times' : 'mean of the speeds'
-    case 'impoundMinutes': return `${value} min`
-    case 'gradientMaxPercent': return `at most ${value} %`
-    case 'tailWindLimitMs': return `at most ${value} m/s`
-    case 'bestPerDayOnly': return value ? 'only the best result per class each day goes forward' : 'every result goes forward'
-    case 'massClasses': return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')
-    default: return String(value)
+    case 'window':
+      return describeWindow(value as RunWindow)
+    case 'distances':
+      return (value as MeasuredDistanceSpec[]).map(d => `${d.label} (${d.metres} m)`).join('; ')
+    case 'figures': {
+      const f = value as { decimals: number, rounding: string }
+      return `${f.decimals} decimals, ${f.rounding === 'truncate' ? 'truncated' : 'rounded'}`
+    }
+    case 'margin': {
+      const m = value as { percent: number, inclusive: boolean }
+      return m.percent ? `at least ${m.percent} % over the standing record` : 'exceed the standing record'
+    }
+    case 'runs': {
+      const r = value as { count: number, directions: string }
+      return `${r.count}, ${r.directions} directions`
+    }
+    case 'averaging':
+      return value === 'mean-of-times' ? 'distance over the mean of the times' : 'mean of the speeds'
+    case 'impoundMinutes':
+      return `${value} min`
+    case 'gradientMaxPercent':
+      return `at most ${value} %`
+    case 'tailWindLimitMs':
+      return `at most ${value} m/s`
+    case 'bestPerDayOnly':
+      return value ? 'only the best result per class each day goes forward' : 'every result goes forward'
+    case 'massClasses':
+      return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')
+    default:
+      return String(value)
   }
 }

@@ -11,12 +11,37 @@ import { convertSpeed } from './units'
  */
 export const SANITY_MAX_KMH = 1500
 
-export interface TrapDef { id: number, label: string, positionM: string, elevationM: string }
-export interface DistanceDef { id: number, label: string, nominalM: string, entryTrapId: number, exitTrapId: number }
-export interface SystemDef { id: number, name: string, role: 'primary' | 'backup', ticksPerSecond: number, toleranceS: string }
+export interface TrapDef {
+  id: number
+  label: string
+  positionM: string
+  elevationM: string
+}
+export interface DistanceDef {
+  id: number
+  label: string
+  nominalM: string
+  entryTrapId: number
+  exitTrapId: number
+}
+export interface SystemDef {
+  id: number
+  name: string
+  role: 'primary' | 'backup'
+  ticksPerSecond: number
+  toleranceS: string
+}
 /** Only the current readings: corrections already applied. Ticks as a decimal string of an integer. */
-export interface ReadingDef { id: number, trapId: number, systemId: number, ticks: string }
-export interface WeatherDef { windSpeedMs: string, windFromDeg: string }
+export interface ReadingDef {
+  id: number
+  trapId: number
+  systemId: number
+  ticks: string
+}
+export interface WeatherDef {
+  windSpeedMs: string
+  windFromDeg: string
+}
 
 export interface RunSheetFinding extends Finding {
   trapId?: number
@@ -24,7 +49,12 @@ export interface RunSheetFinding extends Finding {
   distanceId?: number
 }
 
-export interface TimedFigure { timeS: string, kmh: string, mph: string, exactS: Q }
+export interface TimedFigure {
+  timeS: string
+  kmh: string
+  mph: string
+  exactS: Q
+}
 
 export interface RunComputation {
   systems: {
@@ -80,7 +110,10 @@ export function computeRun(input: {
       const dt = at.get(b.id)! - at.get(a.id)!
       if (dt <= 0n) {
         findings.push({
-          code: 'reading.out-of-order', severity: 'fail', trapId: b.id, systemId: system.id,
+          code: 'reading.out-of-order',
+          severity: 'fail',
+          trapId: b.id,
+          systemId: system.id,
           message: `${system.name}: the time at ${b.label} (${formatTimeOfDay(at.get(b.id)!, tps)}) is not after the time at ${a.label} (${formatTimeOfDay(at.get(a.id)!, tps)}), the trap before it on this run.`,
         })
         continue
@@ -89,7 +122,10 @@ export function computeRun(input: {
       const f = figure(input.profile, lengthM, q(dt, tps), timeDecimals)
       if (Number(f.kmh) > SANITY_MAX_KMH) {
         findings.push({
-          code: 'reading.implausible-speed', severity: 'fail', trapId: b.id, systemId: system.id,
+          code: 'reading.implausible-speed',
+          severity: 'fail',
+          trapId: b.id,
+          systemId: system.id,
           message: `${system.name}: ${f.kmh} km/h from ${a.label} to ${b.label} is beyond ${SANITY_MAX_KMH} km/h; check the times.`,
         })
       }
@@ -122,16 +158,29 @@ export function computeRun(input: {
       const tolerance = fromDecimal(primarySystem.toleranceS)
       const difference = abs(sub(p.exactS, b.exactS))
       const ok = cmp(difference, tolerance) <= 0
-      out.crossChecks.push({ distanceId: d.id, label: d.label, differenceS: toFixed(difference, 6, 'round'), toleranceS: toFixed(tolerance, 6, 'round'), ok })
+      out.crossChecks.push({
+        distanceId: d.id,
+        label: d.label,
+        differenceS: toFixed(difference, 6, 'round'),
+        toleranceS: toFixed(tolerance, 6, 'round'),
+        ok,
+      })
       if (!ok) {
         findings.push({
-          code: 'timing.cross-check', severity: 'fail', distanceId: d.id,
+          code: 'timing.cross-check',
+          severity: 'fail',
+          distanceId: d.id,
           message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by ${toFixed(difference, 6, 'round')} s, more than the tolerance of ${toFixed(tolerance, 6, 'round')} s. The timekeeper must resolve it in writing.`,
         })
       }
     }
     else if (!p && b) {
-      findings.push({ code: 'timing.backup-only', severity: 'warn', distanceId: d.id, message: `${d.label}: only the backup system timed this distance.` })
+      findings.push({
+        code: 'timing.backup-only',
+        severity: 'warn',
+        distanceId: d.id,
+        message: `${d.label}: only the backup system timed this distance.`,
+      })
     }
   }
 
@@ -142,7 +191,8 @@ export function computeRun(input: {
     findings.push(...checkWind(input.profile, w))
   }
   for (const f of findings) {
-    if (f.trapId && !f.message.includes(trapName.get(f.trapId) ?? '\u0000')) f.message += ` (${trapName.get(f.trapId)})`
+    if (f.trapId && !f.message.includes(trapName.get(f.trapId) ?? '\u0000'))
+      f.message += ` (${trapName.get(f.trapId)})`
   }
   return out
 }

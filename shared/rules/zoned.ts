@@ -6,7 +6,14 @@ function formatter(timeZone: string) {
   let f = formatters.get(timeZone)
   if (!f) {
     f = new Intl.DateTimeFormat('en-CA', {
-      timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+      timeZone,
+      hourCycle: 'h23',
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
     })
     formatters.set(timeZone, f)
   }
@@ -14,13 +21,29 @@ function formatter(timeZone: string) {
 }
 
 export function isTimeZone(timeZone: string): boolean {
-  try { formatter(timeZone); return true }
-  catch { return false }
+  try {
+    formatter(timeZone)
+    return true
+  }
+  catch {
+    return false
+  }
 }
 
 function parts(ms: number, timeZone: string) {
-  const p = Object.fromEntries(formatter(timeZone).formatToParts(new Date(ms)).map(x => [x.type, x.value]))
-  return { y: Number(p.year), m: Number(p.month), d: Number(p.day), h: Number(p.hour), mi: Number(p.minute), s: Number(p.second) }
+  const p = Object.fromEntries(
+    formatter(timeZone)
+      .formatToParts(new Date(ms))
+      .map(x => [x.type, x.value]),
+  )
+  return {
+    y: Number(p.year),
+    m: Number(p.month),
+    d: Number(p.day),
+    h: Number(p.hour),
+    mi: Number(p.minute),
+    s: Number(p.second),
+  }
 }
 
 /** The local calendar date, YYYY-MM-DD. */

@@ -16,7 +16,12 @@ export const setPasswordSchema = z.object({
   name: z.string().trim().min(2).max(120).optional(),
 })
 
-export const changePasswordSchema = z.object({
-  currentPassword: z.string().min(1, { error: 'enter your current password' }).max(200),
-  newPassword: password,
-}).refine(x => x.currentPassword !== x.newPassword, { error: 'must differ from the current password', path: ['newPassword'] })
+export const changePasswordSchema = z
+  .object({
+    currentPassword: z.string().min(1, { error: 'enter your current password' }).max(200),
+    newPassword: password,
+  })
+  .refine(x => x.currentPassword !== x.newPassword, {
+    error: 'must differ from the current password',
+    path: ['newPassword'],
+  })

@@ -8,14 +8,22 @@ export const calculatorRunSchema = z.object({
   elapsedS: positiveDecimal,
 })
 
-export const calculatorRequestSchema = z.object({
-  profile: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
-  distanceM: positiveNumber,
-  runs: z.array(calculatorRunSchema).min(1, { error: 'needs at least one run' }).max(2, { error: 'takes at most two runs' }),
-  recordKmh: positiveNumber.optional(),
-  recordMph: positiveNumber.optional(),
-  timeZone: timeZoneName.optional(),
-}).refine(x => !(x.recordKmh && x.recordMph), { error: 'give the standing record in km/h or in mph, not both', path: ['recordMph'] })
+export const calculatorRequestSchema = z
+  .object({
+    profile: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
+    distanceM: positiveNumber,
+    runs: z
+      .array(calculatorRunSchema)
+      .min(1, { error: 'needs at least one run' })
+      .max(2, { error: 'takes at most two runs' }),
+    recordKmh: positiveNumber.optional(),
+    recordMph: positiveNumber.optional(),
+    timeZone: timeZoneName.optional(),
+  })
+  .refine(x => !(x.recordKmh && x.recordMph), {
+    error: 'give the standing record in km/h or in mph, not both',
+    path: ['recordMph'],
+  })
 
 export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
 
@@ -30,5 +38,10 @@ export interface CalculatorResponse {
   beatsRecord: boolean | null
   required: { figure: string, unit: string } | null
   returnTargetS: string | null
-  findings: { code: string, severity: string, message: string, rule?: { name: string, value: string, source: string, certainty: string } }[]
+  findings: {
+    code: string
+    severity: string
+    message: string
+    rule?: { name: string, value: string, source: string, certainty: string }
+  }[]
 }

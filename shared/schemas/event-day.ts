@@ -5,21 +5,34 @@ import { isoDateTime } from './fields'
 
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
 export const decimalText = (maxDecimals: number, opts: { min?: number, max?: number } = {}) =>
-  z.union([z.string(), z.number()]).transform(String).superRefine((s, ctx) => {
-    let v
-    try { v = fromDecimal(s) }
-    catch { ctx.addIssue({ code: 'custom', message: 'must be a decimal number' }); return }
-    if (decimalsOf(s) > maxDecimals) ctx.addIssue({ code: 'custom', message: `at most ${maxDecimals} decimals` })
-    const n = Number(v.n) / Number(v.d)
-    if (opts.min !== undefined && n < opts.min) ctx.addIssue({ code: 'custom', message: `must be at least ${opts.min}` })
-    if (opts.max !== undefined && n > opts.max) ctx.addIssue({ code: 'custom', message: `must be at most ${opts.max}` })
-  })
+  z
+    .union([z.string(), z.number()])
+    .transform(String)
+    .superRefine((s, ctx) => {
+      let v
+      try {
+        v = fromDecimal(s)
+      }
+      catch {
+        ctx.addIssue({ code: 'custom', message: 'must be a decimal number' })
+        return
+      }
+      if (decimalsOf(s) > maxDecimals) ctx.addIssue({ code: 'custom', message: `at most ${maxDecimals} decimals` })
+      const n = Number(v.n) / Number(v.d)
+      if (opts.min !== undefined && n < opts.min)
+        ctx.addIssue({ code: 'custom', message: `must be at least ${opts.min}` })
+      if (opts.max !== undefined && n > opts.max)
+        ctx.addIssue({ code: 'custom', message: `must be at most ${opts.max}` })
+    })
 
 const id = z.coerce.number({ error: 'must be a number' }).int().positive()
 const label = z.string().trim().min(1, { error: 'is required' }).max(40)
 const day = z.iso.date({ error: 'must be a date, YYYY-MM-DD' })
 /** A time of day read at a trap: HH:MM:SS with a fraction, e.g. 10:15:02.123. */
-export const timeOfDay = z.string().trim().regex(/^\d{1,2}:\d{2}:\d{2}(\.\d{1,6})?$/, { error: 'must be a time of day, HH:MM:SS.fff' })
+export const timeOfDay = z
+  .string()
+  .trim()
+  .regex(/^\d{1,2}:\d{2}:\d{2}(\.\d{1,6})?$/, { error: 'must be a time of day, HH:MM:SS.fff' })
 
 export const courseSchema = z.object({
   name: z.string().trim().min(2).max(80),
@@ -35,25 +48,36 @@ export const trapSchema = z.object({
   elevationM: decimalText(3, { min: -500, max: 9000 }),
 })
 
-export const distanceSchema = z.object({
-  courseId: id,
-  label,
-  start: z.enum(['flying', 'standing']),
-  nominalM: decimalText(3, { min: 1, max: 100_000 }),
-  entryTrapId: id,
-  exitTrapId: id,
-}).refine(x => x.entryTrapId !== x.exitTrapId, { error: 'must differ from the entry trap', path: ['exitTrapId'] })
+export const distanceSchema = z
+  .object({
+    courseId: id,
+    label,
+    start: z.enum(['flying', 'standing']),
+    nominalM: decimalText(3, { min: 1, max: 100_000 }),
+    entryTrapId: id,
+    exitTrapId: id,
+  })
+  .refine(x => x.entryTrapId !== x.exitTrapId, { error: 'must differ from the entry trap', path: ['exitTrapId'] })
 
 export const RESOLUTIONS = [100, 1000, 10_000, 100_000, 1_000_000] as const
-export const timingSystemSchema = z.object({
-  name: z.string().trim().min(2).max(80),
-  role: z.enum(['primary', 'backup']),
-  ticksPerSecond: z.coerce.number().refine(n => (RESOLUTIONS as readonly number[]).includes(n), { error: 'must be 100, 1000, 10000, 100000 or 1000000 ticks per second' }),
-  description: z.string().trim().max(500).default(''),
-  toleranceS: decimalText(6, { min: 0, max: 1 }),
-  calibratedOn: day,
-  calibrationExpires: day,
-}).refine(x => x.calibrationExpires > x.calibratedOn, { error: 'must be after the calibration date', path: ['calibrationExpires'] })
+export const timingSystemSchema = z
+  .object({
+    name: z.string().trim().min(2).max(80),
+    role: z.enum(['primary', 'backup']),
+    ticksPerSecond: z.coerce
+      .number()
+      .refine(n => (RESOLUTIONS as readonly number[]).includes(n), {
+        error: 'must be 100, 1000, 10000, 100000 or 1000000 ticks per second',
+      }),
+    description: z.string().trim().max(500).default(''),
+    toleranceS: decimalText(6, { min: 0, max: 1 }),
+    calibratedOn: day,
+    calibrationExpires: day,
+  })
+  .refine(x => x.calibrationExpires > x.calibratedOn, {
+    error: 'must be after the calibration date',
+    path: ['calibrationExpires'],
+  })
 
 export const standingRecordSchema = z.object({
   className: z.string().trim().min(1).max(80),
@@ -65,37 +89,64 @@ export const standingRecordSchema = z.object({
 
 export const profileAdaptSchema = z.object({
   baseId: z.enum(PROFILE_IDS),
-  windowMinutes: z.coerce.number().int().min(1).max(24 * 60).optional(),
+  windowMinutes: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60)
+    .optional(),
   marginPercent: z.coerce.number().min(0).max(10).optional(),
   tailWindLimitMs: z.coerce.number().min(0).max(20).nullable().optional(),
   witnessStatements: z.coerce.number().int().min(0).max(10).optional(),
   averaging: z.enum(['mean-of-times', 'mean-of-speeds']).optional(),
-  source: z.string().trim().min(3, { error: 'say where the adapted values come from (rulebook and article)' }).max(300),
+  source: z
+    .string()
+    .trim()
+    .min(3, { error: 'say where the adapted values come from (rulebook and article)' })
+    .max(300),
 })
 
-export const entrySchema = z.object({
-  machine: z.object({
-    name: z.string().trim().min(2).max(80),
-    power: z.enum(['electric', 'combustion', 'hybrid']),
-    declaredMassKg: decimalText(1, { min: 1, max: 20_000 }),
-    division: z.enum(['none', 'partial', 'full']),
-  }).optional(),
-  machineId: id.optional(),
-  rider: z.object({
-    name: z.string().trim().min(2).max(80),
-    licenceNo: z.string().trim().min(2).max(40),
-    licenceExpires: day,
-  }).optional(),
-  riderId: id.optional(),
-  className: z.string().trim().min(1).max(80),
-  distanceId: id,
-}).refine(x => !!x.machine !== !!x.machineId, { error: 'give a new machine or pick one already entered', path: ['machine'] })
-  .refine(x => !!x.rider !== !!x.riderId, { error: 'give a new rider or pick one already entered', path: ['rider'] })
+export const entrySchema = z
+  .object({
+    machine: z
+      .object({
+        name: z.string().trim().min(2).max(80),
+        power: z.enum(['electric', 'combustion', 'hybrid']),
+        declaredMassKg: decimalText(1, { min: 1, max: 20_000 }),
+        division: z.enum(['none', 'partial', 'full']),
+      })
+      .optional(),
+    machineId: id.optional(),
+    rider: z
+      .object({
+        name: z.string().trim().min(2).max(80),
+        licenceNo: z.string().trim().min(2).max(40),
+        licenceExpires: day,
+      })
+      .optional(),
+    riderId: id.optional(),
+    className: z.string().trim().min(1).max(80),
+    distanceId: id,
+  })
+  .refine(x => !!x.machine !== !!x.machineId, {
+    error: 'give a new machine or pick one already entered',
+    path: ['machine'],
+  })
+  .refine(x => !!x.rider !== !!x.riderId, {
+    error: 'give a new rider or pick one already entered',
+    path: ['rider'],
+  })
 
 export const startRunSchema = z.object({ entryId: id, direction: z.enum(['out', 'back']), startedAt: isoDateTime })
 export const readingSchema = z.object({ trapId: id, systemId: id, time: timeOfDay })
-export const correctionSchema = z.object({ time: timeOfDay, reason: z.string().trim().min(3, { error: 'say why the time is corrected' }).max(300), expectedCurrentId: z.number().int().positive() })
-export const abortSchema = z.object({ reason: z.string().trim().min(3, { error: 'say why the run is aborted' }).max(300) })
+export const correctionSchema = z.object({
+  time: timeOfDay,
+  reason: z.string().trim().min(3, { error: 'say why the time is corrected' }).max(300),
+  expectedCurrentId: z.number().int().positive(),
+})
+export const abortSchema = z.object({
+  reason: z.string().trim().min(3, { error: 'say why the run is aborted' }).max(300),
+})
 export const weatherSchema = z.object({
   windSpeedMs: decimalText(2, { min: 0, max: 60 }),
   windFromDeg: decimalText(2, { min: 0, max: 360 }),
@@ -107,7 +158,9 @@ export const signSheetSchema = z.object({
   typedName: z.string().trim().min(2, { error: 'type your full name' }).max(120),
   reason: z.string().trim().max(300).optional(),
 })
-export const reopenSheetSchema = signSheetSchema.extend({ reason: z.string().trim().min(3, { error: 'say why the signed sheet is reopened' }).max(300) })
+export const reopenSheetSchema = signSheetSchema.extend({
+  reason: z.string().trim().min(3, { error: 'say why the signed sheet is reopened' }).max(300),
+})
 
 export const csvImportSchema = z.object({
   csv: z.string().min(1, { error: 'the file is empty' }).max(2_000_000, { error: 'the file is over 2 MB' }),

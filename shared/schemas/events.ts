@@ -16,30 +16,42 @@ export const roleLabels: Record<EventRoleName, string> = {
 const day = z.iso.date({ error: 'must be a date, YYYY-MM-DD' })
 const personName = z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(120)
 
-export const createEventSchema = z.object({
-  name: z.string().trim().min(3, { error: 'must be at least 3 characters' }).max(160),
-  venue: z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(160),
-  startsOn: day,
-  endsOn: day,
-  timeZone: timeZoneName,
-  profileId: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
-  organiserEmail: email,
-  organiserName: personName,
-}).refine(x => x.endsOn >= x.startsOn, { error: 'must not be before the first day', path: ['endsOn'] })
+export const createEventSchema = z
+  .object({
+    name: z.string().trim().min(3, { error: 'must be at least 3 characters' }).max(160),
+    venue: z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(160),
+    startsOn: day,
+    endsOn: day,
+    timeZone: timeZoneName,
+    profileId: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
+    organiserEmail: email,
+    organiserName: personName,
+  })
+  .refine(x => x.endsOn >= x.startsOn, { error: 'must not be before the first day', path: ['endsOn'] })
 
-export const inviteSchema = z.object({
-  email,
-  name: personName,
-  role: z.enum(EVENT_ROLES, { error: `must be one of ${EVENT_ROLES.join(', ')}` }),
-  teamName: z.string().trim().min(2).max(120).optional(),
-}).refine(x => x.role !== 'team' || !!x.teamName, { error: 'name the team this person enters for', path: ['teamName'] })
+export const inviteSchema = z
+  .object({
+    email,
+    name: personName,
+    role: z.enum(EVENT_ROLES, { error: `must be one of ${EVENT_ROLES.join(', ')}` }),
+    teamName: z.string().trim().min(2).max(120).optional(),
+  })
+  .refine(x => x.role !== 'team' || !!x.teamName, {
+    error: 'name the team this person enters for',
+    path: ['teamName'],
+  })
 
 export const eventIdParams = z.object({ id: z.coerce.number({ error: 'must be a number' }).int().positive() })
 
-export const updateEventSchema = z.object({
-  name: z.string().trim().min(3, { error: 'must be at least 3 characters' }).max(160).optional(),
-  venue: z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(160).optional(),
-  startsOn: day.optional(),
-  endsOn: day.optional(),
-  timeZone: timeZoneName.optional(),
-}).refine(x => !x.startsOn || !x.endsOn || x.endsOn >= x.startsOn, { error: 'must not be before the first day', path: ['endsOn'] })
+export const updateEventSchema = z
+  .object({
+    name: z.string().trim().min(3, { error: 'must be at least 3 characters' }).max(160).optional(),
+    venue: z.string().trim().min(2, { error: 'must be at least 2 characters' }).max(160).optional(),
+    startsOn: day.optional(),
+    endsOn: day.optional(),
+    timeZone: timeZoneName.optional(),
+  })
+  .refine(x => !x.startsOn || !x.endsOn || x.endsOn >= x.startsOn, {
+    error: 'must not be before the first day',
+    path: ['endsOn'],
+  })

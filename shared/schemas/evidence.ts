@@ -22,4 +22,7 @@ export const evidenceQuerySchema = z.object({
   entryId: optionalId,
 })
 
-export const hashParams = z.object({ id: z.coerce.number().int().positive(), sha: z.string().regex(/^[0-9a-f]{64}$/, { error: 'must be a SHA-256 in hex' }) })
+export const hashParams = z.object({
+  id: z.coerce.number().int().positive(),
+  sha: z.string().regex(/^[0-9a-f]{64}$/, { error: 'must be a SHA-256 in hex' }),
+})

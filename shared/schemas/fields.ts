@@ -12,12 +12,24 @@ export const positiveDecimal = z.union([z.number(), z.string()]).superRefine((x,
   }
 })
 
-export const positiveNumber = z.number({ error: 'must be a number' }).finite().positive({ error: 'must be greater than zero' })
+export const positiveNumber = z
+  .number({ error: 'must be a number' })
+  .finite()
+  .positive({ error: 'must be greater than zero' })
 
 /** ISO-8601 date and time with Z or an offset, e.g. 2026-08-14T07:05:00Z. */
-export const isoDateTime = z.iso.datetime({ offset: true, error: 'must be an ISO-8601 date and time with Z or an offset' })
+export const isoDateTime = z.iso.datetime({
+  offset: true,
+  error: 'must be an ISO-8601 date and time with Z or an offset',
+})
 
-export const timeZoneName = z.string().refine(isTimeZone, { error: 'must be an IANA time zone such as UTC or America/Denver' })
+export const timeZoneName = z
+  .string()
+  .refine(isTimeZone, { error: 'must be an IANA time zone such as UTC or America/Denver' })
 
-export const email = z.string().trim().toLowerCase().pipe(z.email({ error: 'must be an e-mail address' }))
+export const email = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ error: 'must be an e-mail address' }))
 export const password = z.string().min(10, { error: 'must be at least 10 characters' }).max(200)

@@ -7,28 +7,49 @@ const id = z.coerce.number({ error: 'must be a number' }).int().positive()
 export const checklistAdaptSchema = z.object({
   baseId: z.enum(CHECKLIST_IDS as [string, ...string[]], { error: `must be one of ${CHECKLIST_IDS.join(', ')}` }),
   removeItems: z.array(z.string()).default([]),
-  addItems: z.array(z.object({ section: z.string().trim().min(1), label: z.string().trim().min(3).max(300) })).default([]),
+  addItems: z
+    .array(z.object({ section: z.string().trim().min(1), label: z.string().trim().min(3).max(300) }))
+    .default([]),
   note: z.string().trim().min(3, { error: 'say which rulebook the adaptation follows' }).max(300),
 })
 
-export const startInspectionSchema = z.object({ entryId: id, checklistId: id.optional(), baseId: z.enum(CHECKLIST_IDS as [string, ...string[]]).optional() })
-  .refine(x => !!x.checklistId !== !!x.baseId, { error: 'choose the event\'s checklist or a library template', path: ['checklistId'] })
+export const startInspectionSchema = z
+  .object({
+    entryId: id,
+    checklistId: id.optional(),
+    baseId: z.enum(CHECKLIST_IDS as [string, ...string[]]).optional(),
+  })
+  .refine(x => !!x.checklistId !== !!x.baseId, {
+    error: 'choose the event\'s checklist or a library template',
+    path: ['checklistId'],
+  })
 
 export const answerSchema = z.object({
   itemKey: z.string().min(1).max(60),
   result: z.enum(['pass', 'fail', 'na'], { error: 'must be pass, fail or not applicable' }),
-  value: z.coerce.number({ error: 'must be a number' }).finite().nonnegative({ error: 'must not be negative' }).optional(),
+  value: z.coerce
+    .number({ error: 'must be a number' })
+    .finite()
+    .nonnegative({ error: 'must not be negative' })
+    .optional(),
   unit: z.string().max(8).optional(),
   note: z.string().trim().max(1000).optional(),
 })
 
 export const busSchema = z.object({
-  busVoltageV: z.coerce.number({ error: 'must be a number' }).positive({ error: 'must be greater than zero' }).max(2000, { error: 'must be at most 2000 V' }),
+  busVoltageV: z.coerce
+    .number({ error: 'must be a number' })
+    .positive({ error: 'must be greater than zero' })
+    .max(2000, { error: 'must be at most 2000 V' }),
   busKind: z.enum(['dc', 'ac'], { error: 'must be DC or AC' }),
 })
 
 /** A drawn signature, as a PNG data URL, at most about 200 kB. */
-const drawing = z.string().regex(/^data:image\/png;base64,[A-Za-z0-9+/=]+$/, { error: 'must be a PNG image' }).max(280_000).optional()
+const drawing = z
+  .string()
+  .regex(/^data:image\/png;base64,[A-Za-z0-9+/=]+$/, { error: 'must be a PNG image' })
+  .max(280_000)
+  .optional()
 
 export const signRecordSchema = signSheetSchema.extend({ drawingPng: drawing })
 

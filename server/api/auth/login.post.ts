@@ -10,7 +10,9 @@ export default defineEventHandler(async (event) => {
   const [user] = await useDb().select().from(tables.users).where(eq(tables.users.email, email))
   // An unknown address costs the same time as a wrong password, so neither is revealed.
   decoyHash ??= hashPassword('decoy password that never matches')
-  const ok = user?.passwordHash ? await verifyPassword(user.passwordHash, password) : (await verifyPassword(await decoyHash, password), false)
+  const ok = user?.passwordHash
+    ? await verifyPassword(user.passwordHash, password)
+    : (await verifyPassword(await decoyHash, password), false)
   await recordLoginAttempt(email, ok)
   if (!ok || !user) throw createError({ statusCode: 401, statusMessage: 'Wrong e-mail address or password' })
   return { user: await signIn(event, user) }

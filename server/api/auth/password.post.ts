@@ -8,7 +8,8 @@ export default defineEventHandler(async (event) => {
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, currentPassword))) {
     throw fieldInvalid('currentPassword', 'is not your current password')
   }
-  await useDb().update(tables.users)
+  await useDb()
+    .update(tables.users)
     .set({ passwordHash: await hashPassword(newPassword), passwordChangedAt: new Date() })
     .where(eq(tables.users.id, me.id))
   return { ok: true }

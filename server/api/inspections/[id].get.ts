@@ -4,7 +4,11 @@ import { eq } from 'drizzle-orm'
 export default defineEventHandler(async (event) => {
   const { recordId, roles, teamIds } = await requireRoleOn(event, 'inspection', 'any')
   const view = await inspectionView(recordId)
-  const [entry] = await useDb().select({ teamId: tables.entries.teamId }).from(tables.entries).where(eq(tables.entries.id, view.inspection.entryId))
-  if (roles.every(r => r === 'team') && !teamIds.includes(entry!.teamId)) throw createError({ statusCode: 404, statusMessage: 'No such inspection' })
+  const [entry] = await useDb()
+    .select({ teamId: tables.entries.teamId })
+    .from(tables.entries)
+    .where(eq(tables.entries.id, view.inspection.entryId))
+  if (roles.every(r => r === 'team') && !teamIds.includes(entry!.teamId))
+    throw createError({ statusCode: 404, statusMessage: 'No such inspection' })
   return view
 })

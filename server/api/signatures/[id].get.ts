@@ -3,6 +3,7 @@
 export default defineEventHandler(async (event) => {
   const { recordId, roles, teamIds } = await requireRoleOn(event, 'signature', 'any')
   const report = await signatureReport(recordId)
-  if (roles.every(r => r === 'team') && !teamIds.includes(report.teamId)) throw createError({ statusCode: 404, statusMessage: 'No such signature' })
+  if (roles.every(r => r === 'team') && !teamIds.includes(report.teamId))
+    throw createError({ statusCode: 404, statusMessage: 'No such signature' })
   return report
 })

@@ -17,14 +17,27 @@ export const clubSameDirection: RuleProfile = {
     source: `${CLUB_PAGES}: record run the next morning`,
     certainty: 'seen',
   },
-  impoundMinutes: { value: 60, source: `${CLUB_PAGES}: machine into impound within 1 h of its time slip`, certainty: 'seen' },
+  impoundMinutes: {
+    value: 60,
+    source: `${CLUB_PAGES}: machine into impound within 1 h of its time slip`,
+    certainty: 'seen',
+  },
   averaging: {
     value: 'mean-of-times',
-    source: 'average of the two runs; whether of times or speeds is not settled: a profile setting, default mean of times',
+    source:
+      'average of the two runs; whether of times or speeds is not settled: a profile setting, default mean of times',
     certainty: 'not settled',
   },
-  figures: { value: { decimals: 3, rounding: 'truncate' }, source: 'as the international profiles', certainty: 'from memory' },
-  margin: { value: { percent: 0, inclusive: false }, source: 'exceed the standing record', certainty: 'from memory' },
+  figures: {
+    value: { decimals: 3, rounding: 'truncate' },
+    source: 'as the international profiles',
+    certainty: 'from memory',
+  },
+  margin: {
+    value: { percent: 0, inclusive: false },
+    source: 'exceed the standing record',
+    certainty: 'from memory',
+  },
   gradientMaxPercent: { value: null, source: 'as surveyed', certainty: 'seen' },
   distances: {
     value: [
@@ -36,6 +49,10 @@ export const clubSameDirection: RuleProfile = {
   },
   tailWindLimitMs: { value: null, source: 'no published wind limit found', certainty: 'not known' },
   bestPerDayOnly: { value: null, source: 'not known', certainty: 'not known' },
-  massClasses: { value: null, source: 'class limits by mass to be set from the club rulebook', certainty: 'not known' },
+  massClasses: {
+    value: null,
+    source: 'class limits by mass to be set from the club rulebook',
+    certainty: 'not known',
+  },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
 }

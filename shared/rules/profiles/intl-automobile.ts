@@ -48,6 +48,10 @@ export const intlAutomobile: RuleProfile = {
     certainty: 'not known',
   },
   bestPerDayOnly: { value: null, source: 'not known', certainty: 'not known' },
-  massClasses: { value: null, source: 'class limits by mass to be set from the rulebook in force', certainty: 'not known' },
+  massClasses: {
+    value: null,
+    source: 'class limits by mass to be set from the rulebook in force',
+    certainty: 'not known',
+  },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
 }

@@ -24,7 +24,11 @@ export const intlMotorcycle: RuleProfile = {
     source: 'speeds to 3 decimals, truncated, in km/h and mph: published records only fit truncation',
     certainty: 'seen',
   },
-  margin: { value: { percent: 0, inclusive: false }, source: 'exceed the standing record; a margin is not known', certainty: 'from memory' },
+  margin: {
+    value: { percent: 0, inclusive: false },
+    source: 'exceed the standing record; a margin is not known',
+    certainty: 'from memory',
+  },
   gradientMaxPercent: { value: 1, source: `${FIM_PAGE}: straight, gradient at most 1 %`, certainty: 'seen' },
   distances: {
     value: [
@@ -42,7 +46,15 @@ export const intlMotorcycle: RuleProfile = {
     source: 'motor-sport record rules rely on the two-way average; no published wind limit found',
     certainty: 'not known',
   },
-  bestPerDayOnly: { value: true, source: 'FIM rulebook extract: only the best result per class each day goes forward', certainty: 'seen' },
-  massClasses: { value: null, source: 'class limits by mass to be set from the rulebook in force', certainty: 'not known' },
+  bestPerDayOnly: {
+    value: true,
+    source: 'FIM rulebook extract: only the best result per class each day goes forward',
+    certainty: 'seen',
+  },
+  massClasses: {
+    value: null,
+    source: 'class limits by mass to be set from the rulebook in force',
+    certainty: 'not known',
+  },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
 }

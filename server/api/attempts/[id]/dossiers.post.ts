@@ -4,5 +4,12 @@ export default defineEventHandler(async (event) => {
   await assertOwnAttempt(access, access.recordId)
   const row = await issueDossier(access.eventId, access.recordId, access.user.id)
   setResponseStatus(event, 201)
-  return { id: row.id, version: row.version, manifestSha256: row.manifestSha256, pdfSha256: row.pdfSha256, pdfSize: row.pdfSize, keyFingerprint: row.keyFingerprint }
+  return {
+    id: row.id,
+    version: row.version,
+    manifestSha256: row.manifestSha256,
+    pdfSha256: row.pdfSha256,
+    pdfSize: row.pdfSize,
+    keyFingerprint: row.keyFingerprint,
+  }
 })

@@ -4,7 +4,14 @@ import { reopenSheetSchema } from '#shared/schemas/event-day'
 export default defineEventHandler(async (event) => {
   const { recordId, eventId, user } = await requireRoleOn(event, 'attempt', ['timekeeper'])
   const input = await validBody(event, reopenSheetSchema)
-  const signed = await signTimingSheet({ eventId, attemptId: recordId, userId: user.id, password: input.password, typedName: input.typedName, reopen: input.reason })
+  const signed = await signTimingSheet({
+    eventId,
+    attemptId: recordId,
+    userId: user.id,
+    password: input.password,
+    typedName: input.typedName,
+    reopen: input.reason,
+  })
   setResponseStatus(event, 201)
   return signed
 })

@@ -4,7 +4,13 @@ import { signSheetSchema } from '#shared/schemas/event-day'
 export default defineEventHandler(async (event) => {
   const { recordId, eventId, user } = await requireRoleOn(event, 'attempt', ['timekeeper'])
   const input = await validBody(event, signSheetSchema)
-  const signed = await signTimingSheet({ eventId, attemptId: recordId, userId: user.id, password: input.password, typedName: input.typedName })
+  const signed = await signTimingSheet({
+    eventId,
+    attemptId: recordId,
+    userId: user.id,
+    password: input.password,
+    typedName: input.typedName,
+  })
   setResponseStatus(event, 201)
   return signed
 })

@@ -6,7 +6,10 @@ export default defineEventHandler(async (event) => {
   const { id } = validParams(event, idParams)
   if (!(await isRatified(id))) {
     const access = await requireRoleOn(event, 'dossier', 'any')
-    const [d] = await useDb().select({ attemptId: tables.dossiers.attemptId }).from(tables.dossiers).where(eq(tables.dossiers.id, id))
+    const [d] = await useDb()
+      .select({ attemptId: tables.dossiers.attemptId })
+      .from(tables.dossiers)
+      .where(eq(tables.dossiers.id, id))
     await assertOwnAttempt(access, d!.attemptId)
   }
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, id))

@@ -4,7 +4,14 @@ import { eq } from 'drizzle-orm'
 export default defineEventHandler(async (event) => {
   const { eventId, roles, teamIds, asAdmin } = await requireEventRole(event, 'any', { admin: true })
   const teamOnly = !asAdmin && roles.every(r => r === 'team')
-  const rows = await useDb().select({ entry: tables.entries, machine: tables.machines.name, power: tables.machines.power, rider: tables.riders.name, team: tables.teams.name })
+  const rows = await useDb()
+    .select({
+      entry: tables.entries,
+      machine: tables.machines.name,
+      power: tables.machines.power,
+      rider: tables.riders.name,
+      team: tables.teams.name,
+    })
     .from(tables.entries)
     .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
     .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
@@ -12,5 +19,14 @@ export default defineEventHandler(async (event) => {
     .where(eq(tables.entries.eventId, eventId))
   const visible = rows.filter(r => !teamOnly || teamIds.includes(r.entry.teamId))
   const clearance = await clearanceOf(visible.map(r => r.entry.id))
-  return visible.map(r => ({ id: r.entry.id, className: r.entry.className, machine: r.machine, power: r.power, rider: r.rider, team: r.team, teamId: r.entry.teamId, ...clearance.get(r.entry.id)! }))
+  return visible.map(r => ({
+    id: r.entry.id,
+    className: r.entry.className,
+    machine: r.machine,
+    power: r.power,
+    rider: r.rider,
+    team: r.team,
+    teamId: r.entry.teamId,
+    ...clearance.get(r.entry.id)!,
+  }))
 })

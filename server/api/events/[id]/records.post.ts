@@ -4,8 +4,16 @@ import { standingRecordSchema } from '#shared/schemas/event-day'
 export default defineEventHandler(async (event) => {
   const { eventId } = await requireEventRole(event, ['organiser'])
   const input = await validBody(event, standingRecordSchema)
-  const [row] = await useDb().insert(tables.standingRecords).values({ ...input, eventId }).onConflictDoNothing().returning()
-  if (!row) throw createError({ statusCode: 409, statusMessage: `A standing record for ${input.className} over ${input.distanceLabel} is already in the book` })
+  const [row] = await useDb()
+    .insert(tables.standingRecords)
+    .values({ ...input, eventId })
+    .onConflictDoNothing()
+    .returning()
+  if (!row)
+    throw createError({
+      statusCode: 409,
+      statusMessage: `A standing record for ${input.className} over ${input.distanceLabel} is already in the book`,
+    })
   setResponseStatus(event, 201)
   return row
 })

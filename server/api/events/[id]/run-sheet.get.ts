@@ -6,7 +6,14 @@ export default defineEventHandler(async (event) => {
     now: new Date().toISOString(),
     attempts: computeLive(day, { readings: true }),
     history: day.readings.map(r => ({ ...r, ticks: r.ticks.toString() })),
-    entries: day.entries.map(e => ({ id: e.entry.id, teamName: e.teamName, machineName: e.machine.name, riderName: e.rider.name, className: e.entry.className, distanceId: e.entry.distanceId })),
+    entries: day.entries.map(e => ({
+      id: e.entry.id,
+      teamName: e.teamName,
+      machineName: e.machine.name,
+      riderName: e.rider.name,
+      className: e.entry.className,
+      distanceId: e.entry.distanceId,
+    })),
     traps: day.traps,
     systems: day.systems,
   }

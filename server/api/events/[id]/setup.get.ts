@@ -9,10 +9,24 @@ export default defineEventHandler(async (event) => {
     distances: day.distances.map((d) => {
       const course = day.courses.find(c => c.id === d.courseId)!
       const trap = (id: number) => day.traps.find(t => t.id === id)!
-      return { ...d, check: checkMeasuredDistance(day.event.profile, trap(d.entryTrapId), trap(d.exitTrapId), d.nominalM, course.surveyToleranceMm) }
+      return {
+        ...d,
+        check: checkMeasuredDistance(
+          day.event.profile,
+          trap(d.entryTrapId),
+          trap(d.exitTrapId),
+          d.nominalM,
+          course.surveyToleranceMm,
+        ),
+      }
     }),
     systems: day.systems,
     records: day.records,
-    entries: day.entries.map(e => ({ ...e.entry, teamName: e.teamName, machineName: e.machine.name, riderName: e.rider.name })),
+    entries: day.entries.map(e => ({
+      ...e.entry,
+      teamName: e.teamName,
+      machineName: e.machine.name,
+      riderName: e.rider.name,
+    })),
   }
 })

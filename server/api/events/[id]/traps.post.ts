@@ -5,7 +5,8 @@ export default defineEventHandler(async (event) => {
   const input = await validBody(event, trapSchema)
   await courseOf(eventId, input.courseId)
   const [trap] = await useDb().insert(tables.traps).values(input).onConflictDoNothing().returning()
-  if (!trap) throw createError({ statusCode: 409, statusMessage: `This course already has a trap called ${input.label}` })
+  if (!trap)
+    throw createError({ statusCode: 409, statusMessage: `This course already has a trap called ${input.label}` })
   setResponseStatus(event, 201)
   return trap
 })

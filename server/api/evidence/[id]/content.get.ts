@@ -13,7 +13,10 @@ export default defineEventHandler(async (event) => {
     'content-disposition': `${download === '1' ? 'attachment' : 'inline'}; filename*=UTF-8''${name}`,
     'x-content-type-options': 'nosniff',
     // Sandboxed, except PDFs: browsers will not show a PDF in a sandboxed document.
-    'content-security-policy': row.mediaType === 'application/pdf' ? 'default-src \'none\'' : 'sandbox; default-src \'none\'; img-src \'self\'; style-src \'unsafe-inline\'',
+    'content-security-policy':
+      row.mediaType === 'application/pdf'
+        ? 'default-src \'none\''
+        : 'sandbox; default-src \'none\'; img-src \'self\'; style-src \'unsafe-inline\'',
     'cache-control': 'private, max-age=31536000, immutable',
     'etag': `"${row.sha256}"`,
   })
