@@ -47,6 +47,8 @@ export default defineNuxtConfig({
   },
   compatibilityDate: '2026-06-01',
   nitro: {
+    // server/utils/ is grouped in folders by subject (auth, database, event-day, dossier…); all are auto-imported.
+    imports: { dirs: ['./server/utils/**'] },
     ...(process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {}),
     // The dossier's fonts, read at run time: shipped inside the build, not looked up in node_modules.
     serverAssets: [

@@ -4,7 +4,7 @@ import { eq, sql } from 'drizzle-orm'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import demo from './demo-people.json'
 import * as t from './schema'
-import type { Db } from '../utils/db'
+import type { Db } from '../utils/database/db'
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 

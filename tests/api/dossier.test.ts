@@ -5,7 +5,7 @@ import pg from 'pg'
 import type { PDFHexString, PDFString } from 'pdf-lib'
 import { PDFArray, PDFDict, PDFDocument, PDFName } from 'pdf-lib'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import { readAttachments } from '../../server/utils/pdf-attachments'
+import { readAttachments } from '../../server/utils/dossier/pdf-attachments'
 import { call, demoEmail, DEMO_PASSWORD, login, mailTo, url, useTestServer } from '../support/api'
 import { sha256 } from '../support/files'
 

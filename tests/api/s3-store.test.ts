@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import S3rver from 's3rver'
 import { afterAll, beforeAll, expect, it } from 'vitest'
-import { S3BlobStore } from '../../server/utils/blob-store-s3'
+import { S3BlobStore } from '../../server/utils/evidence/blob-store-s3'
 
 // The S3 driver against s3rver, a fake S3 server from npm, started here on a free port.
 const dir = mkdtempSync(join(tmpdir(), 'trapline-s3-'))

@@ -1,6 +1,6 @@
 import { and, count, eq, inArray, isNull, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
-import type { EventRole } from '../database/schema'
+import type { EventRole } from '../../database/schema'
 
 export interface Task {
   title: string

@@ -3,7 +3,7 @@ import { fileTypeFromBuffer } from 'file-type'
 import { evidenceKinds, extensionMismatch, TEXT, type EvidenceKind } from '#shared/evidence/kinds'
 import { evidenceFieldsSchema } from '#shared/schemas/evidence'
 import type { z } from 'zod'
-import type { EventAccess } from './auth'
+import type { EventAccess } from '../auth/auth'
 import type { StagedFile } from './uploads'
 
 type Fields = z.infer<typeof evidenceFieldsSchema>

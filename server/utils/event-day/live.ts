@@ -2,7 +2,7 @@ import { evaluateAttempt } from '#shared/rules/attempt'
 import { fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
 import { formatTimeOfDay } from '#shared/rules/timing'
-import type { EventDay } from './event-day-load'
+import type { EventDay } from './load'
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
 

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import { formatTimeOfDay } from '#shared/rules/timing'
-import type { EventDay } from './event-day-load'
+import type { EventDay } from './load'
 import { computeLive } from './live'
 
 /** The canonical content of an attempt's timing sheet: every reading with its history, and the result. */

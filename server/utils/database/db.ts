@@ -1,6 +1,6 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
-import * as schema from '../database/schema'
+import * as schema from '../../database/schema'
 
 export { schema as tables }
 export type Db = NodePgDatabase<typeof schema>

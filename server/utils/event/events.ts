@@ -3,7 +3,7 @@ import type { User } from '#auth-utils'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import type { createEventSchema } from '#shared/schemas/events'
 import type { z } from 'zod'
-import type { EventAccess } from './auth'
+import type { EventAccess } from '../auth/auth'
 
 export async function membershipsOf(userId: number) {
   const { memberships, events, teams } = tables

@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { allItems } from '#shared/inspection/evaluate'
-import { seedDemo } from '../database/demo'
-import demo from '../database/demo-people.json'
-import type { StagedFile } from './uploads'
+import { seedDemo } from '../../database/demo'
+import demo from '../../database/demo-people.json'
+import type { StagedFile } from '../evidence/uploads'
 
 let seeding: Promise<unknown> = Promise.resolve()
 

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
-import type { EventAccess } from './auth'
+import type { EventAccess } from '../auth/auth'
 
 /** The team an attempt belongs to; a team may act only on its own attempts (else 404). */
 export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
