@@ -130,3 +130,6 @@ export async function attemptOfEvent(eventId: number, attemptId: number) {
   if (!a) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
   return a
 }
+
+/** Everything known about an attempt's file: the day, the live result, and what is still missing. */
+export type Readiness = Awaited<ReturnType<typeof readinessOf>>

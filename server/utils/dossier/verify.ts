@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto'
 import { eq } from 'drizzle-orm'
-import { attachmentName } from './dossier'
+import { attachmentName } from './render'
 import { readAttachments } from './pdf-attachments'
 
 export interface Verification {

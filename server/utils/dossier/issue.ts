@@ -1,0 +1,99 @@
+import { createHash, randomUUID } from 'node:crypto'
+import { mkdir, writeFile } from 'node:fs/promises'
+import { join } from 'node:path'
+import { desc, eq, sql } from 'drizzle-orm'
+import { buildManifest, type Manifest } from './manifest'
+import type { Readiness } from './readiness'
+import { renderDossier, type Attachment } from './render'
+
+const sha256Hex = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
+
+/** Issues a new sealed dossier version for a ready attempt; refuses naming what is missing. */
+export async function issueDossier(eventId: number, attemptId: number, userId: number) {
+  await attemptOfEvent(eventId, attemptId)
+  const r = await readinessOf(eventId, attemptId)
+  refuseUnlessReady(r)
+  const previous = await latestDossier(attemptId)
+  const version = (previous?.version ?? 0) + 1
+  const manifest = await buildManifest(r, version, new Date())
+  const manifestSha = sha256Hex(canonicalJson(manifest))
+  const key = useSealKey()
+  const seal = sealDigest(manifestSha)
+  const verifyUrl = `${useRuntimeConfig().siteUrl.replace(/\/$/, '')}/verify`
+  const pdf = await renderDossier(
+    manifest,
+    { sha256: manifestSha, signature: seal, fingerprint: key.fingerprint, verifyUrl },
+    await evidenceToAttach(manifest),
+  )
+  return storeDossier(pdf, {
+    eventId,
+    attemptId,
+    version,
+    manifest,
+    manifestSha256: manifestSha,
+    seal,
+    keyFingerprint: key.fingerprint,
+    supersedesId: previous?.id ?? null,
+    createdBy: userId,
+  })
+}
+
+function refuseUnlessReady(r: Readiness) {
+  if (r.ready) return
+  const missing = r.items.filter(i => !i.met)
+  throw createError({
+    statusCode: 422,
+    statusMessage: 'Not ready',
+    message: `not ready: ${missing.map(i => i.label).join('; ')}`,
+    data: { issues: missing.map(i => ({ path: i.key, message: `${i.label}: ${i.detail}` })) },
+  })
+}
+
+/**
+ * Small files travel inside, smallest first, up to the configured total; the rest is referenced by
+ * hash only, and no stored file is read again to hash it: the hashes come from their rows.
+ */
+async function evidenceToAttach(manifest: Manifest) {
+  const budget = Number(useRuntimeConfig().dossierAttachBytes)
+  let used = 0
+  const attach: Attachment[] = []
+  const seen = new Set<string>()
+  for (const e of [...manifest.evidence].sort((a, b) => Number(a.size) - Number(b.size))) {
+    if (seen.has(e.sha256) || used + Number(e.size) > budget) continue
+    seen.add(e.sha256)
+    const chunks: Buffer[] = []
+    for await (const c of await useBlobStore().open(e.sha256)) chunks.push(c as Buffer)
+    attach.push({ name: e.name, bytes: Buffer.concat(chunks), mediaType: e.mediaType, sha256: e.sha256 })
+    used += Number(e.size)
+  }
+  return attach
+}
+
+type NewDossier = Omit<typeof tables.dossiers.$inferInsert, 'pdfSha256' | 'pdfSize'>
+
+/** Stores the PDF in the blob store and its row, under a lock on its hash. */
+async function storeDossier(pdf: Uint8Array, values: NewDossier) {
+  const pdfSha = sha256Hex(pdf)
+  await mkdir(uploadTmpDir(), { recursive: true })
+  const tmp = join(uploadTmpDir(), `${randomUUID()}.pdf`)
+  await writeFile(tmp, pdf)
+  return useDb().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${pdfSha}, 0))`)
+    await useBlobStore().put(pdfSha, tmp, pdf.length, 'application/pdf')
+    const [row] = await tx
+      .insert(tables.dossiers)
+      .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })
+      .returning()
+    return row!
+  })
+}
+
+export async function latestDossier(attemptId: number) {
+  const [row] = await useDb()
+    .select()
+    .from(tables.dossiers)
+    .where(eq(tables.dossiers.attemptId, attemptId))
+    .orderBy(desc(tables.dossiers.version))
+    .limit(1)
+  return row ?? null
+}

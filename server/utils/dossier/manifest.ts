@@ -1,0 +1,185 @@
+import { formatTimeOfDay } from '#shared/rules/timing'
+import type { Readiness } from './readiness'
+
+export const DOSSIER_FORMAT = 'trapline-dossier/1'
+
+type EventDay = Readiness['day']
+type Evidence = typeof tables.evidence.$inferSelect
+
+/** The canonical manifest of a dossier: everything its figures and signatures rest on. */
+export async function buildManifest(r: Readiness, version: number, issuedAt: Date) {
+  const { day, live } = r
+  const attempt = day.attempts.find(a => a.id === r.attemptId)!
+  return {
+    format: DOSSIER_FORMAT,
+    dossier: { attempt: r.attemptId, version, issuedAt: issuedAt.toISOString() },
+    event: { id: day.event.id, name: day.event.name, venue: day.event.venue, timeZone: day.event.timeZone },
+    entry: manifestEntry(r),
+    profile: attempt.profile,
+    course: manifestCourse(r),
+    timingSystems: day.systems.map(s => ({
+      name: s.name,
+      role: s.role,
+      ticksPerSecond: s.ticksPerSecond,
+      toleranceS: s.toleranceS,
+      calibratedOn: s.calibratedOn,
+      calibrationExpires: s.calibrationExpires,
+      description: s.description,
+    })),
+    runs: manifestRuns(r),
+    result: {
+      ...live.result,
+      window: live.window,
+      beatsRecord: live.beatsRecord,
+      standingRecordKmh: live.standingRecordKmh,
+      required: live.required,
+      findings: live.findings.map(f => ({ code: f.code, message: f.message })),
+    },
+    timingSheet: live.sheet.history.map(h => ({
+      kind: h.kind,
+      typedName: h.typedName,
+      at: new Date(h.at).toISOString(),
+      sha256: h.sha256,
+      reason: h.reason,
+    })),
+    inspection: await manifestInspection(r.clearance.inspectionId),
+    statements: await manifestStatements(day.event.id, r.attemptId),
+    evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
+      id: e.id,
+      kind: e.kind,
+      name: e.originalName,
+      mediaType: e.mediaType,
+      size: e.size,
+      sha256: e.sha256,
+    })),
+  }
+}
+
+export type Manifest = Awaited<ReturnType<typeof buildManifest>>
+
+function manifestEntry({ live, entry }: Readiness) {
+  const { machine, rider } = entry
+  return {
+    ...live.entry,
+    machine: {
+      name: machine.name,
+      power: machine.power,
+      declaredMassKg: machine.declaredMassKg,
+      division: machine.division,
+    },
+    rider: { name: rider.name, licenceNo: rider.licenceNo, licenceExpires: rider.licenceExpires },
+  }
+}
+
+function manifestCourse({ day, distance }: Readiness) {
+  const course = day.courses.find(c => c.id === distance.courseId)!
+  const trapLabel = trapLabels(day)
+  return {
+    name: course.name,
+    headingDeg: course.headingDeg,
+    surveyToleranceMm: course.surveyToleranceMm,
+    traps: day.traps
+      .filter(t => t.courseId === course.id)
+      .map(t => ({ label: t.label, positionM: t.positionM, elevationM: t.elevationM })),
+    distance: {
+      label: distance.label,
+      nominalM: distance.nominalM,
+      entry: trapLabel.get(distance.entryTrapId),
+      exit: trapLabel.get(distance.exitTrapId),
+    },
+  }
+}
+
+const trapLabels = (day: EventDay) => new Map(day.traps.map(t => [t.id, t.label]))
+
+function manifestRuns({ day, live, attemptId }: Readiness) {
+  return day.runs.filter(x => x.attemptId === attemptId).map((x) => {
+    const lr = live.runs.find(l => l.id === x.id)!
+    return {
+      id: x.id,
+      direction: x.direction,
+      startedAt: x.startedAt.toISOString(),
+      status: x.status,
+      abortedReason: x.abortedReason,
+      counted: lr.counted,
+      readings: manifestReadings(day, x.id),
+      official: lr.official,
+      crossChecks: lr.crossChecks,
+      weather: lr.weather,
+      wind: lr.wind,
+    }
+  })
+}
+
+/** Every reading of a run, superseded ones included, as the timing system's time of day. */
+function manifestReadings(day: EventDay, runId: number) {
+  const trapLabel = trapLabels(day)
+  const systems = new Map(day.systems.map(s => [s.id, s]))
+  return day.readings.filter(g => g.runId === runId).map((g) => {
+    const system = systems.get(g.systemId)!
+    return {
+      id: g.id,
+      trap: trapLabel.get(g.trapId),
+      system: system.name,
+      time: formatTimeOfDay(g.ticks, BigInt(system.ticksPerSecond)),
+      ticks: g.ticks.toString(),
+      current: g.current,
+      supersedes: g.supersedesId,
+      reason: g.reason,
+      enteredBy: g.enteredBy,
+      enteredAt: g.enteredAt.toISOString(),
+    }
+  })
+}
+
+async function manifestInspection(inspectionId: number | null) {
+  if (!inspectionId) return null
+  const { inspection, clearance, answers, signature } = await inspectionView(inspectionId)
+  const { checklist } = inspection
+  return {
+    id: inspection.id,
+    checklist: { id: checklist.id, name: checklist.name, version: checklist.version },
+    bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
+    clearance,
+    answers: answers.map(a => ({ item: a.itemKey, result: a.result, enteredAs: a.enteredAs, note: a.note })),
+    signature: signature && {
+      typedName: signature.typedName,
+      at: new Date(signature.at).toISOString(),
+      sha256: signature.sha256,
+    },
+  }
+}
+
+async function manifestStatements(eventId: number, attemptId: number) {
+  const statements = await statementsAt(eventId, null)
+  return statements.filter(s => s.attemptId === attemptId).map(s => ({
+    id: s.id,
+    author: s.author,
+    typedName: s.typedName,
+    signedAt: new Date(s.signedAt).toISOString(),
+    sha256: s.sha256,
+    runsSeen: s.runsSeen,
+    position: s.position,
+    conditions: s.conditions,
+    irregularities: s.irregularities,
+    withdraws: s.withdrawsId,
+    reason: s.reason,
+    withdrawnBy: s.withdrawnBy?.id ?? null,
+  }))
+}
+
+/**
+ * Evidence of the event that belongs in this attempt's file: its own, its entry's, its runs', the
+ * course's and the timing systems'.
+ */
+function isForAttempt(e: Evidence, r: Readiness) {
+  const runIds = new Set(r.day.runs.filter(x => x.attemptId === r.attemptId).map(x => x.id))
+  return (
+    e.attemptId === r.attemptId
+    || (e.runId !== null && runIds.has(e.runId))
+    || e.entryId === r.entry.entry.id
+    || e.courseId === r.distance.courseId
+    || e.timingSystemId !== null
+    || (e.inspectionId !== null && e.inspectionId === r.clearance.inspectionId)
+  )
+}

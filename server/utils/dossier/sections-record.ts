@@ -1,0 +1,201 @@
+import QRCode from 'qrcode'
+import type { PDFDocument } from 'pdf-lib'
+import { formatBytes } from '#shared/evidence/kinds'
+import { CHECKLIST_CAUTION } from '#shared/inspection/template'
+import type { PdfLayout } from './pdf-layout'
+import type { Manifest } from './manifest'
+import { utcStamp, type SealFacts } from './sections-result'
+
+export function renderCourse(L: PdfLayout, m: Manifest) {
+  const { course } = m
+  const d = course.distance
+  L.heading('Course, traps and survey')
+  L.text(
+    `${course.name}: heading ${course.headingDeg}°, survey tolerance ${course.surveyToleranceMm} mm. `
+    + `Measured distance ${d.label} from ${d.entry} to ${d.exit}, nominal ${d.nominalM} m.`,
+  )
+  L.table(
+    [
+      { title: 'Trap', width: 100 },
+      { title: 'Position from start (m)', width: 160, align: 'right' },
+      { title: 'Elevation (m)', width: 120, align: 'right' },
+    ],
+    course.traps.map(t => [t.label, t.positionM, t.elevationM]),
+  )
+  L.heading('Timing equipment and calibration', 12)
+  L.table(
+    [
+      { title: 'System', width: 120 },
+      { title: 'Role', width: 60 },
+      { title: 'Resolution', width: 75, align: 'right' },
+      { title: 'Tolerance', width: 70, align: 'right' },
+      { title: 'Calibration', width: 170 },
+    ],
+    m.timingSystems.map(s => [
+      s.name,
+      s.role,
+      `1/${s.ticksPerSecond} s`,
+      `${s.toleranceS} s`,
+      `${s.calibratedOn} to ${s.calibrationExpires}`,
+    ]),
+  )
+}
+
+export function renderInspection(L: PdfLayout, m: Manifest) {
+  L.heading('Technical inspection')
+  L.text(CHECKLIST_CAUTION, { color: 'grey' })
+  const i = m.inspection
+  if (!i) return
+  const bus = `${i.bus.voltageV ?? '—'} V ${i.bus.kind?.toUpperCase() ?? ''}`
+  const clearance = i.clearance.cleared ? 'cleared to run' : `not cleared: ${i.clearance.why}`
+  L.text(`Inspection #${i.id}, checklist ${i.checklist.name} v${i.checklist.version}; bus ${bus}; ${clearance}.`)
+  L.table(
+    [
+      { title: 'Item', width: 230 },
+      { title: 'Result', width: 80 },
+      { title: 'Measured', width: 90 },
+      { title: 'Note', width: 95 },
+    ],
+    i.answers.map(a => [a.item, a.result, a.enteredAs ?? '', a.note ?? '']),
+  )
+  if (i.signature) {
+    L.text(`Signed by ${i.signature.typedName}, ${utcStamp(i.signature.at)} UTC; SHA-256 ${i.signature.sha256}`)
+  }
+}
+
+export function renderWeather(L: PdfLayout, m: Manifest) {
+  L.heading('Weather and wind')
+  L.table(
+    [
+      { title: 'Run', width: 60 },
+      { title: 'Wind', width: 120 },
+      { title: 'Heading', width: 60, align: 'right' },
+      { title: 'Head (+) / tail (−)', width: 95, align: 'right' },
+      { title: 'Cross', width: 60, align: 'right' },
+      { title: 'Air', width: 100 },
+    ],
+    m.runs.map(({ id, direction, weather, wind }) => [
+      `#${id} ${direction}`,
+      weather ? `${weather.windSpeedMs} m/s from ${weather.windFromDeg}°` : 'not recorded',
+      wind ? `${wind.headingDeg}°` : '',
+      wind ? `${wind.headMs.toFixed(2)} m/s` : '',
+      wind ? `${Math.abs(wind.crossMs).toFixed(2)} m/s` : '',
+      weather ? `${weather.temperatureC ?? '—'} °C, ${weather.pressureHpa ?? '—'} hPa` : '',
+    ]),
+  )
+}
+
+type Statement = Manifest['statements'][number]
+
+function renderStatement(L: PdfLayout, s: Statement) {
+  if (s.withdraws) {
+    L.text(
+      `Statement #${s.id} withdraws #${s.withdraws}: ${s.reason}. `
+      + `Signed ${s.typedName}, ${utcStamp(s.signedAt)} UTC.`,
+      { bold: true },
+    )
+    return
+  }
+  const withdrawn = s.withdrawnBy ? ` (withdrawn by #${s.withdrawnBy})` : ''
+  L.text(`Statement #${s.id} by ${s.typedName}${withdrawn}`, { bold: true, gap: 1 })
+  L.text(
+    `Runs seen: ${s.runsSeen}. Watched from: ${s.position}. Conditions: ${s.conditions}. `
+    + `Irregularities: ${s.irregularities || 'none'}.`,
+    { indent: 10, gap: 1 },
+  )
+  L.text(`Signed ${utcStamp(s.signedAt)} UTC; SHA-256 ${s.sha256}`, { indent: 10, color: 'grey' })
+}
+
+export function renderStatements(L: PdfLayout, m: Manifest) {
+  L.heading('Witness statements')
+  for (const s of m.statements) renderStatement(L, s)
+}
+
+export function renderEvidence(L: PdfLayout, m: Manifest, attachedShas: Set<string>) {
+  L.heading('Evidence manifest')
+  L.table(
+    [
+      { title: 'Kind', width: 90 },
+      { title: 'Name', width: 120 },
+      { title: 'Size', width: 55, align: 'right' },
+      { title: 'SHA-256', width: 175 },
+      { title: 'In this PDF', width: 55 },
+    ],
+    m.evidence.map(e => [
+      e.kind,
+      e.name,
+      formatBytes(Number(e.size)),
+      e.sha256,
+      attachedShas.has(e.sha256) ? 'attached' : 'by hash',
+    ]),
+    { size: 7.5 },
+  )
+}
+
+export function renderCorrections(L: PdfLayout, m: Manifest) {
+  L.heading('Log of corrections')
+  const corrections = m.runs.flatMap(x =>
+    x.readings.filter(g => g.supersedes).map(g => [
+      `#${x.id}`,
+      g.trap ?? '',
+      g.system,
+      `${g.time} replaces #${g.supersedes}`,
+      `${g.enteredBy}, ${utcStamp(g.enteredAt)}: ${g.reason}`,
+    ]),
+  )
+  if (corrections.length) {
+    L.table(
+      [
+        { title: 'Run', width: 40 },
+        { title: 'Trap', width: 50 },
+        { title: 'System', width: 80 },
+        { title: 'New value', width: 130 },
+        { title: 'Who, when, why', width: 195 },
+      ],
+      corrections,
+    )
+  }
+  else {
+    L.text('No reading was corrected.')
+  }
+  for (const s of m.timingSheet.filter(t => t.kind !== 'timing-sheet')) {
+    L.text(`Timing sheet reopened by ${s.typedName}, ${utcStamp(s.at)} UTC: ${s.reason}`)
+  }
+}
+
+const CAUTIONS = [
+  'Speed-record attempts can hurt people. The sanctioning body\'s current rulebook decides; the chief',
+  'scrutineer decides whether a machine may run; work on high-voltage systems follows qualified',
+  'high-voltage practice. Trapline records what happened on the course and computes the figures by the',
+  'rule profile above; it does not certify that a machine, a rider\'s kit or a course is safe. Rule values',
+  'marked "from memory", "not settled" or "not known" must be checked against the rulebook in force.',
+].join(' ')
+
+export function renderCautions(L: PdfLayout) {
+  L.heading('Cautions')
+  L.text(CAUTIONS)
+}
+
+const SEAL_EXPLAINED = [
+  'This dossier carries its manifest (manifest.json, canonical JSON) and the manifest\'s Ed25519 signature',
+  'over its SHA-256 (manifest.sig) as attached files, with the evidence files small enough to travel inside.',
+  'Drop the PDF on the verification page to check the seal, every attached file and whether this file is',
+  'byte for byte the one issued.',
+].join(' ')
+
+/** The last page: the seal's figures and a QR code of the verification address. */
+export async function renderSeal(L: PdfLayout, doc: PDFDocument, seal: SealFacts) {
+  L.newPage().heading('Seal')
+  L.text(SEAL_EXPLAINED, { gap: 10 })
+  L.pairs([
+    ['Manifest SHA-256', seal.sha256],
+    ['Key fingerprint', seal.fingerprint],
+    ['Verification', seal.verifyUrl],
+    ['Seal (Ed25519, base64)', seal.signature],
+  ])
+  const png = await QRCode.toBuffer(seal.verifyUrl, { type: 'png', margin: 1, width: 300, errorCorrectionLevel: 'M' })
+  const qr = await doc.embedPng(png)
+  L.ensure(170)
+  L.page.drawImage(qr, { x: 50, y: L.y - 160, width: 160, height: 160 })
+  L.y -= 170
+}

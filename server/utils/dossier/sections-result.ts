@@ -1,0 +1,152 @@
+import { describeRuleValue, ruleLabels } from '#shared/rules/profile'
+import type { PdfLayout } from './pdf-layout'
+import type { Manifest } from './manifest'
+
+/** What the dossier says about the seal on its cover and on its last page. */
+export interface SealFacts { sha256: string, signature: string, fingerprint: string, verifyUrl: string }
+
+/** An ISO instant as the dossier prints it: `2026-09-14 08:02:11`, always UTC. */
+export const utcStamp = (iso: string) => iso.replace('T', ' ').slice(0, 19)
+
+const roundingWord = (m: Manifest) => (m.profile.figures.value.rounding === 'truncate' ? 'truncated' : 'rounded')
+
+function standingRecordLine(m: Manifest) {
+  const { standingRecordKmh, beatsRecord, required } = m.result
+  if (!standingRecordKmh) return 'none in the book'
+  const needed = required ? ` (at least ${required.figure} ${required.unit} needed)` : ''
+  return `${standingRecordKmh} km/h; ${beatsRecord ? 'beaten' : 'not beaten'}${needed}`
+}
+
+export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
+  const d = m.course.distance
+  L.y -= 60
+  L.text('SPEED RECORD DOSSIER', { size: 10, bold: true, color: 'grey' })
+  L.heading(m.entry.machine.name, 26)
+  L.text(`Rider ${m.entry.rider.name} · ${m.entry.teamName}`, { size: 13 })
+  L.text(`${m.entry.className} · ${d.label} (${d.nominalM} m)`, { size: 13, gap: 20 })
+  L.heading(`${m.result.kmh ?? '—'} km/h`, 34)
+  const decimals = m.profile.figures.value.decimals
+  L.text(
+    `${m.result.mph ?? '—'} mph · distance over the mean of the two times, ${roundingWord(m)} to ${decimals} decimals`,
+    { size: 11, gap: 16 },
+  )
+  const window = m.result.window
+  L.pairs([
+    ['Event', `${m.event.name}, ${m.event.venue}`],
+    ['Rule profile', `${m.profile.name}, version ${m.profile.version}`],
+    ['Time window', `${window?.ok ? 'within' : 'NOT within'}: ${window?.rule ?? ''}`],
+    ['Standing record', standingRecordLine(m)],
+    ['Dossier', `version ${m.dossier.version}, sealed ${utcStamp(m.dossier.issuedAt)} UTC`],
+    ['Manifest SHA-256', seal.sha256],
+  ])
+  L.text(
+    'The sanctioning body decides on ratification under its current rulebook. '
+    + 'Trapline records and computes; it does not certify safety.',
+    { color: 'grey' },
+  )
+}
+
+type Run = Manifest['runs'][number]
+
+function renderRunHeader(L: PdfLayout, run: Run) {
+  const aborted = run.status === 'aborted' ? `, aborted: ${run.abortedReason}` : ''
+  const counted = run.counted ? '' : ' (not counted)'
+  L.text(`Run #${run.id}, ${run.direction}, started ${utcStamp(run.startedAt)} UTC${aborted}${counted}`, {
+    bold: true,
+  })
+}
+
+function readingState(g: Run['readings'][number]) {
+  if (!g.current) return 'superseded'
+  return g.supersedes ? `correction of #${g.supersedes}: ${g.reason}` : 'as entered'
+}
+
+function renderRunComputation(L: PdfLayout, m: Manifest, run: Run) {
+  const d = m.course.distance
+  renderRunHeader(L, run)
+  L.table(
+    [
+      { title: 'Trap', width: 60 },
+      { title: 'System', width: 110 },
+      { title: 'Time of day', width: 95, align: 'right' },
+      { title: 'State', width: 230 },
+    ],
+    run.readings.map(g => [g.trap ?? '', g.system, g.time, readingState(g)]),
+  )
+  if (run.official) {
+    const [from, to] = run.direction === 'out' ? [d.entry, d.exit] : [d.exit, d.entry]
+    const { timeS, kmh, mph } = run.official
+    L.text(`Time over the ${d.label.toLowerCase()}: t = time at ${to} − time at ${from} = ${timeS} s`, {
+      indent: 10,
+    })
+    L.text(
+      `Speed: v = d / t = ${d.nominalM} m / ${timeS} s = ${kmh} km/h = ${mph} mph `
+      + `(computed exactly, then ${roundingWord(m)})`,
+      { indent: 10 },
+    )
+  }
+  for (const c of run.crossChecks) {
+    L.text(
+      `Cross-check, ${c.label}: primary and backup differ by ${c.differenceS} s; `
+      + `tolerance ${c.toleranceS} s: ${c.ok ? 'agree' : 'DISAGREE'}`,
+      { indent: 10, color: 'grey' },
+    )
+  }
+  L.y -= 6
+}
+
+function renderPairResult(L: PdfLayout, m: Manifest) {
+  const d = m.course.distance
+  const { meanTimeS, kmh, mph } = m.result
+  L.text('Result', { bold: true })
+  L.text(`Mean time = (t1 + t2) / 2 = ${meanTimeS} s`, { indent: 10 })
+  L.text(
+    `v = d / mean time = ${d.nominalM} m / ${meanTimeS} s = ${kmh} km/h = ${mph} mph. `
+    + '1 km/h = 1/3.6 m/s; 1 mph = 0.44704 m/s exactly; 1 mile = 1609.344 m (NIST SP 811, appendix B).',
+    { indent: 10, gap: 10 },
+  )
+}
+
+function renderProfileInForce(L: PdfLayout, m: Manifest) {
+  L.heading('Rule profile in force', 12)
+  const keys = Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]
+  L.table(
+    [
+      { title: 'Rule', width: 110 },
+      { title: 'Value', width: 150 },
+      { title: 'Source', width: 235 },
+    ],
+    keys.map(k => [
+      ruleLabels[k],
+      describeRuleValue(k, m.profile[k].value),
+      `${m.profile[k].source} (${m.profile[k].certainty})`,
+    ]),
+  )
+}
+
+/** Every run's readings and the arithmetic from them to the result, then the profile it followed. */
+export function renderComputation(L: PdfLayout, m: Manifest) {
+  L.newPage().heading('Computation sheet')
+  for (const run of m.runs) renderRunComputation(L, m, run)
+  if (m.result.kmh) renderPairResult(L, m)
+  for (const f of m.result.findings) L.text(`Finding ${f.code}: ${f.message}`, { color: 'grey' })
+  renderProfileInForce(L, m)
+}
+
+export function renderTimingSheet(L: PdfLayout, m: Manifest) {
+  L.heading('Signed timing sheet')
+  L.table(
+    [
+      { title: 'Act', width: 90 },
+      { title: 'By', width: 100 },
+      { title: 'When (UTC)', width: 100 },
+      { title: 'SHA-256 of the sheet / reason', width: 205 },
+    ],
+    m.timingSheet.map(s => [
+      s.kind === 'timing-sheet' ? 'Signed' : 'Reopened',
+      s.typedName,
+      utcStamp(s.at),
+      s.reason ? `${s.sha256} — ${s.reason}` : s.sha256,
+    ]),
+  )
+}
