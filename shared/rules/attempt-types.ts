@@ -1,0 +1,73 @@
+import { toFixed, type Q } from './exact'
+import type { Finding } from './findings'
+import type { RuleProfile, WindowAnchor } from './profile'
+import { convertSpeed, type SpeedUnit } from './units'
+
+export type Direction = 'out' | 'back'
+
+export interface RunInput {
+  direction: Direction
+  /** The moment the run started, epoch milliseconds. */
+  startedAtMs: number
+  /** Time over the measured distance, seconds, exact. */
+  elapsedS: Q
+}
+
+export interface AttemptInput {
+  profile: RuleProfile
+  distanceM: Q
+  runs: RunInput[]
+  record?: { value: Q, unit: Exclude<SpeedUnit, 'm/s'> }
+  /** The event's time zone, for rules that count calendar days. */
+  timeZone?: string
+  /** Decimals of the return-run target time (the timing resolution); 3 unless told. */
+  timeDecimals?: number
+}
+
+export interface RunFigures {
+  direction: Direction
+  startedAtMs: number
+  elapsedS: Q
+  speedMs: Q
+  kmh: string
+  mph: string
+}
+
+export interface WindowState {
+  ok: boolean
+  rule: string
+  /** For an elapsed window: the time used so far between the anchors (two runs). */
+  usedS: Q | null
+  /** Latest moment (epoch ms) for the closing anchor; null when it cannot be known yet. */
+  deadlineMs: number | null
+  /** Earliest moment the record run may start (next-day rules). */
+  opensMs: number | null
+  closingAnchor: WindowAnchor | null
+}
+
+export interface AttemptResult {
+  runs: RunFigures[]
+  meanTimeS: Q | null
+  result: { speedMs: Q, kmh: string, mph: string } | null
+  window: WindowState
+  /** The smallest published figure that counts as a record, in the record's unit. */
+  required: { value: Q, text: string, unit: string } | null
+  beatsRecord: boolean | null
+  /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
+  returnTargetS: Q | null
+  findings: Finding[]
+}
+
+type RuleKey = 'runs' | 'window' | 'averaging' | 'margin'
+
+/** The rule a finding rests on, with the profile's source and certainty for it. */
+export const ruleOf = (profile: RuleProfile, key: RuleKey, name: string, value: string) => ({
+  name,
+  value,
+  source: profile[key].source,
+  certainty: profile[key].certainty,
+})
+
+/** A speed as the profile publishes it: its decimals, truncated or rounded. */
+export const publish = (profile: RuleProfile, v: Q, unit: SpeedUnit) =>
+  toFixed(convertSpeed(v, 'm/s', unit), profile.figures.value.decimals, profile.figures.value.rounding)

@@ -1,0 +1,56 @@
+import { add, cmp, div, mul, q, sub, toFixed, toNumber, type Q } from './exact'
+import type { Finding } from './findings'
+import { describeWindow, type RuleProfile, type WindowAnchor } from './profile'
+import { ruleOf, type RunInput, type WindowState } from './attempt-types'
+import { addDays, localDate, localMidnight } from './zoned'
+
+function anchorMs(anchor: WindowAnchor, runs: RunInput[]): Q | null {
+  const run = anchor.endsWith('first') ? runs[0] : runs[1]
+  if (!run) return null
+  const start = q(BigInt(run.startedAtMs))
+  return anchor.startsWith('start') ? start : add(start, mul(run.elapsedS, q(1000n)))
+}
+
+/** Next-day rules: the record run starts on the calendar day after the qualifying run, in the event's zone. */
+function nextDayWindow(rule: string, runs: RunInput[], timeZone: string): WindowState {
+  const first = runs[0]!
+  const day = addDays(localDate(first.startedAtMs, timeZone), 1)
+  const opensMs = localMidnight(day, timeZone)
+  const deadlineMs = localMidnight(addDays(day, 1), timeZone) - 1
+  const second = runs[1]
+  const ok = !second || (second.startedAtMs >= opensMs && second.startedAtMs <= deadlineMs)
+  return { ok, rule, usedS: null, deadlineMs, opensMs, closingAnchor: 'start-second' }
+}
+
+export function evaluateWindow(profile: RuleProfile, runs: RunInput[], timeZone: string): WindowState {
+  const w = profile.window.value
+  const rule = describeWindow(w)
+  if (w.kind === 'next-day') return nextDayWindow(rule, runs, timeZone)
+  const from = anchorMs(w.from, runs)
+  const limitMs = q(BigInt(w.minutes * 60_000))
+  const to = anchorMs(w.to, runs)
+  const deadlineMs = from ? Math.floor(toNumber(add(from, limitMs))) : null
+  if (!from || !to) return { ok: true, rule, usedS: null, deadlineMs, opensMs: null, closingAnchor: w.to }
+  const used = sub(to, from)
+  return {
+    ok: cmp(used, limitMs) <= 0,
+    rule,
+    usedS: div(used, q(1000n)),
+    deadlineMs,
+    opensMs: null,
+    closingAnchor: w.to,
+  }
+}
+
+export function windowFindings(profile: RuleProfile, window: WindowState): Finding[] {
+  if (window.ok) return []
+  const minutes = window.usedS ? toFixed(div(window.usedS, q(60n)), 1, 'truncate') : ''
+  return [{
+    code: 'window.exceeded',
+    severity: 'fail',
+    message: profile.window.value.kind === 'next-day'
+      ? 'The record run is not on the calendar day after the qualifying run.'
+      : `The runs took ${minutes} min between the anchors; the window is ${window.rule}.`,
+    rule: ruleOf(profile, 'window', 'Time window', window.rule),
+  }]
+}
