@@ -7,6 +7,7 @@ export const calculatorRunSchema = z.object({
   startedAt: isoDateTime,
   elapsedS: positiveDecimal,
 })
+export type CalculatorRunInput = z.infer<typeof calculatorRunSchema>
 
 export const calculatorRequestSchema = z
   .object({
@@ -24,6 +25,7 @@ export const calculatorRequestSchema = z
     error: 'give the standing record in km/h or in mph, not both',
     path: ['recordMph'],
   })
+export type CalculatorRequestInput = z.infer<typeof calculatorRequestSchema>
 
 export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
 

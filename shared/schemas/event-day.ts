@@ -40,6 +40,7 @@ export const courseSchema = z.object({
   surface: z.string().trim().min(2).max(80),
   surveyToleranceMm: z.coerce.number().int().min(1, { error: 'must be at least 1 mm' }).max(1000),
 })
+export type CourseInput = z.infer<typeof courseSchema>
 
 export const trapSchema = z.object({
   courseId: id,
@@ -47,6 +48,7 @@ export const trapSchema = z.object({
   positionM: decimalText(3, { min: 0, max: 100_000 }),
   elevationM: decimalText(3, { min: -500, max: 9000 }),
 })
+export type TrapInput = z.infer<typeof trapSchema>
 
 export const distanceSchema = z
   .object({
@@ -58,6 +60,7 @@ export const distanceSchema = z
     exitTrapId: id,
   })
   .refine(x => x.entryTrapId !== x.exitTrapId, { error: 'must differ from the entry trap', path: ['exitTrapId'] })
+export type DistanceInput = z.infer<typeof distanceSchema>
 
 export const RESOLUTIONS = [100, 1000, 10_000, 100_000, 1_000_000] as const
 export const timingSystemSchema = z
@@ -78,6 +81,7 @@ export const timingSystemSchema = z
     error: 'must be after the calibration date',
     path: ['calibrationExpires'],
   })
+export type TimingSystemInput = z.infer<typeof timingSystemSchema>
 
 export const standingRecordSchema = z.object({
   className: z.string().trim().min(1).max(80),
@@ -86,6 +90,7 @@ export const standingRecordSchema = z.object({
   setOn: day.optional(),
   note: z.string().trim().max(300).default(''),
 })
+export type StandingRecordInput = z.infer<typeof standingRecordSchema>
 
 export const profileAdaptSchema = z.object({
   baseId: z.enum(PROFILE_IDS),
@@ -105,6 +110,7 @@ export const profileAdaptSchema = z.object({
     .min(3, { error: 'say where the adapted values come from (rulebook and article)' })
     .max(300),
 })
+export type ProfileAdaptInput = z.infer<typeof profileAdaptSchema>
 
 export const entrySchema = z
   .object({
@@ -136,31 +142,39 @@ export const entrySchema = z
     error: 'give a new rider or pick one already entered',
     path: ['rider'],
   })
+export type EntryInput = z.infer<typeof entrySchema>
 
 export const startRunSchema = z.object({ entryId: id, direction: z.enum(['out', 'back']), startedAt: isoDateTime })
+export type StartRunInput = z.infer<typeof startRunSchema>
 export const readingSchema = z.object({ trapId: id, systemId: id, time: timeOfDay })
+export type ReadingInput = z.infer<typeof readingSchema>
 export const correctionSchema = z.object({
   time: timeOfDay,
   reason: z.string().trim().min(3, { error: 'say why the time is corrected' }).max(300),
   expectedCurrentId: z.number().int().positive(),
 })
+export type CorrectionInput = z.infer<typeof correctionSchema>
 export const abortSchema = z.object({
   reason: z.string().trim().min(3, { error: 'say why the run is aborted' }).max(300),
 })
+export type AbortInput = z.infer<typeof abortSchema>
 export const weatherSchema = z.object({
   windSpeedMs: decimalText(2, { min: 0, max: 60 }),
   windFromDeg: decimalText(2, { min: 0, max: 360 }),
   temperatureC: decimalText(1, { min: -40, max: 70 }).optional(),
   pressureHpa: decimalText(1, { min: 500, max: 1100 }).optional(),
 })
+export type WeatherInput = z.infer<typeof weatherSchema>
 export const signSheetSchema = z.object({
   password: z.string().min(1, { error: 'enter your password again' }).max(200),
   typedName: z.string().trim().min(2, { error: 'type your full name' }).max(120),
   reason: z.string().trim().max(300).optional(),
 })
+export type SignSheetInput = z.infer<typeof signSheetSchema>
 export const reopenSheetSchema = signSheetSchema.extend({
   reason: z.string().trim().min(3, { error: 'say why the signed sheet is reopened' }).max(300),
 })
+export type ReopenSheetInput = z.infer<typeof reopenSheetSchema>
 
 export const csvImportSchema = z.object({
   csv: z.string().min(1, { error: 'the file is empty' }).max(2_000_000, { error: 'the file is over 2 MB' }),
@@ -173,5 +187,6 @@ export const csvImportSchema = z.object({
   systemId: id.optional(),
   commit: z.boolean().default(false),
 })
+export type CsvImportInput = z.infer<typeof csvImportSchema>
 
 export const idParams = z.object({ id })

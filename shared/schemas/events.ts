@@ -28,6 +28,7 @@ export const createEventSchema = z
     organiserName: personName,
   })
   .refine(x => x.endsOn >= x.startsOn, { error: 'must not be before the first day', path: ['endsOn'] })
+export type CreateEventInput = z.infer<typeof createEventSchema>
 
 export const inviteSchema = z
   .object({
@@ -40,6 +41,7 @@ export const inviteSchema = z
     error: 'name the team this person enters for',
     path: ['teamName'],
   })
+export type InviteInput = z.infer<typeof inviteSchema>
 
 export const eventIdParams = z.object({ id: z.coerce.number({ error: 'must be a number' }).int().positive() })
 
@@ -55,3 +57,4 @@ export const updateEventSchema = z
     error: 'must not be before the first day',
     path: ['endsOn'],
   })
+export type UpdateEventInput = z.infer<typeof updateEventSchema>

@@ -14,6 +14,7 @@ export const evidenceFieldsSchema = z.object({
   inspectionId: optionalId,
   itemKey: z.string().max(60).optional(),
 })
+export type EvidenceFieldsInput = z.infer<typeof evidenceFieldsSchema>
 
 export const evidenceQuerySchema = z.object({
   kind: z.enum(EVIDENCE_KINDS).optional(),
@@ -21,6 +22,7 @@ export const evidenceQuerySchema = z.object({
   runId: optionalId,
   entryId: optionalId,
 })
+export type EvidenceQuery = z.infer<typeof evidenceQuerySchema>
 
 export const hashParams = z.object({
   id: z.coerce.number().int().positive(),

@@ -12,6 +12,7 @@ export const checklistAdaptSchema = z.object({
     .default([]),
   note: z.string().trim().min(3, { error: 'say which rulebook the adaptation follows' }).max(300),
 })
+export type ChecklistAdaptInput = z.infer<typeof checklistAdaptSchema>
 
 export const startInspectionSchema = z
   .object({
@@ -23,6 +24,7 @@ export const startInspectionSchema = z
     error: 'choose the event\'s checklist or a library template',
     path: ['checklistId'],
   })
+export type StartInspectionInput = z.infer<typeof startInspectionSchema>
 
 export const answerSchema = z.object({
   itemKey: z.string().min(1).max(60),
@@ -35,6 +37,7 @@ export const answerSchema = z.object({
   unit: z.string().max(8).optional(),
   note: z.string().trim().max(1000).optional(),
 })
+export type AnswerInput = z.infer<typeof answerSchema>
 
 export const busSchema = z.object({
   busVoltageV: z.coerce
@@ -43,6 +46,7 @@ export const busSchema = z.object({
     .max(2000, { error: 'must be at most 2000 V' }),
   busKind: z.enum(['dc', 'ac'], { error: 'must be DC or AC' }),
 })
+export type BusInput = z.infer<typeof busSchema>
 
 /** A drawn signature, as a PNG data URL, at most about 200 kB. */
 const drawing = z
@@ -52,6 +56,7 @@ const drawing = z
   .optional()
 
 export const signRecordSchema = signSheetSchema.extend({ drawingPng: drawing })
+export type SignRecordInput = z.infer<typeof signRecordSchema>
 
 export const statementSchema = signRecordSchema.extend({
   attemptId: id,
@@ -60,12 +65,15 @@ export const statementSchema = signRecordSchema.extend({
   conditions: z.string().trim().min(2, { error: 'describe the conditions' }).max(1000),
   irregularities: z.string().trim().max(2000).default(''),
 })
+export type StatementInput = z.infer<typeof statementSchema>
 
 export const withdrawalSchema = signRecordSchema.extend({
   reason: z.string().trim().min(3, { error: 'say why the statement is withdrawn' }).max(1000),
 })
+export type WithdrawalInput = z.infer<typeof withdrawalSchema>
 
 export const decisionSchema = signRecordSchema.extend({
   decision: z.enum(['ratified', 'refused'], { error: 'must be ratified or refused' }),
   reasons: z.string().trim().min(3, { error: 'give the reasons in writing' }).max(4000),
 })
+export type DecisionInput = z.infer<typeof decisionSchema>

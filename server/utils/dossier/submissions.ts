@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
 import type { EventAccess } from '../auth/auth'
+import type { DecisionInput } from '#shared/schemas/inspection'
 
 /** The team an attempt belongs to; a team may act only on its own attempts (else 404). */
 export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
@@ -8,10 +9,10 @@ export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
     .from(tables.attempts)
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, access.eventId)))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  if (!row) throw notFound('No such attempt')
   const teamOnly = !access.asAdmin && access.roles.every(r => r === 'team')
   if (teamOnly && !access.teamIds.includes(row.teamId))
-    throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+    throw notFound('No such attempt')
   return row.teamId
 }
 
@@ -48,7 +49,7 @@ export async function dossiersOf(attemptId: number) {
 
 async function dossierRow(id: number) {
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, id))
-  if (!d) throw createError({ statusCode: 404, statusMessage: 'No such dossier' })
+  if (!d) throw notFound('No such dossier')
   return d
 }
 
@@ -81,7 +82,7 @@ export async function submitDossier(dossierId: number, userId: number) {
     .values({ dossierId, submittedBy: userId })
     .onConflictDoNothing()
     .returning()
-  if (!row) throw createError({ statusCode: 409, statusMessage: 'This dossier has already been submitted' })
+  if (!row) throw conflict('This dossier has already been submitted')
   const m = d.manifest as {
     entry: { machineName: string, teamName: string, className: string, distanceLabel: string }
     result: { kmh: string, mph: string }
@@ -112,7 +113,7 @@ export async function submitDossier(dossierId: number, userId: number) {
 /** An official ratifies or refuses a submitted dossier, with reasons, signed; the team is e-mailed. */
 export async function decideDossier(
   dossierId: number,
-  input: { decision: 'ratified' | 'refused', reasons: string, password: string, typedName: string },
+  input: DecisionInput,
   user: { id: number, name: string },
 ) {
   const d = await dossierRow(dossierId)
@@ -120,12 +121,12 @@ export async function decideDossier(
     .select()
     .from(tables.submissions)
     .where(eq(tables.submissions.dossierId, dossierId))
-  if (!submitted) throw createError({ statusCode: 409, statusMessage: 'This dossier has not been submitted' })
+  if (!submitted) throw conflict('This dossier has not been submitted')
   await assertPassword(user.id, input.password)
   const decision = await useDb().transaction(async (tx) => {
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
-      throw createError({ statusCode: 409, statusMessage: `This dossier was already ${existing.decision}` })
+      throw conflict(`This dossier was already ${existing.decision}`)
     const content = {
       dossier: d.id,
       attempt: d.attemptId,

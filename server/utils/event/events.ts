@@ -1,8 +1,7 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import { copyProfile, profiles } from '#shared/rules/profiles'
-import type { createEventSchema } from '#shared/schemas/events'
-import type { z } from 'zod'
+import type { CreateEventInput } from '#shared/schemas/events'
 import type { EventAccess } from '../auth/auth'
 
 export async function membershipsOf(userId: number) {
@@ -49,7 +48,7 @@ export async function listEventsFor(user: User) {
   return db.select(cols).from(events).where(inArray(events.id, mine)).orderBy(asc(events.startsOn))
 }
 
-export async function createEventWithOrganiser(input: z.infer<typeof createEventSchema>, adminId: number) {
+export async function createEventWithOrganiser(input: CreateEventInput, adminId: number) {
   const { organiserEmail, organiserName, ...fields } = input
   const [created] = await useDb()
     .insert(tables.events)

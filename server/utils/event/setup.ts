@@ -2,8 +2,7 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import type { RuleProfile } from '#shared/rules/profile'
-import type { z } from 'zod'
-import type { distanceSchema, entrySchema, profileAdaptSchema } from '#shared/schemas/event-day'
+import type { DistanceInput, EntryInput, ProfileAdaptInput, StartRunInput } from '#shared/schemas/event-day'
 
 const unprocessable = fieldInvalid
 
@@ -18,7 +17,7 @@ export async function courseOf(eventId: number, courseId: number, field = 'cours
 }
 
 /** Adds a measured distance after checking it against the surveyed trap positions and the profile. */
-export async function addMeasuredDistance(eventId: number, input: z.infer<typeof distanceSchema>) {
+export async function addMeasuredDistance(eventId: number, input: DistanceInput) {
   const course = await courseOf(eventId, input.courseId)
   const traps = await useDb()
     .select()
@@ -46,7 +45,7 @@ export async function addMeasuredDistance(eventId: number, input: z.infer<typeof
 }
 
 /** Copies a library profile, adapts the given values with the organiser's stated source, bumps the version. */
-export async function adaptProfile(eventId: number, input: z.infer<typeof profileAdaptSchema>) {
+export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   const [event] = await useDb()
     .select({ profile: tables.events.profile })
     .from(tables.events)
@@ -76,7 +75,7 @@ export async function adaptProfile(eventId: number, input: z.infer<typeof profil
 }
 
 /** A team enters a machine and rider (new or already entered by the same team) for a class and distance. */
-export async function addEntry(eventId: number, teamId: number, input: z.infer<typeof entrySchema>) {
+export async function addEntry(eventId: number, teamId: number, input: EntryInput) {
   const db = useDb()
   const [distance] = await db
     .select({ id: tables.measuredDistances.id })
@@ -131,7 +130,7 @@ export async function addEntry(eventId: number, teamId: number, input: z.infer<t
  */
 export async function startRun(
   eventId: number,
-  input: { entryId: number, direction: 'out' | 'back', startedAt: string },
+  input: StartRunInput,
   userId: number,
 ) {
   return useDb().transaction(async (tx) => {

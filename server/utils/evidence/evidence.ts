@@ -1,13 +1,12 @@
 import { sql, type SQL } from 'drizzle-orm'
 import { fileTypeFromBuffer } from 'file-type'
 import { evidenceKinds, extensionMismatch, TEXT, type EvidenceKind } from '#shared/evidence/kinds'
-import { evidenceFieldsSchema } from '#shared/schemas/evidence'
-import type { z } from 'zod'
+import { evidenceFieldsSchema, type EvidenceFieldsInput } from '#shared/schemas/evidence'
 import type { EventAccess } from '../auth/auth'
 import type { StagedFile } from './uploads'
 
-type Fields = z.infer<typeof evidenceFieldsSchema>
-const notFound = () => createError({ statusCode: 404, statusMessage: 'No such evidence' })
+type Fields = EvidenceFieldsInput
+const noSuchEvidence = () => notFound('No such evidence')
 const field = fieldInvalid
 
 /** The team(s) a target belongs to, or null for event-level targets; 422 if it is not of this event. */
@@ -69,7 +68,7 @@ export function evidenceGate(access: EventAccess) {
       throw invalidInput(r.error)
     }
     const teams = await targetTeams(access.eventId, r.data)
-    if (teamOnly(access) && teams && !teams.every(t => access.teamIds.includes(t))) throw notFound()
+    if (teamOnly(access) && teams && !teams.every(t => access.teamIds.includes(t))) throw noSuchEvidence()
     if (teamOnly(access) && !teams)
       throw field('entryId', 'a team attaches evidence to its own entry, attempt or run')
     return limitFor(r.data.kind)
@@ -196,6 +195,6 @@ export async function findEvidence(access: EventAccess, by: { id?: number, sha25
     where x.event_id = ${access.eventId} and ${by.id ? sql`x.id = ${by.id}` : sql`x.sha256 = ${by.sha256}`}
     order by x.id desc limit 1`)
   const row = rows[0] ? camel(rows[0]) : null
-  if (!row || (teamOnly(access) && row.teamId !== null && !access.teamIds.includes(row.teamId))) throw notFound()
+  if (!row || (teamOnly(access) && row.teamId !== null && !access.teamIds.includes(row.teamId))) throw noSuchEvidence()
   return row
 }

@@ -10,12 +10,13 @@ import {
 import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
+import type { ChecklistAdaptInput, StartInspectionInput, AnswerInput, SignRecordInput } from '#shared/schemas/inspection'
 
 const fieldError = fieldInvalid
 
 async function loadInspection(id: number) {
   const [row] = await useDb().select().from(tables.inspections).where(eq(tables.inspections.id, id))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'No such inspection' })
+  if (!row) throw notFound('No such inspection')
   return row
 }
 
@@ -35,7 +36,7 @@ const asAnswers = (rows: (typeof tables.inspectionAnswers.$inferSelect)[]): Answ
 /** The organiser's adapted copy of a library checklist, with a new version for the event. */
 export async function adaptChecklist(
   eventId: number,
-  input: { baseId: string, removeItems: string[], addItems: { section: string, label: string }[], note: string },
+  input: ChecklistAdaptInput,
   userId: number,
 ) {
   const base = checklistLibrary[input.baseId as ChecklistId]
@@ -76,7 +77,7 @@ export async function adaptChecklist(
 
 export async function startInspection(
   eventId: number,
-  input: { entryId: number, checklistId?: number, baseId?: string },
+  input: StartInspectionInput,
   userId: number,
 ) {
   const db = useDb()
@@ -122,7 +123,7 @@ export async function startInspection(
 /** Records one item's result; a measurement is converted to the item's unit and checked. */
 export async function answerItem(
   inspectionId: number,
-  input: { itemKey: string, result: 'pass' | 'fail' | 'na', value?: number, unit?: string, note?: string },
+  input: AnswerInput,
   userId: number,
 ) {
   const inspection = await loadInspection(inspectionId)
@@ -222,7 +223,7 @@ export async function inspectionContent(inspectionId: number) {
 
 export async function signInspection(
   inspectionId: number,
-  input: { password: string, typedName: string, drawingPng?: string },
+  input: SignRecordInput,
   user: { id: number },
 ) {
   await assertPassword(user.id, input.password)
@@ -245,7 +246,7 @@ export async function signInspection(
       sql`select signature_id from inspections where id = ${inspectionId} for update`,
     )
     if (locked.rows[0]?.signature_id)
-      throw createError({ statusCode: 409, statusMessage: 'This inspection is already signed' })
+      throw conflict('This inspection is already signed')
     const sig = await insertSignature(tx, {
       kind: 'inspection',
       subjectId: inspectionId,

@@ -1,4 +1,5 @@
 import { and, asc, eq, inArray } from 'drizzle-orm'
+import type { StatementInput, WithdrawalInput } from '#shared/schemas/inspection'
 
 type StatementRow = typeof tables.statements.$inferSelect
 
@@ -17,16 +18,7 @@ export const statementContent = (s: StatementRow, authorName: string) => ({
 /** Writes and signs a witness statement in one step: the statement exists only signed. */
 export async function createStatement(
   eventId: number,
-  input: {
-    attemptId: number
-    runsSeen: string
-    position: string
-    conditions: string
-    irregularities: string
-    password: string
-    typedName: string
-    drawingPng?: string
-  },
+  input: StatementInput,
   user: { id: number, name: string },
 ) {
   const [attempt] = await useDb()
@@ -64,7 +56,7 @@ async function signStatement(
       .values({ eventId, authorId: user.id, ...body })
       .onConflictDoNothing()
       .returning()
-    if (!row) throw createError({ statusCode: 409, statusMessage: 'This statement has already been withdrawn' })
+    if (!row) throw conflict('This statement has already been withdrawn')
     const sig = await insertSignature(tx, {
       kind: 'statement',
       subjectId: row.id,
@@ -88,15 +80,15 @@ async function signStatement(
 /** Withdraws a signed statement by a new signed statement that says why; both are kept. */
 export async function withdrawStatement(
   statementId: number,
-  input: { reason: string, password: string, typedName: string, drawingPng?: string },
+  input: WithdrawalInput,
   user: { id: number, name: string },
 ) {
   const [original] = await useDb().select().from(tables.statements).where(eq(tables.statements.id, statementId))
-  if (!original) throw createError({ statusCode: 404, statusMessage: 'No such statement' })
+  if (!original) throw notFound('No such statement')
   if (original.authorId !== user.id)
     throw createError({ statusCode: 403, statusMessage: 'Only the official who signed a statement withdraws it' })
   if (original.withdrawsId)
-    throw createError({ statusCode: 409, statusMessage: 'This is a withdrawal; it cannot itself be withdrawn' })
+    throw conflict('This is a withdrawal; it cannot itself be withdrawn')
   await assertPassword(user.id, input.password)
   return signStatement(
     original.eventId,
