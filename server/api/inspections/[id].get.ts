@@ -9,6 +9,6 @@ export default defineEventHandler(async (event) => {
     .from(tables.entries)
     .where(eq(tables.entries.id, view.inspection.entryId))
   if (roles.every(r => r === 'team') && !teamIds.includes(entry!.teamId))
-    throw createError({ statusCode: 404, statusMessage: 'No such inspection' })
+    throw notFound('No such inspection')
   return view
 })

@@ -4,6 +4,6 @@ export default defineEventHandler(async (event) => {
   const { recordId, roles, teamIds } = await requireRoleOn(event, 'signature', 'any')
   const report = await signatureReport(recordId)
   if (roles.every(r => r === 'team') && !teamIds.includes(report.teamId))
-    throw createError({ statusCode: 404, statusMessage: 'No such signature' })
+    throw notFound('No such signature')
   return report
 })

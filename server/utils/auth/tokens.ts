@@ -27,7 +27,7 @@ export async function findUsableToken(token: string) {
     .from(tables.authTokens)
     .innerJoin(tables.users, eq(tables.users.id, tables.authTokens.userId))
     .where(eq(tables.authTokens.tokenHash, digest(token)))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'This link is not valid' })
+  if (!row) throw notFound('This link is not valid')
   if (row.token.usedAt) throw createError({ statusCode: 410, statusMessage: 'This link has already been used' })
   if (row.token.expiresAt.getTime() < Date.now())
     throw createError({ statusCode: 410, statusMessage: 'This link has expired; ask for a new one' })

@@ -4,6 +4,8 @@ import * as schema from '../../database/schema'
 
 export { schema as tables }
 export type Db = NodePgDatabase<typeof schema>
+/** A transaction, as handed to the callback of `useDb().transaction`. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
 let db: Db | undefined
 let pool: pg.Pool | undefined

@@ -16,7 +16,7 @@ export interface ReadinessItem {
 export async function readinessOf(eventId: number, attemptId: number) {
   const day = await loadEventDay(eventId, { history: true })
   const attempt = day.attempts.find(a => a.id === attemptId)
-  if (!attempt) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  if (!attempt) throw notFound('No such attempt')
   const live = computeLive({ ...day, attempts: [attempt] })[0]!
   const entry = day.entries.find(e => e.entry.id === attempt.entryId)!
   const distance = day.distances.find(d => d.id === entry.entry.distanceId)!
@@ -127,7 +127,7 @@ export async function attemptOfEvent(eventId: number, attemptId: number) {
     .select()
     .from(tables.attempts)
     .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
-  if (!a) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  if (!a) throw notFound('No such attempt')
   return a
 }
 

@@ -12,7 +12,7 @@ export async function liveResultsTag(eventId: number) {
     .select({ version: tables.events.dataVersion })
     .from(tables.events)
     .where(eq(tables.events.id, eventId))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'No such event' })
+  if (!row) throw notFound('No such event')
   return { version: row.version, etag: `"live-${eventId}-${row.version}"` }
 }
 

@@ -8,7 +8,7 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   const db = useDb()
   const t = tables
   const [event] = await db.select().from(t.events).where(eq(t.events.id, eventId))
-  if (!event) throw createError({ statusCode: 404, statusMessage: 'No such event' })
+  if (!event) throw notFound('No such event')
   const courseIds = db.select({ id: t.courses.id }).from(t.courses).where(eq(t.courses.eventId, eventId))
   const [courses, traps, distances, systems, entryRows, records, attempts, runs, readings, weather, signatures]
     = await Promise.all([

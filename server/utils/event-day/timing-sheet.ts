@@ -6,7 +6,7 @@ import { computeLive } from './live'
 /** The canonical content of an attempt's timing sheet: every reading with its history, and the result. */
 export function timingSheetContent(day: EventDay, attemptId: number) {
   const attempt = day.attempts.find(a => a.id === attemptId)
-  if (!attempt) throw createError({ statusCode: 404, statusMessage: 'No such attempt' })
+  if (!attempt) throw notFound('No such attempt')
   const live = computeLive({ ...day, attempts: [attempt] }, { readings: true })[0]!
   const trapLabel = new Map(day.traps.map(t => [t.id, t.label]))
   const system = new Map(day.systems.map(s => [s.id, s]))
@@ -52,14 +52,12 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
 }
 
 /** Locks the attempt row so that signing and entering readings never interleave. */
-export async function lockAttempt(
-  tx: Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0],
-  attemptId: number,
-) {
+export async function lockAttempt(tx: Tx, attemptId: number) {
   await tx.execute(sql`select id from attempts where id = ${attemptId} for update`)
-  const { rows } = await tx.execute<{ kind: string }>(
-    sql`select kind from signatures where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened') order by id desc limit 1`,
-  )
+  const { rows } = await tx.execute<{ kind: string }>(sql`
+    select kind from signatures
+    where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened')
+    order by id desc limit 1`)
   return { signed: rows[0]?.kind === 'timing-sheet' }
 }
 

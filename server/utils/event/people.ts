@@ -20,7 +20,7 @@ export async function invitePerson(inv: Invitation) {
   const { users, memberships, teams, events } = tables
   const result = await db.transaction(async (tx) => {
     const [event] = await tx.select({ name: events.name }).from(events).where(eq(events.id, inv.eventId))
-    if (!event) throw createError({ statusCode: 404, statusMessage: 'No such event' })
+    if (!event) throw notFound('No such event')
     await tx.insert(users).values({ email: inv.email, name: inv.name }).onConflictDoNothing()
     const [user] = await tx.select().from(users).where(eq(users.email, inv.email))
     let teamId: number | null = null

@@ -7,7 +7,7 @@ export async function signatureReport(signatureId: number) {
     .from(tables.signatures)
     .innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId))
     .where(eq(tables.signatures.id, signatureId))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'No such signature' })
+  if (!row) throw notFound('No such signature')
   const s = row.s
   let current: unknown
   let teamId = 0

@@ -1,7 +1,6 @@
 import { createHash } from 'node:crypto'
 import { eq, inArray } from 'drizzle-orm'
 
-export type Tx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
 type Kind = (typeof tables.signatures.$inferInsert)['kind']
 
 export const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')

@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
     await assertOwnAttempt(access, d!.attemptId)
   }
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, id))
-  if (!d) throw createError({ statusCode: 404, statusMessage: 'No such dossier' })
+  if (!d) throw notFound('No such dossier')
   setHeaders(event, {
     'content-type': 'application/pdf',
     'content-length': d.pdfSize,

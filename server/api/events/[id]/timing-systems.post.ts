@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
     .onConflictDoNothing()
     .returning()
   if (!row)
-    throw createError({ statusCode: 409, statusMessage: `This event already has a ${input.role} timing system` })
+    throw conflict(`This event already has a ${input.role} timing system`)
   setResponseStatus(event, 201)
   return row
 })

@@ -6,7 +6,7 @@ export default defineEventHandler(async (event) => {
   await courseOf(eventId, input.courseId)
   const [trap] = await useDb().insert(tables.traps).values(input).onConflictDoNothing().returning()
   if (!trap)
-    throw createError({ statusCode: 409, statusMessage: `This course already has a trap called ${input.label}` })
+    throw conflict(`This course already has a trap called ${input.label}`)
   setResponseStatus(event, 201)
   return trap
 })

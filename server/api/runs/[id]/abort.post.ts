@@ -9,6 +9,6 @@ export default defineEventHandler(async (event) => {
     .set({ status: 'aborted', abortedReason: reason, abortedBy: user.id })
     .where(and(eq(tables.runs.id, recordId), ne(tables.runs.status, 'aborted')))
     .returning()
-  if (!run) throw createError({ statusCode: 409, statusMessage: 'This run is already aborted' })
+  if (!run) throw conflict('This run is already aborted')
   return run
 })
