@@ -5,6 +5,7 @@ import { copyProfile, profiles } from '#shared/rules/profiles'
 import demo from './demo-people.json'
 import * as t from './schema'
 import type { Db } from '../utils/database/db'
+import type { Direction } from '../../shared/constants'
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
@@ -267,7 +268,7 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
 function demoReadings(
   firstTrap: string,
   kmh: number,
-  direction: 'out' | 'back',
+  direction: Direction,
   traps: { id: number, positionM: string }[],
   primary: { id: number, ticksPerSecond: number },
   backup: { id: number, ticksPerSecond: number },

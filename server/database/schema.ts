@@ -17,36 +17,37 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { ChecklistTemplate } from '#shared/inspection/template'
+// Relative, not '#shared': drizzle-kit reads this file outside Nuxt.
+import {
+  DECISIONS,
+  DIRECTIONS,
+  EVENT_ROLES,
+  EVIDENCE_KINDS,
+  ITEM_RESULTS,
+  POWER_SOURCES,
+  RUN_STATUSES,
+  SIGNED_KINDS,
+  START_KINDS,
+  STREAMLINING,
+  SYSTEM_ROLES,
+  TOKEN_PURPOSES,
+  type EventRole,
+} from '../../shared/constants'
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 
-export const eventRole = pgEnum('event_role', ['organiser', 'timekeeper', 'scrutineer', 'team', 'official'])
-export const tokenPurpose = pgEnum('token_purpose', ['invite', 'reset'])
-export const powerSource = pgEnum('power_source', ['electric', 'combustion', 'hybrid'])
-export const streamlining = pgEnum('streamlining', ['none', 'partial', 'full'])
-export const startKind = pgEnum('start_kind', ['flying', 'standing'])
-export const systemRole = pgEnum('system_role', ['primary', 'backup'])
-export const runDirection = pgEnum('run_direction', ['out', 'back'])
-export const runStatus = pgEnum('run_status', ['open', 'finished', 'aborted'])
-export const signedKind = pgEnum('signed_kind', [
-  'timing-sheet',
-  'timing-sheet-reopened',
-  'inspection',
-  'statement',
-  'ratification',
-])
-export const decisionKind = pgEnum('decision_kind', ['ratified', 'refused'])
-export const itemResult = pgEnum('item_result', ['pass', 'fail', 'na'])
-export const evidenceKind = pgEnum('evidence_kind', [
-  'survey-certificate',
-  'calibration-certificate',
-  'scale-certificate',
-  'rider-licence',
-  'photo',
-  'video',
-  'data-log',
-  'other-document',
-])
+export const eventRole = pgEnum('event_role', EVENT_ROLES)
+export const tokenPurpose = pgEnum('token_purpose', TOKEN_PURPOSES)
+export const powerSource = pgEnum('power_source', POWER_SOURCES)
+export const streamlining = pgEnum('streamlining', STREAMLINING)
+export const startKind = pgEnum('start_kind', START_KINDS)
+export const systemRole = pgEnum('system_role', SYSTEM_ROLES)
+export const runDirection = pgEnum('run_direction', DIRECTIONS)
+export const runStatus = pgEnum('run_status', RUN_STATUSES)
+export const signedKind = pgEnum('signed_kind', SIGNED_KINDS)
+export const decisionKind = pgEnum('decision_kind', DECISIONS)
+export const itemResult = pgEnum('item_result', ITEM_RESULTS)
+export const evidenceKind = pgEnum('evidence_kind', EVIDENCE_KINDS)
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),
@@ -587,4 +588,4 @@ export const mailOutbox = pgTable('mail_outbox', {
 export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect
 export type Membership = typeof memberships.$inferSelect
-export type EventRole = (typeof eventRole.enumValues)[number]
+export type { EventRole }

@@ -1,14 +1,6 @@
-export const EVIDENCE_KINDS = [
-  'survey-certificate',
-  'calibration-certificate',
-  'scale-certificate',
-  'rider-licence',
-  'photo',
-  'video',
-  'data-log',
-  'other-document',
-] as const
-export type EvidenceKind = (typeof EVIDENCE_KINDS)[number]
+import { EVIDENCE_KINDS, type EvidenceKind } from '../constants'
+
+export { EVIDENCE_KINDS, type EvidenceKind }
 
 const MB = 1024 * 1024
 const GB = 1024 * MB

@@ -1,6 +1,7 @@
 import type { ChecklistItem, ChecklistTemplate } from './template'
+import type { BusKind, ItemResult } from '../constants'
 
-export type ItemResult = 'pass' | 'fail' | 'na'
+export type { ItemResult }
 
 export interface Answer {
   itemKey: string
@@ -12,7 +13,7 @@ export interface Answer {
 
 export interface BusContext {
   busVoltageV?: number | null
-  busKind?: 'dc' | 'ac' | null
+  busKind?: BusKind | null
 }
 
 /** Units a measurement may be typed in, with the factor to the item's unit. */

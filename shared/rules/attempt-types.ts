@@ -2,8 +2,9 @@ import { toFixed, type Q } from './exact'
 import type { Finding } from './findings'
 import type { RuleProfile, WindowAnchor } from './profile'
 import { convertSpeed, type SpeedUnit } from './units'
+import type { Direction } from '../constants'
 
-export type Direction = 'out' | 'back'
+export type { Direction }
 
 export interface RunInput {
   direction: Direction

@@ -1,4 +1,5 @@
 import type { Rounding } from './exact'
+import type { Averaging, StartKind } from '../constants'
 
 /** How sure we are of a rule value, always printed beside it. */
 export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settled' | 'not known'
@@ -20,7 +21,7 @@ export type RunWindow
 export interface MeasuredDistanceSpec {
   label: string
   metres: string // exact decimal
-  start: 'flying' | 'standing'
+  start: StartKind
 }
 
 export interface MassClass {
@@ -38,7 +39,7 @@ export interface RuleProfile {
   window: Sourced<RunWindow>
   /** Informational: minutes within which a qualified machine goes into impound. */
   impoundMinutes: Sourced<number | null>
-  averaging: Sourced<'mean-of-times' | 'mean-of-speeds'>
+  averaging: Sourced<Averaging>
   figures: Sourced<{ decimals: number, rounding: Rounding }>
   /** The improvement needed over the standing record. */
   margin: Sourced<{ percent: number, inclusive: boolean }>

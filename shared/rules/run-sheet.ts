@@ -4,6 +4,7 @@ import { checkWind, windComponents, type WindComponents } from './checks'
 import type { RuleProfile } from './profile'
 import { formatTimeOfDay } from './timing'
 import { convertSpeed } from './units'
+import type { Direction, SystemRole } from '../constants'
 
 /**
  * A plausibility bound on any segment speed, above every land speed record so far (1,227.985 km/h
@@ -27,7 +28,7 @@ export interface DistanceDef {
 export interface SystemDef {
   id: number
   name: string
-  role: 'primary' | 'backup'
+  role: SystemRole
   ticksPerSecond: number
   toleranceS: string
 }
@@ -59,7 +60,7 @@ export interface TimedFigure {
 export interface RunComputation {
   systems: {
     systemId: number
-    role: 'primary' | 'backup'
+    role: SystemRole
     segments: ({ fromTrapId: number, toTrapId: number, lengthM: string, midpointM: number } & TimedFigure)[]
     distances: ({ distanceId: number, label: string } & TimedFigure)[]
   }[]
@@ -84,7 +85,7 @@ const figure = (profile: RuleProfile, lengthM: Q, timeS: Q, timeDecimals: number
 /** Speeds of one run: each segment between traps and each measured distance, per timing system. */
 export function computeRun(input: {
   profile: RuleProfile
-  direction: 'out' | 'back'
+  direction: Direction
   headingDeg: number
   traps: TrapDef[]
   distances: DistanceDef[]

@@ -1,9 +1,10 @@
 import { z } from 'zod'
 import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime, positiveDecimal, positiveNumber, timeZoneName } from './fields'
+import { DIRECTIONS, type Direction } from '../constants'
 
 export const calculatorRunSchema = z.object({
-  direction: z.enum(['out', 'back'], { error: 'must be "out" or "back"' }),
+  direction: z.enum(DIRECTIONS, { error: 'must be "out" or "back"' }),
   startedAt: isoDateTime,
   elapsedS: positiveDecimal,
 })
@@ -31,7 +32,7 @@ export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
 
 export interface CalculatorResponse {
   profile: { id: string, version: number, name: string, decimals: number }
-  runs: { direction: 'out' | 'back', elapsedS: string, speedKmh: string, speedMph: string }[]
+  runs: { direction: Direction, elapsedS: string, speedKmh: string, speedMph: string }[]
   meanTimeS: string | null
   resultKmh: string | null
   resultMph: string | null

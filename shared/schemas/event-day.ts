@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { decimalsOf, fromDecimal } from '../rules/exact'
 import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime } from './fields'
+import { AVERAGINGS, DIRECTIONS, POWER_SOURCES, START_KINDS, STREAMLINING, SYSTEM_ROLES } from '../constants'
 
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
 export const decimalText = (maxDecimals: number, opts: { min?: number, max?: number } = {}) =>
@@ -54,7 +55,7 @@ export const distanceSchema = z
   .object({
     courseId: id,
     label,
-    start: z.enum(['flying', 'standing']),
+    start: z.enum(START_KINDS),
     nominalM: decimalText(3, { min: 1, max: 100_000 }),
     entryTrapId: id,
     exitTrapId: id,
@@ -66,7 +67,7 @@ export const RESOLUTIONS = [100, 1000, 10_000, 100_000, 1_000_000] as const
 export const timingSystemSchema = z
   .object({
     name: z.string().trim().min(2).max(80),
-    role: z.enum(['primary', 'backup']),
+    role: z.enum(SYSTEM_ROLES),
     ticksPerSecond: z.coerce
       .number()
       .refine(n => (RESOLUTIONS as readonly number[]).includes(n), {
@@ -103,7 +104,7 @@ export const profileAdaptSchema = z.object({
   marginPercent: z.coerce.number().min(0).max(10).optional(),
   tailWindLimitMs: z.coerce.number().min(0).max(20).nullable().optional(),
   witnessStatements: z.coerce.number().int().min(0).max(10).optional(),
-  averaging: z.enum(['mean-of-times', 'mean-of-speeds']).optional(),
+  averaging: z.enum(AVERAGINGS).optional(),
   source: z
     .string()
     .trim()
@@ -117,9 +118,9 @@ export const entrySchema = z
     machine: z
       .object({
         name: z.string().trim().min(2).max(80),
-        power: z.enum(['electric', 'combustion', 'hybrid']),
+        power: z.enum(POWER_SOURCES),
         declaredMassKg: decimalText(1, { min: 1, max: 20_000 }),
-        division: z.enum(['none', 'partial', 'full']),
+        division: z.enum(STREAMLINING),
       })
       .optional(),
     machineId: id.optional(),
@@ -144,7 +145,7 @@ export const entrySchema = z
   })
 export type EntryInput = z.infer<typeof entrySchema>
 
-export const startRunSchema = z.object({ entryId: id, direction: z.enum(['out', 'back']), startedAt: isoDateTime })
+export const startRunSchema = z.object({ entryId: id, direction: z.enum(DIRECTIONS), startedAt: isoDateTime })
 export type StartRunInput = z.infer<typeof startRunSchema>
 export const readingSchema = z.object({ trapId: id, systemId: id, time: timeOfDay })
 export type ReadingInput = z.infer<typeof readingSchema>

@@ -1,11 +1,11 @@
 import { z } from 'zod'
 import { PROFILE_IDS } from '../rules/profiles'
 import { email, timeZoneName } from './fields'
+import { EVENT_ROLES, type EventRole } from '../constants'
 
-export const EVENT_ROLES = ['organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const
-export type EventRoleName = (typeof EVENT_ROLES)[number]
+export { EVENT_ROLES }
 
-export const roleLabels: Record<EventRoleName, string> = {
+export const roleLabels: Record<EventRole, string> = {
   organiser: 'Organiser',
   timekeeper: 'Timekeeper',
   scrutineer: 'Scrutineer',

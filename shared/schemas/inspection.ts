@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
+import { BUS_KINDS, DECISIONS, ITEM_RESULTS } from '../constants'
 
 const id = z.coerce.number({ error: 'must be a number' }).int().positive()
 
@@ -28,7 +29,7 @@ export type StartInspectionInput = z.infer<typeof startInspectionSchema>
 
 export const answerSchema = z.object({
   itemKey: z.string().min(1).max(60),
-  result: z.enum(['pass', 'fail', 'na'], { error: 'must be pass, fail or not applicable' }),
+  result: z.enum(ITEM_RESULTS, { error: 'must be pass, fail or not applicable' }),
   value: z.coerce
     .number({ error: 'must be a number' })
     .finite()
@@ -44,7 +45,7 @@ export const busSchema = z.object({
     .number({ error: 'must be a number' })
     .positive({ error: 'must be greater than zero' })
     .max(2000, { error: 'must be at most 2000 V' }),
-  busKind: z.enum(['dc', 'ac'], { error: 'must be DC or AC' }),
+  busKind: z.enum(BUS_KINDS, { error: 'must be DC or AC' }),
 })
 export type BusInput = z.infer<typeof busSchema>
 
@@ -73,7 +74,7 @@ export const withdrawalSchema = signRecordSchema.extend({
 export type WithdrawalInput = z.infer<typeof withdrawalSchema>
 
 export const decisionSchema = signRecordSchema.extend({
-  decision: z.enum(['ratified', 'refused'], { error: 'must be ratified or refused' }),
+  decision: z.enum(DECISIONS, { error: 'must be ratified or refused' }),
   reasons: z.string().trim().min(3, { error: 'give the reasons in writing' }).max(4000),
 })
 export type DecisionInput = z.infer<typeof decisionSchema>

@@ -1,6 +1,6 @@
 import { and, eq, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
-import type { EventRole } from '../../database/schema'
+import type { EventRole } from '#shared/constants'
 import { eventIdParams } from '#shared/schemas/events'
 import { idParams } from '#shared/schemas/event-day'
 

@@ -1,12 +1,6 @@
-import type { EventRole } from '../../database/schema'
+import type { EventRole } from '#shared/constants'
+import type { Task } from '#shared/types/home'
 import type { AttemptProgress, HomeFacts } from './home-facts'
-
-export interface Task {
-  title: string
-  detail: string
-  href: string
-  done: boolean
-}
 
 /** One of this person's places at an event: the event, the role and the team. */
 export interface HomePlace {

@@ -1,16 +1,8 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import type { User } from '#auth-utils'
-import type { EventRole } from '../../database/schema'
+import type { RoleHome } from '#shared/types/home'
 import { loadHomeFacts } from './home-facts'
-import { tasksFor, type Task } from './home-tasks'
-
-export interface RoleHome {
-  eventId: number
-  eventName: string
-  role: EventRole
-  teamName: string | null
-  tasks: Task[]
-}
+import { tasksFor } from './home-tasks'
 
 /** Events nobody organises: the administrator's to-do. */
 function eventsWithoutOrganiser() {

@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm'
-import type { EventRole } from '../../database/schema'
+import type { EventRole } from '#shared/constants'
 import { roleLabels } from '#shared/schemas/events'
 
 interface Invitation {

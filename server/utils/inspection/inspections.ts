@@ -10,7 +10,14 @@ import {
 import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
-import type { ChecklistAdaptInput, StartInspectionInput, AnswerInput, SignRecordInput } from '#shared/schemas/inspection'
+import type {
+  AnswerInput,
+  BusInput,
+  ChecklistAdaptInput,
+  SignRecordInput,
+  StartInspectionInput,
+} from '#shared/schemas/inspection'
+import type { BusKind } from '#shared/constants'
 
 const fieldError = fieldInvalid
 
@@ -148,7 +155,7 @@ export async function answerItem(
   }
   const verdict = checkMeasurement(item, value, {
     busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
-    busKind: inspection.busKind as 'dc' | 'ac' | null,
+    busKind: inspection.busKind as BusKind | null,
   })
   const values = {
     inspectionId,
@@ -171,7 +178,7 @@ export async function answerItem(
   return { answer: row!, verdict }
 }
 
-export async function setBus(inspectionId: number, bus: { busVoltageV: number, busKind: 'dc' | 'ac' }) {
+export async function setBus(inspectionId: number, bus: BusInput) {
   const inspection = await loadInspection(inspectionId)
   if (inspection.signatureId)
     throw createError({
@@ -291,7 +298,7 @@ export async function inspectionView(inspectionId: number) {
   const answers = await answersOf([inspectionId])
   const bus = {
     busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
-    busKind: inspection.busKind as 'dc' | 'ac' | null,
+    busKind: inspection.busKind as BusKind | null,
   }
   const [event] = await useDb()
     .select({ profile: tables.events.profile })
