@@ -5,12 +5,17 @@ interface Issue {
   message: string
 }
 
+/** A shared zod schema, as far as the form needs it. */
+interface Checkable {
+  safeParse: (x: unknown) => { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } }
+}
+
 /** The one place that turns a server's 422 (or any error) into messages beside the fields. */
 export function useFormErrors() {
-  const fields = reactive<Record<string, string>>({})
+  const fields = ref<Record<string, string>>({})
   const general = ref('')
   function clear() {
-    for (const k of Object.keys(fields)) delete fields[k]
+    fields.value = {}
     general.value = ''
   }
   function take(error: unknown) {
@@ -18,7 +23,7 @@ export function useFormErrors() {
     const e = error as FetchError<{ data?: { issues?: Issue[] }, message?: string, statusMessage?: string }>
     const issues = e?.data?.data?.issues
     if (e?.statusCode === 422 && issues?.length) {
-      for (const i of issues) fields[i.path] = i.message
+      fields.value = Object.fromEntries(issues.map(i => [i.path, i.message]))
     }
     else {
       general.value
@@ -29,20 +34,18 @@ export function useFormErrors() {
     }
   }
   /** Checks one field with a shared zod schema as the person leaves it. */
-  function check(
-    schema: {
-      safeParse: (x: unknown) => {
-        success: boolean
-        error?: { issues: { path: PropertyKey[], message: string }[] }
-      }
-    },
-    value: unknown,
-    path: string,
-  ) {
+  function check(schema: Checkable, value: unknown, path: string) {
     const r = schema.safeParse(value)
     const issue = r.success ? undefined : r.error?.issues.find(i => i.path.join('.') === path)
-    if (issue) fields[path] = issue.message
-    else delete fields[path]
+    const { [path]: _old, ...others } = fields.value
+    fields.value = issue ? { ...others, [path]: issue.message } : others
   }
-  return reactive({ fields, general, clear, take, check })
+  /** Checks a whole form with its shared zod schema before sending; false when any field is wrong. */
+  function checkAll(schema: Checkable, value: unknown) {
+    clear()
+    const r = schema.safeParse(value)
+    fields.value = Object.fromEntries((r.error?.issues ?? []).map(i => [i.path.join('.'), i.message]))
+    return r.success
+  }
+  return reactive({ fields, general, clear, take, check, checkAll })
 }

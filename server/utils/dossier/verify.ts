@@ -1,15 +1,9 @@
 import { createHash } from 'node:crypto'
 import { eq } from 'drizzle-orm'
 import { attachmentName } from './render'
+import type { Verification } from '#shared/types/verification'
 import { readAttachments } from './pdf-attachments'
 
-export interface Verification {
-  sealValid: boolean
-  keyFingerprint: string | null
-  items: { name: string, ok: boolean }[]
-  message: string
-  dossier?: { id: number, attemptId: number, version: number } | null
-}
 
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
