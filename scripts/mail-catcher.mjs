@@ -44,7 +44,7 @@ const esc = s => String(s).replace(/[&<>"]/g, c => ({ '&': '&amp;', '<': '&lt;',
 const http = createServer((req, res) => {
   const url = new URL(req.url ?? '/', 'http://localhost')
   if (url.pathname === '/api/messages') {
-    const summary = list().map(({ attachments, ...m }) => ({ ...m, attachments: attachments.map(({ content, ...a }) => a) }))
+    const summary = list().map(({ attachments, ...m }) => ({ ...m, attachments: attachments.map(a => ({ ...a, content: undefined })) }))
     res.writeHead(200, { 'content-type': 'application/json' }).end(JSON.stringify(summary))
     return
   }
@@ -67,6 +67,10 @@ const http = createServer((req, res) => {
 smtp.listen(smtpPort, '127.0.0.1', () => {
   http.listen(httpPort, '127.0.0.1', () => console.log(`mail catcher: smtp 127.0.0.1:${smtpPort}, inbox http://127.0.0.1:${httpPort}`))
 })
-const stop = () => { smtp.close(() => {}); http.close(); process.exit(0) }
+const stop = () => {
+  smtp.close(() => {})
+  http.close()
+  process.exit(0)
+}
 process.on('SIGTERM', stop)
 process.on('SIGINT', stop)

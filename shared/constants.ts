@@ -32,7 +32,13 @@ export const RUN_STATUSES = ['open', 'finished', 'aborted'] as const
 export type RunStatus = (typeof RUN_STATUSES)[number]
 
 /** What a signature row signs. */
-export const SIGNED_KINDS = ['timing-sheet', 'timing-sheet-reopened', 'inspection', 'statement', 'ratification'] as const
+export const SIGNED_KINDS = [
+  'timing-sheet',
+  'timing-sheet-reopened',
+  'inspection',
+  'statement',
+  'ratification',
+] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 
 /** The officials' decision on a submitted dossier. */

@@ -33,7 +33,8 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
     if (file.size > evidenceKinds[kind].maxBytes) {
       Object.assign(item, {
         state: 'failed',
-        message: `over the limit of ${formatBytes(evidenceKinds[kind].maxBytes)} for a ${evidenceKinds[kind].label.toLowerCase()}`,
+        message: `over the limit of ${formatBytes(evidenceKinds[kind].maxBytes)} for a `
+          + `${evidenceKinds[kind].label.toLowerCase()}`,
       })
       return
     }

@@ -1,8 +1,11 @@
 import { defineStore } from 'pinia'
 
+/** The units speeds are shown in. */
+export type DisplayUnit = 'km/h' | 'mph'
+
 /** Display choices that stick across visits (kept in cookies so the server renders them too). */
 export const usePreferencesStore = defineStore('preferences', () => {
-  const unitCookie = useCookie<'km/h' | 'mph'>('trapline-unit', {
+  const unitCookie = useCookie<DisplayUnit>('trapline-unit', {
     default: () => 'km/h',
     maxAge: 60 * 60 * 24 * 365,
     sameSite: 'lax',

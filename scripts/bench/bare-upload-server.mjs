@@ -9,6 +9,12 @@ import { pipeline } from 'node:stream/promises'
 const [port, file] = [Number(process.argv[2]), process.argv[3]]
 createServer(async (req, res) => {
   const hash = createHash('sha256')
-  await pipeline(req, new Transform({ transform(c, _e, done) { hash.update(c); done(null, c) } }), createWriteStream(file))
+  const hashing = new Transform({
+    transform(chunk, _encoding, done) {
+      hash.update(chunk)
+      done(null, chunk)
+    },
+  })
+  await pipeline(req, hashing, createWriteStream(file))
   res.end(hash.digest('hex'))
 }).listen(port, '127.0.0.1', () => console.log('ready'))

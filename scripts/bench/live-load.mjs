@@ -7,8 +7,8 @@ import { parseArgs } from 'node:util'
 const { values } = parseArgs({ options: { url: { type: 'string' }, db: { type: 'string' }, psql: { type: 'string' }, clients: { type: 'string', default: '50' }, seconds: { type: 'string', default: '10' } } })
 const sql = q => execFileSync(values.psql, [values.db, '-tAc', q], { encoding: 'utf8' }).trim()
 
-/** An event of its own with N runs of 5 traps × 2 timing systems = 10 readings each. */
-function seedEvent(name, runs) {
+/** An event of its own; seedRuns gives it N runs of 5 traps × 2 timing systems = 10 readings each. */
+function seedEvent(name) {
   return Number(sql(`
     with ev as (insert into events (name, venue, starts_on, ends_on, time_zone, profile_id, profile)
       select '${name}', 'bench course', starts_on, ends_on, time_zone, profile_id, profile from events order by id limit 1 returning id, profile),
@@ -87,7 +87,7 @@ async function load(eventId, cookie, mode) {
 
 const cookie = await login()
 for (const runs of [20, 200]) {
-  const id = seedEvent(`Bench ${runs}`, runs)
+  const id = seedEvent(`Bench ${runs}`)
   seedRuns(id, runs)
   const readings = sql(`select count(*) from readings x join runs r on r.id = x.run_id where r.event_id = ${id}`)
   // Warm up, then measure.

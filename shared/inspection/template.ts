@@ -36,4 +36,5 @@ export interface ChecklistTemplate {
 }
 
 export const CHECKLIST_CAUTION
-  = 'This checklist is a template. The applicable rulebook, the chief scrutineer and qualified high-voltage practice decide; Trapline records the inspection, it does not certify safety.'
+  = 'This checklist is a template. The applicable rulebook, the chief scrutineer and qualified high-voltage practice '
+    + 'decide; Trapline records the inspection, it does not certify safety.'

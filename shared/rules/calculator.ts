@@ -1,10 +1,10 @@
-import type { CalculatorRequest, CalculatorResponse } from '../schemas/calculator'
+import type { CalculatorRequestInput, CalculatorResponse } from '../schemas/calculator'
 import { evaluateAttempt } from './attempt'
 import { cmp, decimalsOf, fromInput, fromNumber, roundTo, toFixed, type Q } from './exact'
 import { profiles } from './profiles'
 
 /** The public calculator: one request in, every figure as a decimal string out. Same code on page and server. */
-export function calculate(req: CalculatorRequest): CalculatorResponse {
+export function calculate(req: CalculatorRequestInput): CalculatorResponse {
   const profile = profiles[req.profile]
   const timeDecimals = Math.max(3, ...req.runs.map(r => decimalsOf(r.elapsedS)))
   const record

@@ -53,7 +53,8 @@ export function checkGradient(profile: RuleProfile, percent: Q): Finding[] {
     {
       code: 'course.gradient-over-limit',
       severity: 'fail',
-      message: `The measured distance has a gradient of ${toFixed(abs(percent), 3, 'round')} %, over the limit of ${limit} %.`,
+      message: `The measured distance has a gradient of ${toFixed(abs(percent), 3, 'round')} %, over the limit of `
+        + `${limit} %.`,
       rule: {
         name: 'Course gradient',
         value: `at most ${limit} %`,
@@ -81,7 +82,8 @@ export function crossCheck(
           {
             code: 'timing.cross-check',
             severity: 'fail',
-            message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
+            message: `Primary and backup timing differ by ${toFixed(differenceS, 6, 'round')} s, more than the `
+              + `tolerance of ${toFixed(toleranceS, 6, 'round')} s. The timekeeper must resolve it in writing.`,
           },
         ],
   }

@@ -30,7 +30,8 @@ export function checkMeasuredDistance(
     findings.push({
       code: 'course.distance-off-survey',
       severity: 'fail',
-      message: `The traps are ${toFixed(surveyed, 3)} m apart, ${toFixed(difference, 0, 'round')} mm from the nominal ${nominalM} m; the survey tolerance is ${toleranceMm} mm.`,
+      message: `The traps are ${toFixed(surveyed, 3)} m apart, ${toFixed(difference, 0, 'round')} mm from the `
+        + `nominal ${nominalM} m; the survey tolerance is ${toleranceMm} mm.`,
     })
   }
   const gradient

@@ -115,7 +115,8 @@ export function computeRun(input: {
           severity: 'fail',
           trapId: b.id,
           systemId: system.id,
-          message: `${system.name}: the time at ${b.label} (${formatTimeOfDay(at.get(b.id)!, tps)}) is not after the time at ${a.label} (${formatTimeOfDay(at.get(a.id)!, tps)}), the trap before it on this run.`,
+          message: `${system.name}: the time at ${b.label} (${formatTimeOfDay(at.get(b.id)!, tps)}) is not after the `
+            + `time at ${a.label} (${formatTimeOfDay(at.get(a.id)!, tps)}), the trap before it on this run.`,
         })
         continue
       }
@@ -127,7 +128,8 @@ export function computeRun(input: {
           severity: 'fail',
           trapId: b.id,
           systemId: system.id,
-          message: `${system.name}: ${f.kmh} km/h from ${a.label} to ${b.label} is beyond ${SANITY_MAX_KMH} km/h; check the times.`,
+          message: `${system.name}: ${f.kmh} km/h from ${a.label} to ${b.label} is beyond ${SANITY_MAX_KMH} km/h; `
+            + `check the times.`,
         })
       }
       const mid = (Number(a.positionM) + Number(b.positionM)) / 2
@@ -171,7 +173,9 @@ export function computeRun(input: {
           code: 'timing.cross-check',
           severity: 'fail',
           distanceId: d.id,
-          message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by ${toFixed(difference, 6, 'round')} s, more than the tolerance of ${toFixed(tolerance, 6, 'round')} s. The timekeeper must resolve it in writing.`,
+          message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by `
+            + `${toFixed(difference, 6, 'round')} s, more than the tolerance of ${toFixed(tolerance, 6, 'round')} s. `
+            + `The timekeeper must resolve it in writing.`,
         })
       }
     }

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime, positiveDecimal, positiveNumber, timeZoneName } from './fields'
 import { DIRECTIONS, type Direction } from '../constants'
+import type { Finding } from '../rules/findings'
 
 export const calculatorRunSchema = z.object({
   direction: z.enum(DIRECTIONS, { error: 'must be "out" or "back"' }),
@@ -28,8 +29,6 @@ export const calculatorRequestSchema = z
   })
 export type CalculatorRequestInput = z.infer<typeof calculatorRequestSchema>
 
-export type CalculatorRequest = z.infer<typeof calculatorRequestSchema>
-
 export interface CalculatorResponse {
   profile: { id: string, version: number, name: string, decimals: number }
   runs: { direction: Direction, elapsedS: string, speedKmh: string, speedMph: string }[]
@@ -41,10 +40,5 @@ export interface CalculatorResponse {
   beatsRecord: boolean | null
   required: { figure: string, unit: string } | null
   returnTargetS: string | null
-  findings: {
-    code: string
-    severity: string
-    message: string
-    rule?: { name: string, value: string, source: string, certainty: string }
-  }[]
+  findings: Finding[]
 }

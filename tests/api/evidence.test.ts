@@ -91,7 +91,10 @@ describe('uploads', () => {
       req.write(head)
       req.write(pdf())
       req.write(Buffer.alloc(30_000, 32))
-      setTimeout(() => { req.destroy(); setTimeout(resolve, 500) }, 300)
+      setTimeout(() => {
+        req.destroy()
+        setTimeout(resolve, 500)
+      }, 300)
     })
     await expect.poll(() => tmpFiles(), { timeout: 5000 }).toEqual([])
     expect(await rows()).toBe(before)
@@ -134,9 +137,11 @@ describe('a server killed during an upload', () => {
     })
     const up = async () => {
       for (let i = 0; i < 100; i++) {
-        try { if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return }
-        catch {} await new Promise(r => setTimeout(r, 100))
-      } throw new Error('no server')
+        const ok = await fetch(`http://127.0.0.1:${port}/api/health`).then(r => r.ok, () => false)
+        if (ok) return
+        await new Promise(r => setTimeout(r, 100))
+      }
+      throw new Error('no server')
     }
     let server = start()
     await up()

@@ -16,7 +16,10 @@ beforeAll(async () => {
   const { port } = await server.run() as unknown as { port: number }
   store = new S3BlobStore({ endpoint: `http://127.0.0.1:${port}`, region: 'us-east-1', bucket: 'evidence-test', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' })
 })
-afterAll(async () => { await server?.close(); rmSync(dir, { recursive: true, force: true }) })
+afterAll(async () => {
+  await server?.close()
+  rmSync(dir, { recursive: true, force: true })
+})
 
 it('puts a 40 MB file in parts, finds it, streams it back intact, lists and removes it', async () => {
   const bytes = randomBytes(40 * 1024 * 1024)

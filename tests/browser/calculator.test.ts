@@ -3,8 +3,12 @@ import { afterAll, beforeAll, expect, it } from 'vitest'
 import { launchBrowser, open } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { ctx = await launchBrowser() })
-afterAll(async () => { await ctx?.close() })
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
 
 it('computes the 1983 flying mile as one types, without signing in', async () => {
   // Source: 1983 land speed record (Royal Automobile Club and others): 5.767 s and 5.599 s → 633.468 mph.

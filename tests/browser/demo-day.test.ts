@@ -7,8 +7,12 @@ import { enterRun } from '../support/run-sheet'
 // The whole day through the pages: readings → inspection → statements → uploads → dossier →
 // the e-mail in the catcher → verification → ratification → record book.
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { ctx = await launchBrowser() })
-afterAll(async () => { await ctx?.close() })
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
 
 async function as(email: string, path: string): Promise<Page> {
   for (const p of ctx.browser.pages()) await p.close()

@@ -5,8 +5,13 @@ import { enterRun } from '../support/run-sheet'
 // Two people at once, each in a browser of their own: the timekeeper in the hut, the team in the pits.
 let hut: Awaited<ReturnType<typeof launchBrowser>>
 let pits: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { [hut, pits] = await Promise.all([launchBrowser(), launchBrowser()]) })
-afterAll(async () => { await hut?.close(); await pits?.close() })
+beforeAll(async () => {
+  [hut, pits] = await Promise.all([launchBrowser(), launchBrowser()])
+})
+afterAll(async () => {
+  await hut?.close()
+  await pits?.close()
+})
 
 it('the timekeeper enters two runs on the run sheet; the team sees the return-run target, then the two-way result', async () => {
   const tk = await signIn(hut, 'timekeeper@trapline.test', '/events/1/run-sheet')

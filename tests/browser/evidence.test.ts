@@ -3,8 +3,12 @@ import { pdf, png, sha256 } from '../support/files'
 import { launchBrowser, signIn } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { ctx = await launchBrowser() })
-afterAll(async () => { await ctx?.close() })
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
 
 it('uploads two files, shows their progress and hashes, and opens them in the viewer', async () => {
   const page = await signIn(ctx, 'organiser@trapline.test', '/events/1/evidence')

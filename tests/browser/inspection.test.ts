@@ -5,8 +5,12 @@ import { launchBrowser, signIn } from '../support/browser'
 
 await useTestServer()
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { ctx = await launchBrowser() })
-afterAll(async () => { await ctx?.close() })
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
 
 it('the scrutineer completes and signs an inspection, and the team sees its entry cleared', async () => {
   // A new entry of the second demo team, through the API, so that this test owns it.

@@ -4,8 +4,12 @@ import demo from '../../server/database/demo-people.json'
 import { launchBrowser, submitSignIn } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
-beforeAll(async () => { ctx = await launchBrowser() })
-afterAll(async () => { await ctx?.close() })
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
 
 describe('signing in as each demo role', () => {
   for (const person of demo.people) {

@@ -25,12 +25,16 @@ export async function call<T = any>(method: string, path: string, options: { bod
   const headers: Record<string, string> = {}
   if (options.cookie) headers.cookie = options.cookie
   let body: string | undefined
-  if (options.raw !== undefined) { body = options.raw; headers['content-type'] = 'application/json' }
-  else if (options.body !== undefined) { body = JSON.stringify(options.body); headers['content-type'] = 'application/json' }
+  if (options.raw !== undefined || options.body !== undefined) {
+    body = options.raw ?? JSON.stringify(options.body)
+    headers['content-type'] = 'application/json'
+  }
   const r = await fetch(url(path), { method, headers, body, redirect: 'manual' })
   const text = await r.text()
   let parsed: unknown = text
-  try { parsed = text ? JSON.parse(text) : null }
+  try {
+    parsed = text ? JSON.parse(text) : null
+  }
   catch { /* not JSON */ }
   return { status: r.status, body: parsed as T, headers: r.headers }
 }

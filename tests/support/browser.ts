@@ -19,7 +19,10 @@ export async function launchBrowser(): Promise<{ browser: BrowserContext, close:
   return {
     browser: context,
     baseUrl: inject('baseUrl'),
-    close: async () => { await context.close(); rmSync(profile, { recursive: true, force: true }) },
+    close: async () => {
+      await context.close()
+      rmSync(profile, { recursive: true, force: true })
+    },
   }
 }
 

@@ -66,8 +66,12 @@ export default async function setup(project: TestProject) {
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
-  server.stdout!.on('data', (d) => { serverLog += d })
-  server.stderr!.on('data', (d) => { serverLog += d })
+  server.stdout!.on('data', (d) => {
+    serverLog += d
+  })
+  server.stderr!.on('data', (d) => {
+    serverLog += d
+  })
 
   const baseUrl = `http://localhost:${appPort}`
   await waitFor(`${baseUrl}/api/health`, server, () => serverLog)
@@ -82,9 +86,11 @@ export default async function setup(project: TestProject) {
   return async () => {
     server.kill('SIGTERM')
     catcher.kill('SIGTERM')
-    try { process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM') }
+    try {
+      process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM')
+    }
     catch { /* already stopped */ }
-    if (serverLog.includes('[nitro] [unhandled error]') || /\n\s+at .+\n/.test(serverLog) && serverLog.includes('Error')) {
+    if (serverLog.includes('[nitro] [unhandled error]') || (/\n\s+at .+\n/.test(serverLog) && serverLog.includes('Error'))) {
       console.log('--- server log ---\n' + serverLog)
     }
   }

@@ -7,7 +7,11 @@ import type { Page } from 'playwright-core'
 export async function enterRun(page: Page, direction: 'out' | 'back', times: string[], minutesAgo?: number) {
   await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
   if (minutesAgo !== undefined) {
-    const start = await page.evaluate((m) => { const d = new Date(Date.now() - m * 60_000); d.setSeconds(0, 0); return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 19) }, minutesAgo)
+    const start = await page.evaluate((m) => {
+      const d = new Date(Date.now() - m * 60_000)
+      d.setSeconds(0, 0)
+      return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 19)
+    }, minutesAgo)
     await page.fill('#sr-start', start)
   }
   await page.selectOption('#sr-direction', direction)

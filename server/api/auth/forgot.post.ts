@@ -12,7 +12,8 @@ export default defineEventHandler(async (event) => {
       subject: 'Trapline: set a new password',
       text:
         `Hello ${user.name},\n\nSomeone asked to reset the Trapline password of this address. If it was you, `
-        + `set a new password with this link (valid for 1 hour, usable once):\n\n${linkFor(token)}\n\nIf not, ignore this message.\n`,
+        + `set a new password with this link (valid for 1 hour, usable once):\n\n${linkFor(token)}\n\nIf not, ignore `
+        + `this message.\n`,
     })
   }
   setResponseStatus(event, 202)

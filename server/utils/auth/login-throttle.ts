@@ -24,7 +24,8 @@ export async function assertLoginAllowed(email: string) {
     throw createError({
       statusCode: 429,
       statusMessage: 'Too many failed sign-ins',
-      message: `Too many failed sign-ins for this address. Try again in ${Math.ceil(retryS / 60)} min or reset the password.`,
+      message: `Too many failed sign-ins for this address. Try again in ${Math.ceil(retryS / 60)} min or reset the `
+        + `password.`,
       data: { retryAfterS: retryS },
     })
   }

@@ -23,8 +23,10 @@ const REPLACE: Record<string, string> = {
   'θ': 'theta',
   '·': '·',
 }
-export const pdfText = (s: unknown) =>
-  String(s ?? '').replace(/[^\u0000-\u00ff\u2000-\u206f\u2212\u20ac]/g, c => REPLACE[c] ?? '?')
+/** Characters the embedded fonts cannot show: outside Latin-1, general punctuation, − and €. */
+// eslint-disable-next-line no-control-regex -- the class starts at U+0000 on purpose: all of Latin-1 is kept
+const UNPRINTABLE = /[^\u0000-\u00ff\u2000-\u206f\u2212\u20ac]/g
+export const pdfText = (s: unknown) => String(s ?? '').replace(UNPRINTABLE, c => REPLACE[c] ?? '?')
 
 export interface Fonts {
   sans: PDFFont

@@ -80,7 +80,8 @@ export async function readinessOf(eventId: number, attemptId: number) {
       label: `Calibration certificate of the ${s.role} timing system, valid on the day`,
       fix: `${at}/evidence?kind=calibration-certificate&target=timingSystemId:${s.id}`,
       met: !!cert && valid,
-      detail: `${cert ? cert.originalName : 'no certificate attached'}; calibrated ${s.calibratedOn} to ${s.calibrationExpires}${valid ? '' : ', not valid on the day of the runs'}`,
+      detail: `${cert ? cert.originalName : 'no certificate attached'}; calibrated ${s.calibratedOn} to `
+        + `${s.calibrationExpires}${valid ? '' : ', not valid on the day of the runs'}`,
     })
   }
   if (day.systems.length < 2)
@@ -106,7 +107,8 @@ export async function readinessOf(eventId: number, attemptId: number) {
     label: 'The rider\'s licence',
     fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
     met: !!licence && licenceValid,
-    detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires ${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
+    detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires `
+      + `${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
   })
   return {
     attemptId,

@@ -94,8 +94,11 @@ export async function submitDossier(dossierId: number, userId: number) {
       to,
       subject: `Trapline: dossier submitted for ratification — ${m.entry.machineName}, ${m.result.kmh} km/h`,
       text:
-        `A sealed dossier has been submitted for ratification.\n\n${m.entry.machineName} (${m.entry.teamName}), ${m.entry.className}, ${m.entry.distanceLabel}: ${m.result.kmh} km/h, ${m.result.mph} mph.\n\n`
-        + `PDF: ${name}, attached.\nSHA-256 of the PDF: ${d.pdfSha256}\nManifest SHA-256: ${d.manifestSha256}\nSeal key: ${d.keyFingerprint}\n\nVerify it at ${site}/verify and decide at ${site}/attempts/${d.attemptId}/dossier\n`,
+        `A sealed dossier has been submitted for ratification.\n\n${m.entry.machineName} (${m.entry.teamName}), `
+        + `${m.entry.className}, ${m.entry.distanceLabel}: ${m.result.kmh} km/h, ${m.result.mph} mph.\n\n`
+        + `PDF: ${name}, attached.\nSHA-256 of the PDF: ${d.pdfSha256}\nManifest SHA-256: ${d.manifestSha256}\nSeal `
+        + `key: ${d.keyFingerprint}\n\nVerify it at ${site}/verify and decide at `
+        + `${site}/attempts/${d.attemptId}/dossier\n`,
       attachmentSha256: d.pdfSha256,
       attachmentName: name,
     })),
@@ -167,7 +170,8 @@ export async function decideDossier(
     (await emailsOf(d.eventId, 'team', teamId)).map(to => ({
       to,
       subject: `Trapline: dossier ${input.decision} — ${m.entry.machineName}, ${m.result.kmh} km/h`,
-      text: `The officials have ${input.decision} dossier version ${d.version} of attempt #${d.attemptId}.\n\nReasons: ${input.reasons}\nSigned by ${input.typedName}.\n`,
+      text: `The officials have ${input.decision} dossier version ${d.version} of attempt `
+        + `#${d.attemptId}.\n\nReasons: ${input.reasons}\nSigned by ${input.typedName}.\n`,
     })),
   )
   return decision

@@ -4,7 +4,6 @@ import { attachmentName } from './render'
 import type { Verification } from '#shared/types/verification'
 import { readAttachments } from './pdf-attachments'
 
-
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
 /**
@@ -63,7 +62,8 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
     items,
     dossier: issued ? { id: issued.id, attemptId: issued.attemptId, version: issued.version } : null,
     message: sealValid
-      ? `The seal is valid: signed by key ${key.fingerprint}, every attached file matches, and this is the file issued as dossier version ${issued!.version} of attempt #${issued!.attemptId}.`
+      ? `The seal is valid: signed by key ${key.fingerprint}, every attached file matches, and this is the file `
+      + `issued as dossier version ${issued!.version} of attempt #${issued!.attemptId}.`
       : `Not intact: ${failing.join(', ')} ${failing.length === 1 ? 'does' : 'do'} not match what was sealed.`,
   }
 }

@@ -172,7 +172,7 @@ async function writeImport(ctx: ImportContext, rows: ImportRow[], userId: number
     }
     const inserted = await tx
       .insert(tables.readings)
-      .values(rows.map(r => ({ runId: r.runId, trapId: r.trapId, systemId: r.systemId, ticks: r.ticks, enteredBy: userId })))
+      .values(rows.map(({ runId, trapId, systemId, ticks }) => ({ runId, trapId, systemId, ticks, enteredBy: userId })))
       .onConflictDoNothing()
       .returning({ id: tables.readings.id })
     if (inserted.length !== rows.length) {

@@ -39,7 +39,8 @@ export async function listEventsFor(user: User) {
     return db
       .select({
         ...cols,
-        organisers: sql<number>`(select count(*)::int from ${memberships} m where m.event_id = ${events.id} and m.role = 'organiser')`,
+        organisers: sql<number>`(select count(*)::int from ${memberships} m where m.event_id = ${events.id} and
+          m.role = 'organiser')`,
       })
       .from(events)
       .orderBy(asc(events.startsOn))

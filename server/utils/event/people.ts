@@ -61,7 +61,8 @@ export async function invitePerson(inv: Invitation) {
     await sendMail({
       to: inv.email,
       subject: `Trapline: you are now ${role} at ${result.eventName}`,
-      text: `Hello ${result.user.name},\n\nYou now hold the role of ${role} at ${result.eventName} on Trapline. Sign in as usual to see what is next.\n`,
+      text: `Hello ${result.user.name},\n\nYou now hold the role of ${role} at ${result.eventName} on Trapline. Sign `
+        + `in as usual to see what is next.\n`,
     })
   }
   return { userId: result.user.id, membershipId: result.membershipId, invited: !result.user.passwordHash }

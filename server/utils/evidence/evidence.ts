@@ -36,21 +36,24 @@ async function targetTeams(eventId: number, f: Fields): Promise<number[] | null>
     teams.push(
       (await one(
         'attemptId',
-        sql`select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = ${f.attemptId} and a.event_id = ${eventId}`,
+        sql`select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = ${f.attemptId} and
+          a.event_id = ${eventId}`,
       ))!,
     )
   if (f.runId)
     teams.push(
       (await one(
         'runId',
-        sql`select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = ${f.runId} and r.event_id = ${eventId}`,
+        sql`select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id
+          where r.id = ${f.runId} and r.event_id = ${eventId}`,
       ))!,
     )
   if (f.inspectionId)
     teams.push(
       (await one(
         'inspectionId',
-        sql`select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = ${f.inspectionId} and i.event_id = ${eventId}`,
+        sql`select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = ${f.inspectionId}
+          and i.event_id = ${eventId}`,
       ))!,
     )
   return teams.length ? teams : null
@@ -95,7 +98,8 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
     if (!detected || !rule.accepts.includes(detected)) {
       throw field(
         'file',
-        `the content is ${detected ?? 'not a recognised type'}, not what a ${rule.label.toLowerCase()} may be (${rule.accepts.map(a => (a === TEXT ? 'text' : a)).join(', ')})`,
+        `the content is ${detected ?? 'not a recognised type'}, not what a ${rule.label.toLowerCase()} may be `
+        + `(${rule.accepts.map(a => (a === TEXT ? 'text' : a)).join(', ')})`,
       )
     }
     const mismatch = extensionMismatch(file.originalname, detected)
@@ -150,7 +154,10 @@ export async function listEvidence(
     from evidence x join users u on u.id = x.uploaded_by
     where x.event_id = ${access.eventId}
       ${filter.kind ? sql`and x.kind = ${filter.kind}` : sql``}
-      ${filter.attemptId ? sql`and (x.attempt_id = ${filter.attemptId} or x.run_id in (select id from runs where attempt_id = ${filter.attemptId}))` : sql``}
+      ${filter.attemptId
+        ? sql`and (x.attempt_id = ${filter.attemptId} or x.run_id in (select id from runs where
+        attempt_id = ${filter.attemptId}))`
+        : sql``}
       ${filter.runId ? sql`and x.run_id = ${filter.runId}` : sql``}
       ${filter.entryId ? sql`and x.entry_id = ${filter.entryId}` : sql``}
     order by x.id desc`)
@@ -162,7 +169,8 @@ export async function listEvidence(
 const teamSql = sql`coalesce(
   (select team_id from entries where id = x.entry_id),
   (select e.team_id from attempts a join entries e on e.id = a.entry_id where a.id = x.attempt_id),
-  (select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id where r.id = x.run_id),
+  (select e.team_id from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id
+    where r.id = x.run_id),
   (select e.team_id from inspections i join entries e on e.id = i.entry_id where i.id = x.inspection_id))`
 
 const camel = (r: Record<string, unknown>) =>

@@ -17,7 +17,8 @@ export async function sweepStorage() {
     await useDb().transaction(async (tx) => {
       await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${sha}, 0))`)
       const { rows } = await tx.execute(
-        sql`select 1 from evidence where sha256 = ${sha} union all select 1 from dossiers where pdf_sha256 = ${sha} limit 1`,
+        sql`select 1 from evidence where sha256 = ${sha} union all select 1 from dossiers where pdf_sha256 = ${sha}
+          limit 1`,
       )
       if (!rows.length) await store.remove(sha)
     })

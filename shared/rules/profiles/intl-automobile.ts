@@ -14,7 +14,8 @@ export const intlAutomobile: RuleProfile = {
   },
   window: {
     value: { kind: 'elapsed', minutes: 60, from: 'start-first', to: 'finish-second' },
-    source: `${APPENDIX_D} as reported: 60 min between the runs (runs 61 min apart were refused); the anchors are not settled, default start of the first run to finish of the second`,
+    source: `${APPENDIX_D} as reported: 60 min between the runs (runs 61 min apart were refused); the anchors are `
+      + `not settled, default start of the first run to finish of the second`,
     certainty: 'seen',
   },
   impoundMinutes: { value: null, source: 'no rule found', certainty: 'not known' },
