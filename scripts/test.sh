@@ -29,6 +29,9 @@ if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server s
   say "built in $((SECONDS - build_start)) s"
 fi
 
+say "linting…"
+node_modules/.bin/eslint . || die "lint errors; see above (npm run lint:fix mends the mechanical ones)."
+
 say "type-checking…"
 node_modules/.bin/nuxt typecheck >"$DATA/typecheck.log" 2>&1 || { cat "$DATA/typecheck.log" >&2; die "type errors; see above."; }
 
