@@ -82,8 +82,7 @@ const figure = (profile: RuleProfile, lengthM: Q, timeS: Q, timeDecimals: number
   }
 }
 
-/** Speeds of one run: each segment between traps and each measured distance, per timing system. */
-export function computeRun(input: {
+export interface RunInput {
   profile: RuleProfile
   direction: Direction
   headingDeg: number
@@ -92,90 +91,89 @@ export function computeRun(input: {
   systems: SystemDef[]
   readings: ReadingDef[]
   weather?: WeatherDef | null
-}): RunComputation {
+}
+type SystemResult = RunComputation['systems'][number]
+
+/** Every segment between consecutive traps one system timed, in the order of the run. */
+function systemSegments(input: RunInput, system: SystemDef, order: TrapDef[], at: Map<number, bigint>) {
+  const tps = BigInt(system.ticksPerSecond)
+  const timeDecimals = String(system.ticksPerSecond).length - 1
+  const passed = order.filter(t => at.has(t.id))
+  const segments: SystemResult['segments'] = []
   const findings: RunSheetFinding[] = []
-  const byPosition = [...input.traps].sort((a, b) => cmp(fromDecimal(a.positionM), fromDecimal(b.positionM)))
-  const order = input.direction === 'out' ? byPosition : byPosition.reverse()
-  const trapName = new Map(input.traps.map(t => [t.id, t.label]))
-  const out: RunComputation = { systems: [], official: {}, crossChecks: [], wind: null, findings }
-
-  for (const system of input.systems) {
-    const tps = BigInt(system.ticksPerSecond)
-    const timeDecimals = String(system.ticksPerSecond).length - 1
-    const at = new Map(input.readings.filter(r => r.systemId === system.id).map(r => [r.trapId, BigInt(r.ticks)]))
-    const passed = order.filter(t => at.has(t.id))
-    const segments: RunComputation['systems'][number]['segments'] = []
-    for (let i = 1; i < passed.length; i++) {
-      const a = passed[i - 1]!
-      const b = passed[i]!
-      const dt = at.get(b.id)! - at.get(a.id)!
-      if (dt <= 0n) {
-        findings.push({
-          code: 'reading.out-of-order',
-          severity: 'fail',
-          trapId: b.id,
-          systemId: system.id,
-          message: `${system.name}: the time at ${b.label} (${formatTimeOfDay(at.get(b.id)!, tps)}) is not after the `
-            + `time at ${a.label} (${formatTimeOfDay(at.get(a.id)!, tps)}), the trap before it on this run.`,
-        })
-        continue
-      }
-      const lengthM = abs(sub(fromDecimal(b.positionM), fromDecimal(a.positionM)))
-      const f = figure(input.profile, lengthM, q(dt, tps), timeDecimals)
-      if (Number(f.kmh) > SANITY_MAX_KMH) {
-        findings.push({
-          code: 'reading.implausible-speed',
-          severity: 'fail',
-          trapId: b.id,
-          systemId: system.id,
-          message: `${system.name}: ${f.kmh} km/h from ${a.label} to ${b.label} is beyond ${SANITY_MAX_KMH} km/h; `
-            + `check the times.`,
-        })
-      }
-      const mid = (Number(a.positionM) + Number(b.positionM)) / 2
-      segments.push({ fromTrapId: a.id, toTrapId: b.id, lengthM: toFixed(lengthM, 3), midpointM: mid, ...f })
+  for (let i = 1; i < passed.length; i++) {
+    const a = passed[i - 1]!
+    const b = passed[i]!
+    const where = { trapId: b.id, systemId: system.id }
+    const dt = at.get(b.id)! - at.get(a.id)!
+    if (dt <= 0n) {
+      const [ta, tb] = [formatTimeOfDay(at.get(a.id)!, tps), formatTimeOfDay(at.get(b.id)!, tps)]
+      findings.push({
+        code: 'reading.out-of-order',
+        severity: 'fail',
+        ...where,
+        message: `${system.name}: the time at ${b.label} (${tb}) is not after the time at ${a.label} (${ta}), `
+          + 'the trap before it on this run.',
+      })
+      continue
     }
-    const distances: RunComputation['systems'][number]['distances'] = []
-    for (const d of input.distances) {
-      const t1 = at.get(d.entryTrapId)
-      const t2 = at.get(d.exitTrapId)
-      if (t1 === undefined || t2 === undefined) continue
-      const dt = input.direction === 'out' ? t2 - t1 : t1 - t2
-      if (dt <= 0n) continue // reported above as out of order
-      const f = figure(input.profile, fromDecimal(d.nominalM), q(dt, tps), timeDecimals)
-      distances.push({ distanceId: d.id, label: d.label, ...f })
-      const current = out.official[d.id]
-      if (!current || system.role === 'primary') out.official[d.id] = { exactS: f.exactS, systemId: system.id }
+    const lengthM = abs(sub(fromDecimal(b.positionM), fromDecimal(a.positionM)))
+    const f = figure(input.profile, lengthM, q(dt, tps), timeDecimals)
+    if (Number(f.kmh) > SANITY_MAX_KMH) {
+      findings.push({
+        code: 'reading.implausible-speed',
+        severity: 'fail',
+        ...where,
+        message: `${system.name}: ${f.kmh} km/h from ${a.label} to ${b.label} is beyond ${SANITY_MAX_KMH} km/h; `
+          + 'check the times.',
+      })
     }
-    out.systems.push({ systemId: system.id, role: system.role, segments, distances })
+    const mid = (Number(a.positionM) + Number(b.positionM)) / 2
+    segments.push({ fromTrapId: a.id, toTrapId: b.id, lengthM: toFixed(lengthM, 3), midpointM: mid, ...f })
   }
+  return { segments, findings }
+}
 
-  const primary = out.systems.find(s => s.role === 'primary')
-  const backup = out.systems.find(s => s.role === 'backup')
-  const backupSystem = input.systems.find(s => s.role === 'backup')
+/** The time and speed over each measured distance one system timed from its entry to its exit trap. */
+function systemDistances(input: RunInput, system: SystemDef, at: Map<number, bigint>) {
+  const tps = BigInt(system.ticksPerSecond)
+  const timeDecimals = String(system.ticksPerSecond).length - 1
+  const distances: SystemResult['distances'] = []
+  for (const d of input.distances) {
+    const t1 = at.get(d.entryTrapId)
+    const t2 = at.get(d.exitTrapId)
+    if (t1 === undefined || t2 === undefined) continue
+    const dt = input.direction === 'out' ? t2 - t1 : t1 - t2
+    if (dt <= 0n) continue // reported with the segments as out of order
+    const f = figure(input.profile, fromDecimal(d.nominalM), q(dt, tps), timeDecimals)
+    distances.push({ distanceId: d.id, label: d.label, ...f })
+  }
+  return distances
+}
+
+/** Primary against backup over each distance both timed, within the primary's stated tolerance. */
+function crossCheck(input: RunInput, results: SystemResult[]) {
   const primarySystem = input.systems.find(s => s.role === 'primary')
+  const primary = results.find(s => s.role === 'primary')
+  const backup = results.find(s => s.role === 'backup')
+  const crossChecks: RunComputation['crossChecks'] = []
+  const findings: RunSheetFinding[] = []
   for (const d of input.distances) {
     const p = primary?.distances.find(x => x.distanceId === d.id)
     const b = backup?.distances.find(x => x.distanceId === d.id)
-    if (p && b && primarySystem && backupSystem) {
+    if (p && b && primarySystem) {
       const tolerance = fromDecimal(primarySystem.toleranceS)
       const difference = abs(sub(p.exactS, b.exactS))
       const ok = cmp(difference, tolerance) <= 0
-      out.crossChecks.push({
-        distanceId: d.id,
-        label: d.label,
-        differenceS: toFixed(difference, 6, 'round'),
-        toleranceS: toFixed(tolerance, 6, 'round'),
-        ok,
-      })
+      const [differenceS, toleranceS] = [toFixed(difference, 6, 'round'), toFixed(tolerance, 6, 'round')]
+      crossChecks.push({ distanceId: d.id, label: d.label, differenceS, toleranceS, ok })
       if (!ok) {
         findings.push({
           code: 'timing.cross-check',
           severity: 'fail',
           distanceId: d.id,
-          message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by `
-            + `${toFixed(difference, 6, 'round')} s, more than the tolerance of ${toFixed(tolerance, 6, 'round')} s. `
-            + `The timekeeper must resolve it in writing.`,
+          message: `${d.label}: primary ${p.timeS} s and backup ${b.timeS} s differ by ${differenceS} s, more than `
+            + `the tolerance of ${toleranceS} s. The timekeeper must resolve it in writing.`,
         })
       }
     }
@@ -188,16 +186,46 @@ export function computeRun(input: {
       })
     }
   }
+  return { crossChecks, findings }
+}
 
-  if (input.weather) {
-    const headingDeg = input.direction === 'out' ? input.headingDeg : (input.headingDeg + 180) % 360
-    const w = windComponents(Number(input.weather.windSpeedMs), Number(input.weather.windFromDeg), headingDeg)
-    out.wind = { ...w, headingDeg }
-    findings.push(...checkWind(input.profile, w))
+/** The time over each measured distance that counts: the primary's, else the backup's. */
+function officialTimes(results: SystemResult[]) {
+  const official: RunComputation['official'] = {}
+  for (const r of results) {
+    for (const d of r.distances) {
+      const taken = official[d.distanceId]
+      if (!taken || r.role === 'primary') official[d.distanceId] = { exactS: d.exactS, systemId: r.systemId }
+    }
   }
+  return official
+}
+
+/** Head and cross wind along the run's direction, and the profile's wind limit. */
+function runWind(input: RunInput) {
+  if (!input.weather) return { wind: null, findings: [] }
+  const headingDeg = input.direction === 'out' ? input.headingDeg : (input.headingDeg + 180) % 360
+  const w = windComponents(Number(input.weather.windSpeedMs), Number(input.weather.windFromDeg), headingDeg)
+  return { wind: { ...w, headingDeg }, findings: checkWind(input.profile, w) }
+}
+
+/** Speeds of one run: each segment between traps and each measured distance, per timing system. */
+export function computeRun(input: RunInput): RunComputation {
+  const byPosition = [...input.traps].sort((a, b) => cmp(fromDecimal(a.positionM), fromDecimal(b.positionM)))
+  const order = input.direction === 'out' ? byPosition : byPosition.reverse()
+  const findings: RunSheetFinding[] = []
+  const systems = input.systems.map((system) => {
+    const at = new Map(input.readings.filter(r => r.systemId === system.id).map(r => [r.trapId, BigInt(r.ticks)]))
+    const { segments, findings: segmentFindings } = systemSegments(input, system, order, at)
+    findings.push(...segmentFindings)
+    return { systemId: system.id, role: system.role, segments, distances: systemDistances(input, system, at) }
+  })
+  const checks = crossCheck(input, systems)
+  const { wind, findings: windFindings } = runWind(input)
+  findings.push(...checks.findings, ...windFindings)
+  const trapName = new Map(input.traps.map(t => [t.id, t.label]))
   for (const f of findings) {
-    if (f.trapId && !f.message.includes(trapName.get(f.trapId) ?? '\u0000'))
-      f.message += ` (${trapName.get(f.trapId)})`
+    if (f.trapId && !f.message.includes(trapName.get(f.trapId) ?? '\u0000')) f.message += ` (${trapName.get(f.trapId)})`
   }
-  return out
+  return { systems, official: officialTimes(systems), crossChecks: checks.crossChecks, wind, findings }
 }
