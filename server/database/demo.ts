@@ -1,4 +1,4 @@
-// The demo scenario, invented from end to end: a speed week on a fictional dry lake, two teams of
+// The demo scenario, invented from end to end: record days on a fictional dry lake, two teams of
 // electric motorcycles, one person per role and a site administrator.
 import { eq, sql } from 'drizzle-orm'
 import { copyProfile, profiles } from '#shared/rules/profiles'
@@ -10,7 +10,7 @@ import type { Direction } from '../../shared/constants'
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
 export const DEMO_EVENT = {
-  name: 'Tamsel Flat Electric Speed Week',
+  name: 'Tamsel Flat Electric Record Days',
   venue: 'Tamsel Flat dry lake (fictional)',
   startsOn: '2026-08-10',
   endsOn: '2026-08-14',
@@ -128,19 +128,19 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
       const [team] = await tx.insert(t.teams).values({ eventId: event!.id, name }).returning()
       teamIds.set(name, team!.id)
     }
-    const [ls3, ember] = await tx
+    const [fennwick, wisp] = await tx
       .insert(t.machines)
       .values([
         {
           teamId: teamIds.get('Larkspur Works')!,
-          name: 'Larkspur LS-3 streamliner',
+          name: 'Larkspur Fennwick streamliner',
           power: 'electric',
           declaredMassKg: '286.0',
           division: 'full',
         },
         {
           teamId: teamIds.get('Cinder Hollow Engineering')!,
-          name: 'Ember Mk II',
+          name: 'Cinder Wisp',
           power: 'electric',
           declaredMassKg: '212.5',
           division: 'partial',
@@ -169,16 +169,16 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
       .values([
         {
           eventId: event!.id,
-          teamId: ls3!.teamId,
-          machineId: ls3!.id,
+          teamId: fennwick!.teamId,
+          machineId: fennwick!.id,
           riderId: mara!.id,
           className: 'Electric, fully streamlined',
           distanceId: mile!.id,
         },
         {
           eventId: event!.id,
-          teamId: ember!.teamId,
-          machineId: ember!.id,
+          teamId: wisp!.teamId,
+          machineId: wisp!.id,
           riderId: jory!.id,
           className: 'Electric, partially streamlined',
           distanceId: km!.id,
@@ -186,7 +186,7 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
       ])
       .returning()
     const timekeeperId = ids.get('timekeeper@trapline.test')!
-    // Runs of the invented day: a complete pair for the streamliner, a first run for the Ember.
+    // Runs of the invented day: a complete pair for the streamliner, a first run for the Wisp.
     const day = [
       {
         entry: lsEntry!,

@@ -176,7 +176,7 @@ describe('events and roles', () => {
     const me = await call('GET', '/api/me', { cookie: tk })
     const roles = me.body.memberships.map((m: { eventName: string, role: string }) => `${m.eventName}: ${m.role}`)
     expect(roles).toContain('Roles test event: organiser')
-    expect(roles).toContain('Tamsel Flat Electric Speed Week: timekeeper')
+    expect(roles).toContain('Tamsel Flat Electric Record Days: timekeeper')
     // Organiser there, so the people of that event are open; at the demo event only the timekeeper.
     expect((await call('GET', `/api/events/${created.body.id}/people`, { cookie: tk })).status).toBe(200)
     const demoId = me.body.memberships.find((m: { role: string }) => m.role === 'timekeeper').eventId

@@ -137,16 +137,16 @@ describe('readiness', () => {
     const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.organiser })).body
     // The second team's demo attempt: its sheet is not signed and no statement or licence is there.
     // (Other test files may add runs to it, so only what no test adds is expected missing.)
-    const ember = live.find((a: any) => a.entry.teamName === 'Cinder Hollow Engineering' && !a.sheet.locked)
-    const readiness = await call('GET', `/api/attempts/${ember.id}/readiness`, { cookie: cookie.team2 })
+    const wisp = live.find((a: any) => a.entry.teamName === 'Cinder Hollow Engineering' && !a.sheet.locked)
+    const readiness = await call('GET', `/api/attempts/${wisp.id}/readiness`, { cookie: cookie.team2 })
     expect(readiness.body.ready).toBe(false)
     const missing = readiness.body.items.filter((i: any) => !i.met).map((i: any) => i.key)
     expect(missing).toEqual(expect.arrayContaining(['timing-sheet', 'statements', 'licence']))
-    const r = await call('POST', `/api/attempts/${ember.id}/dossiers`, { cookie: cookie.team2 })
+    const r = await call('POST', `/api/attempts/${wisp.id}/dossiers`, { cookie: cookie.team2 })
     expect(r.status).toBe(422)
     expect(r.body.data.issues.map((i: any) => i.path)).toEqual(missing)
     // Another team's attempt is not there at all for this team.
-    expect((await call('GET', `/api/attempts/${ember.id}/readiness`, { cookie: cookie.team })).status).toBe(404)
+    expect((await call('GET', `/api/attempts/${wisp.id}/readiness`, { cookie: cookie.team })).status).toBe(404)
   })
 })
 

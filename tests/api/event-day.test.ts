@@ -71,7 +71,7 @@ describe('polling the live results', () => {
     expect(Date.parse(first.headers.get('date')!)).toBeGreaterThan(0)
     const again = await fetch(url(`/api/events/${eventId}/live`), { headers: { 'cookie': cookie.team, 'if-none-match': etag } })
     expect(again.status).toBe(304)
-    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Cinder Wisp').id
     await runWith(entryId, 'out', { 'M-in': '16:00:00.0000' })
     const changed = await fetch(url(`/api/events/${eventId}/live`), { headers: { 'cookie': cookie.team, 'if-none-match': etag } })
     expect(changed.status).toBe(200)
@@ -81,7 +81,7 @@ describe('polling the live results', () => {
 
 describe('the run sheet', () => {
   it('appends corrections, keeps the history, and refuses a second correction of the same value', async () => {
-    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Cinder Wisp').id
     const run = await runWith(entryId, 'back', { 'K-out': '11:00:00.0000', 'K-in': '11:00:10.7000' })
     const dup = await call('POST', `/api/runs/${run.id}/readings`, { cookie: cookie.timekeeper, body: { trapId: trapId('K-out'), systemId: system('primary').id, time: '11:00:00.0001' } })
     expect(dup.status).toBe(409)
@@ -105,7 +105,7 @@ describe('the run sheet', () => {
   })
 
   it('flags times out of order and implausible speeds beside the reading', async () => {
-    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Cinder Wisp').id
     const run = await runWith(entryId, 'out', { 'M-in': '12:00:00.0000', 'K-in': '11:59:59.0000', 'K-out': '12:00:01.0000' })
     const lr = (await live()).flatMap(a => a.runs).find(r => r.id === run.id)
     const codes = lr.findings.map((f: any) => `${f.code}@${f.trapId}`)
@@ -139,7 +139,7 @@ describe('the run sheet', () => {
 
 describe('signing the timing sheet', () => {
   it('locks the readings, keeps every signature, and can be reopened with a reason', async () => {
-    const entryId = setup.entries.find((e: any) => e.machineName === 'Larkspur LS-3 streamliner').id
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Larkspur Fennwick streamliner').id
     const run = await runWith(entryId, 'out', { 'M-in': '13:00:00.0000', 'M-out': '13:00:14.6000' })
     const wrong = await call('POST', `/api/attempts/${run.attemptId}/signatures`, { cookie: cookie.timekeeper, body: { password: 'not-it', typedName: 'Tobias Tick' } })
     expect(wrong.status).toBe(422)
@@ -173,7 +173,7 @@ describe('CSV import', () => {
   let freshRunId = 0
   const count = async () => Number((await db.query('select count(*) from readings')).rows[0].count)
   beforeAll(async () => {
-    const entryId = setup.entries.find((e: any) => e.machineName === 'Ember Mk II').id
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Cinder Wisp').id
     runId = (await runWith(entryId, 'out', {})).id
     freshRunId = (await runWith(entryId, 'back', {})).id
   })
@@ -214,7 +214,7 @@ describe('entries', () => {
     const distanceId = setup.distances[0].id
     const ok = await call('POST', `/api/events/${eventId}/entries`, {
       cookie: cookie.team2,
-      body: { machine: { name: 'Ember Mk III', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId },
+      body: { machine: { name: 'Cinder Wisp Two', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId },
     })
     expect(ok.status).toBe(201)
     const other = await call('POST', `/api/events/${eventId}/entries`, { cookie: cookie.team, body: { machineId: ok.body.machineId, riderId: ok.body.riderId, className: 'x', distanceId } })

@@ -104,7 +104,7 @@ describe('uploads', () => {
 describe('access', () => {
   it('a team attaches a data log to its own run; another team gets 404, by id and by hash', async () => {
     const log = Buffer.from('t_s,speed_kmh\n0.0,391.2\n0.1,391.4\n')
-    const r = await upload('team', form({ kind: 'data-log', runId }, { name: 'ls3-run1.csv', bytes: log }))
+    const r = await upload('team', form({ kind: 'data-log', runId }, { name: 'fennwick-run1.csv', bytes: log }))
     expect(r.status).toBe(201)
     expect(r.body.mediaType).toBe('text/plain')
     expect((await call('GET', `/api/evidence/${r.body.id}`, { cookie: cookie.team2 })).status).toBe(404)

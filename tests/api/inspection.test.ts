@@ -21,7 +21,7 @@ beforeAll(async () => {
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.team2 })).body
   const entry = await call('POST', `/api/events/${eventId}/entries`, {
     cookie: cookie.team2,
-    body: { machine: { name: 'Ember Lite', power: 'electric', declaredMassKg: '180.0', division: 'partial' }, rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: '2027-12-31' }, className: 'Electric, partially streamlined', distanceId: setup.distances[1].id },
+    body: { machine: { name: 'Cinder Brandle', power: 'electric', declaredMassKg: '180.0', division: 'partial' }, rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: '2027-12-31' }, className: 'Electric, partially streamlined', distanceId: setup.distances[1].id },
   })
   expect(entry.status).toBe(201)
   entryId = entry.body.id

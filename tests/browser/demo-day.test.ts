@@ -44,7 +44,7 @@ it('runs the demo day from the first reading to the record book', async () => {
 
   // Inspection: the streamliner was cleared by a signed inspection this morning.
   page = await as('scrutineer@trapline.test', '/events/1/inspections')
-  expect(await page.locator('article', { hasText: 'Larkspur LS-3 streamliner' }).locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
+  expect(await page.locator('article', { hasText: 'Larkspur Fennwick streamliner' }).locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
   // Statements from both officials.
   for (const [email, name] of [['official@trapline.test', 'Oswin Oakes'], ['official2@trapline.test', 'Orla Ormsby']]) {

@@ -18,7 +18,7 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   const setup = (await call('GET', '/api/events/1/setup', { cookie: team2 })).body
   const entry = await call('POST', '/api/events/1/entries', {
     cookie: team2,
-    body: { machine: { name: 'Ember Scout', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
+    body: { machine: { name: 'Cinder Tallow', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
   })
   expect(entry.status).toBe(201)
 
@@ -58,7 +58,7 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
   const team = await signIn(ctx, 'team2@trapline.test', '/events/1/entries')
-  const card = team.locator('article', { hasText: 'Ember Scout' })
+  const card = team.locator('article', { hasText: 'Cinder Tallow' })
   await expect.poll(() => card.locator('[data-test="entry-clearance"]').innerText()).toContain('Cleared to run')
 })
 

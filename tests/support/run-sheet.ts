@@ -5,7 +5,7 @@ import type { Page } from 'playwright-core'
  * the primary system's four trap times with the keyboard, Enter after each. Returns the run's id.
  */
 export async function enterRun(page: Page, direction: 'out' | 'back', times: string[], minutesAgo?: number) {
-  await page.selectOption('#sr-entry', { label: 'Larkspur LS-3 streamliner — Mara Quillfeather (Larkspur Works)' })
+  await page.selectOption('#sr-entry', { label: 'Larkspur Fennwick streamliner — Mara Quillfeather (Larkspur Works)' })
   if (minutesAgo !== undefined) {
     const start = await page.evaluate((m) => {
       const d = new Date(Date.now() - m * 60_000)
