@@ -9,38 +9,48 @@ export interface ReadinessItem {
   fix: string
 }
 
-/**
- * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
- * and engine as the live results.
- */
-export async function readinessOf(eventId: number, attemptId: number) {
+/** Everything an attempt's file is judged on, read once. */
+async function loadAttemptFile(eventId: number, attemptId: number) {
   const day = await loadEventDay(eventId, { history: true })
   const attempt = day.attempts.find(a => a.id === attemptId)
   if (!attempt) throw notFound('No such attempt')
   const live = computeLive({ ...day, attempts: [attempt] })[0]!
   const entry = day.entries.find(e => e.entry.id === attempt.entryId)!
-  const distance = day.distances.find(d => d.id === entry.entry.distanceId)!
-  const at = `/events/${eventId}`
   const counted = live.runs.filter(r => r.counted)
-  const runDays = counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone))
-  const evidence = await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId))
   const statements = (await statementsAt(eventId, null)).filter(
     s => s.attemptId === attemptId && !s.withdrawsId && !s.withdrawnBy,
   )
-  const clearance = (await clearanceOf([entry.entry.id])).get(entry.entry.id)!
+  return {
+    attemptId,
+    attempt,
+    at: `/events/${eventId}`,
+    day,
+    live,
+    entry,
+    distance: day.distances.find(d => d.id === entry.entry.distanceId)!,
+    counted,
+    runDays: counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone)),
+    evidence: await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId)),
+    statements,
+    clearance: (await clearanceOf([entry.entry.id])).get(entry.entry.id)!,
+  }
+}
+type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
+
+/** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
+function recordItems({ at, live, counted, clearance, statements, attempt }: AttemptFile): ReadinessItem[] {
   const needed = attempt.profile.witnessStatements.value
   const failing = live.findings.filter(f => f.severity === 'fail')
-  const items: ReadinessItem[] = [
+  const pairDetail = !live.result
+    ? `${counted.length} complete run(s) so far`
+    : failing.length ? failing.map(f => f.message).join(' ') : `${live.result.kmh} km/h, ${live.window?.rule}`
+  return [
     {
       key: 'pair',
       label: 'A valid pair of runs under the profile',
       fix: `${at}/live`,
       met: !!live.result && counted.length === 2 && failing.length === 0,
-      detail: live.result
-        ? failing.length
-          ? failing.map(f => f.message).join(' ')
-          : `${live.result.kmh} km/h, ${live.window?.rule}`
-        : `${counted.length} complete run(s) so far`,
+      detail: pairDetail,
     },
     {
       key: 'timing-sheet',
@@ -64,14 +74,18 @@ export async function readinessOf(eventId: number, attemptId: number) {
       detail: `${statements.length} signed, not withdrawn`,
     },
   ]
+}
+
+/** The course survey and each timing system's calibration, valid on the days of the runs. */
+function equipmentItems({ at, day, distance, evidence, runDays }: AttemptFile): ReadinessItem[] {
   const survey = evidence.find(e => e.kind === 'survey-certificate' && e.courseId === distance.courseId)
-  items.push({
+  const items: ReadinessItem[] = [{
     key: 'survey',
     label: 'The course survey certificate',
     fix: `${at}/evidence?kind=survey-certificate&target=courseId:${distance.courseId}`,
     met: !!survey,
     detail: survey ? survey.originalName : 'not attached to the course',
-  })
+  }]
   for (const s of day.systems) {
     const cert = evidence.find(e => e.kind === 'calibration-certificate' && e.timingSystemId === s.id)
     const valid = runDays.every(d => d >= s.calibratedOn && d <= s.calibrationExpires)
@@ -84,7 +98,7 @@ export async function readinessOf(eventId: number, attemptId: number) {
         + `${s.calibrationExpires}${valid ? '' : ', not valid on the day of the runs'}`,
     })
   }
-  if (day.systems.length < 2)
+  if (day.systems.length < 2) {
     items.push({
       key: 'calibration-backup',
       label: 'A primary and a backup timing system',
@@ -92,36 +106,44 @@ export async function readinessOf(eventId: number, attemptId: number) {
       met: false,
       detail: `${day.systems.length} timing system(s) set up`,
     })
+  }
+  return items
+}
+
+/** The weather at each counted run and the rider's licence, valid on the days of the runs. */
+function runAndRiderItems({ at, counted, entry, evidence, runDays }: AttemptFile): ReadinessItem[] {
   const noWeather = counted.filter(r => !r.weather)
-  items.push({
-    key: 'weather',
-    label: 'Weather at each run',
-    fix: `${at}/run-sheet`,
-    met: counted.length > 0 && noWeather.length === 0,
-    detail: noWeather.length ? `missing for run(s) ${noWeather.map(r => `#${r.id}`).join(', ')}` : 'recorded',
-  })
   const licence = evidence.find(e => e.kind === 'rider-licence' && e.entryId === entry.entry.id)
   const licenceValid = runDays.every(d => d <= entry.rider.licenceExpires)
-  items.push({
-    key: 'licence',
-    label: 'The rider\'s licence',
-    fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
-    met: !!licence && licenceValid,
-    detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires `
-      + `${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
-  })
-  return {
-    attemptId,
-    ready: items.every(i => i.met),
-    items,
-    live,
-    day,
-    entry,
-    distance,
-    evidence,
-    statements,
-    clearance,
-  }
+  return [
+    {
+      key: 'weather',
+      label: 'Weather at each run',
+      fix: `${at}/run-sheet`,
+      met: counted.length > 0 && noWeather.length === 0,
+      detail: noWeather.length ? `missing for run(s) ${noWeather.map(r => `#${r.id}`).join(', ')}` : 'recorded',
+    },
+    {
+      key: 'licence',
+      label: 'The rider\'s licence',
+      fix: `${at}/evidence?kind=rider-licence&target=entryId:${entry.entry.id}`,
+      met: !!licence && licenceValid,
+      detail: `${licence ? licence.originalName : 'no licence attached'}; ${entry.rider.licenceNo}, expires `
+        + `${entry.rider.licenceExpires}${licenceValid ? '' : ', before the runs'}`,
+    },
+  ]
+}
+
+/**
+ * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
+ * and engine as the live results.
+ */
+export async function readinessOf(eventId: number, attemptId: number) {
+  const file = await loadAttemptFile(eventId, attemptId)
+  const items = [...recordItems(file), ...equipmentItems(file), ...runAndRiderItems(file)]
+  const { live, day, entry, distance, evidence, statements, clearance } = file
+  const ready = items.every(i => i.met)
+  return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance }
 }
 
 export async function attemptOfEvent(eventId: number, attemptId: number) {

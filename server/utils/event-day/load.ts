@@ -1,5 +1,76 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
 
+/** Entries with their team's name, machine and rider. */
+function entryRows(eventId: number) {
+  const t = tables
+  return useDb()
+    .select({ entry: t.entries, teamName: t.teams.name, machine: t.machines, rider: t.riders })
+    .from(t.entries)
+    .innerJoin(t.teams, eq(t.teams.id, t.entries.teamId))
+    .innerJoin(t.machines, eq(t.machines.id, t.entries.machineId))
+    .innerJoin(t.riders, eq(t.riders.id, t.entries.riderId))
+    .where(eq(t.entries.eventId, eventId))
+    .orderBy(asc(t.entries.id))
+}
+
+/** The event's readings, each marked current or superseded; superseded ones only with the history. */
+function readingRows(eventId: number, history: boolean) {
+  const t = tables
+  const current = sql<boolean>`not exists (select 1 from readings s where s.supersedes_id = ${t.readings.id})`
+  return useDb()
+    .select({
+      id: t.readings.id,
+      runId: t.readings.runId,
+      trapId: t.readings.trapId,
+      systemId: t.readings.systemId,
+      ticks: t.readings.ticks,
+      supersedesId: t.readings.supersedesId,
+      reason: t.readings.reason,
+      enteredAt: t.readings.enteredAt,
+      enteredBy: t.users.name,
+      current,
+    })
+    .from(t.readings)
+    .innerJoin(t.runs, eq(t.runs.id, t.readings.runId))
+    .innerJoin(t.users, eq(t.users.id, t.readings.enteredBy))
+    .where(history ? eq(t.runs.eventId, eventId) : and(eq(t.runs.eventId, eventId), current))
+    .orderBy(asc(t.readings.id))
+}
+
+/** The latest weather entered for each run. */
+function latestWeather(eventId: number) {
+  const t = tables
+  return useDb()
+    .selectDistinctOn([t.weather.runId])
+    .from(t.weather)
+    .innerJoin(t.runs, eq(t.runs.id, t.weather.runId))
+    .where(eq(t.runs.eventId, eventId))
+    .orderBy(t.weather.runId, desc(t.weather.enteredAt), desc(t.weather.id))
+}
+
+/** Every signing and reopening of the event's timing sheets, oldest first, with the signer's name. */
+function sheetSignatureRows(eventId: number) {
+  const t = tables
+  const s = t.signatures
+  return useDb()
+    .select({
+      s: {
+        id: s.id,
+        kind: s.kind,
+        subjectId: s.subjectId,
+        typedName: s.typedName,
+        signedAt: s.signedAt,
+        contentSha256: s.contentSha256,
+        reason: s.reason,
+      },
+      signerName: t.users.name,
+    })
+    .from(s)
+    .innerJoin(t.users, eq(t.users.id, s.signerId))
+    .where(and(eq(s.eventId, eventId), inArray(s.kind, ['timing-sheet', 'timing-sheet-reopened'])))
+    .orderBy(asc(s.id))
+}
+
 /**
  * Everything the run sheet and the live results need for one event, in a fixed number of queries
  * whatever the number of runs and readings.
@@ -10,99 +81,23 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   const [event] = await db.select().from(t.events).where(eq(t.events.id, eventId))
   if (!event) throw notFound('No such event')
   const courseIds = db.select({ id: t.courses.id }).from(t.courses).where(eq(t.courses.eventId, eventId))
-  const [courses, traps, distances, systems, entryRows, records, attempts, runs, readings, weather, signatures]
+  const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures]
     = await Promise.all([
       db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
       db.select().from(t.traps).where(inArray(t.traps.courseId, courseIds)).orderBy(asc(t.traps.positionM)),
-      db
-        .select()
-        .from(t.measuredDistances)
-        .where(inArray(t.measuredDistances.courseId, courseIds))
+      db.select().from(t.measuredDistances).where(inArray(t.measuredDistances.courseId, courseIds))
         .orderBy(asc(t.measuredDistances.id)),
-      db
-        .select()
-        .from(t.timingSystems)
-        .where(eq(t.timingSystems.eventId, eventId))
-        .orderBy(asc(t.timingSystems.role)),
-      db
-        .select({ entry: t.entries, teamName: t.teams.name, machine: t.machines, rider: t.riders })
-        .from(t.entries)
-        .innerJoin(t.teams, eq(t.teams.id, t.entries.teamId))
-        .innerJoin(t.machines, eq(t.machines.id, t.entries.machineId))
-        .innerJoin(t.riders, eq(t.riders.id, t.entries.riderId))
-        .where(eq(t.entries.eventId, eventId))
-        .orderBy(asc(t.entries.id)),
+      db.select().from(t.timingSystems).where(eq(t.timingSystems.eventId, eventId)).orderBy(asc(t.timingSystems.role)),
+      entryRows(eventId),
       db.select().from(t.standingRecords).where(eq(t.standingRecords.eventId, eventId)),
       db.select().from(t.attempts).where(eq(t.attempts.eventId, eventId)).orderBy(asc(t.attempts.id)),
       db.select().from(t.runs).where(eq(t.runs.eventId, eventId)).orderBy(asc(t.runs.startedAt)),
-      db
-        .select({
-          id: t.readings.id,
-          runId: t.readings.runId,
-          trapId: t.readings.trapId,
-          systemId: t.readings.systemId,
-          ticks: t.readings.ticks,
-          supersedesId: t.readings.supersedesId,
-          reason: t.readings.reason,
-          enteredAt: t.readings.enteredAt,
-          enteredBy: t.users.name,
-          current: sql<boolean>`not exists (select 1 from readings s where s.supersedes_id = ${t.readings.id})`,
-        })
-        .from(t.readings)
-        .innerJoin(t.runs, eq(t.runs.id, t.readings.runId))
-        .innerJoin(t.users, eq(t.users.id, t.readings.enteredBy))
-        .where(
-          options.history
-            ? eq(t.runs.eventId, eventId)
-            : and(
-                eq(t.runs.eventId, eventId),
-                sql`not exists (select 1 from readings s where s.supersedes_id = ${t.readings.id})`,
-              ),
-        )
-        .orderBy(asc(t.readings.id)),
-      db
-        .selectDistinctOn([t.weather.runId])
-        .from(t.weather)
-        .innerJoin(t.runs, eq(t.runs.id, t.weather.runId))
-        .where(eq(t.runs.eventId, eventId))
-        .orderBy(t.weather.runId, desc(t.weather.enteredAt), desc(t.weather.id)),
-      db
-        .select({
-          s: {
-            id: t.signatures.id,
-            kind: t.signatures.kind,
-            subjectId: t.signatures.subjectId,
-            typedName: t.signatures.typedName,
-            signedAt: t.signatures.signedAt,
-            contentSha256: t.signatures.contentSha256,
-            reason: t.signatures.reason,
-          },
-          signerName: t.users.name,
-        })
-        .from(t.signatures)
-        .innerJoin(t.users, eq(t.users.id, t.signatures.signerId))
-        .where(
-          and(
-            eq(t.signatures.eventId, eventId),
-            inArray(t.signatures.kind, ['timing-sheet', 'timing-sheet-reopened']),
-          ),
-        )
-        .orderBy(asc(t.signatures.id)),
+      readingRows(eventId, !!options.history),
+      latestWeather(eventId),
+      sheetSignatureRows(eventId),
     ])
-  return {
-    event,
-    courses,
-    traps,
-    distances,
-    systems,
-    records,
-    attempts,
-    runs,
-    readings,
-    signatures,
-    entries: entryRows,
-    weather: weather.map(w => w.weather),
-  }
+  const day = { event, courses, traps, distances, systems, records, attempts, runs, readings, signatures, entries }
+  return { ...day, weather: weather.map(w => w.weather) }
 }
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>
