@@ -124,74 +124,60 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
   })
 }
 
+/** The entry, locked for the start of a run; only an entry cleared by a signed inspection may run. */
+async function lockClearedEntry(tx: Tx, eventId: number, entryId: number) {
+  const [entry] = await tx
+    .select()
+    .from(tables.entries)
+    .where(and(eq(tables.entries.id, entryId), eq(tables.entries.eventId, eventId)))
+    .for('update')
+  if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
+  const clearance = (await clearanceOf([entry.id])).get(entry.id)!
+  if (!clearance.cleared) throw conflict(`This entry is not cleared to run: ${clearance.why}`, clearance)
+  return entry
+}
+
+/**
+ * The entry's open attempt: the latest with fewer than two runs that were not aborted and no
+ * signed timing sheet. Null when every attempt is complete.
+ */
+async function openAttempt(tx: Tx, entryId: number) {
+  const { attempts, runs, signatures } = tables
+  const mine = await tx.select().from(attempts).where(eq(attempts.entryId, entryId))
+  if (!mine.length) return null
+  const ids = mine.map(a => a.id)
+  const runRows = await tx.select().from(runs).where(inArray(runs.attemptId, ids))
+  const signed = await tx
+    .select({ subjectId: signatures.subjectId })
+    .from(signatures)
+    .where(and(eq(signatures.kind, 'timing-sheet'), inArray(signatures.subjectId, ids)))
+  const liveRuns = (id: number) => runRows.filter(r => r.attemptId === id && r.status !== 'aborted').length
+  return mine.findLast(a => liveRuns(a.id) < 2 && !signed.some(s => s.subjectId === a.id)) ?? null
+}
+
+/** A new attempt with a frozen copy of the event's profile. */
+async function newAttempt(tx: Tx, eventId: number, entryId: number) {
+  const [event] = await tx
+    .select({ profile: tables.events.profile })
+    .from(tables.events)
+    .where(eq(tables.events.id, eventId))
+  const [attempt] = await tx.insert(tables.attempts).values({ eventId, entryId, profile: event!.profile }).returning()
+  return attempt!
+}
+
 /**
  * Starts a run for an entry. It joins the entry's open attempt (one with fewer than two runs that
  * were not aborted), or opens a new attempt with a frozen copy of the event's profile.
  */
-export async function startRun(
-  eventId: number,
-  input: StartRunInput,
-  userId: number,
-) {
+export async function startRun(eventId: number, input: StartRunInput, userId: number) {
   return useDb().transaction(async (tx) => {
-    const [entry] = await tx
-      .select()
-      .from(tables.entries)
-      .where(and(eq(tables.entries.id, input.entryId), eq(tables.entries.eventId, eventId)))
-      .for('update')
-    if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
-    const clearance = (await clearanceOf([entry.id])).get(entry.id)!
-    if (!clearance.cleared)
-      throw createError({
-        statusCode: 409,
-        statusMessage: `This entry is not cleared to run: ${clearance.why}`,
-        data: clearance,
-      })
-    const [event] = await tx
-      .select({ profile: tables.events.profile })
-      .from(tables.events)
-      .where(eq(tables.events.id, eventId))
-    const attempts = await tx.select().from(tables.attempts).where(eq(tables.attempts.entryId, entry.id))
-    const runs = attempts.length
-      ? await tx
-          .select()
-          .from(tables.runs)
-          .where(
-            inArray(
-              tables.runs.attemptId,
-              attempts.map(a => a.id),
-            ),
-          )
-      : []
-    const signed = attempts.length
-      ? await tx
-          .select({ subjectId: tables.signatures.subjectId })
-          .from(tables.signatures)
-          .where(
-            and(
-              eq(tables.signatures.kind, 'timing-sheet'),
-              inArray(
-                tables.signatures.subjectId,
-                attempts.map(a => a.id),
-              ),
-            ),
-          )
-      : []
-    const open = attempts.findLast(
-      a =>
-        runs.filter(r => r.attemptId === a.id && r.status !== 'aborted').length < 2
-        && !signed.some(s => s.subjectId === a.id),
-    )
-    const attemptId
-      = open?.id
-        ?? (
-          await tx.insert(tables.attempts).values({ eventId, entryId: entry.id, profile: event!.profile }).returning()
-        )[0]!.id
+    const entry = await lockClearedEntry(tx, eventId, input.entryId)
+    const attempt = (await openAttempt(tx, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
     const [run] = await tx
       .insert(tables.runs)
       .values({
         eventId,
-        attemptId,
+        attemptId: attempt.id,
         direction: input.direction,
         startedAt: new Date(input.startedAt),
         createdBy: userId,
