@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { allItems } from '#shared/inspection/evaluate'
+import { addDays } from '#shared/rules/zoned'
 import { seedDemo } from '../../database/demo'
 import demo from '../../database/demo-people.json'
 import type { StagedFile } from '../evidence/uploads'
@@ -61,21 +62,17 @@ async function seedDemoInspections() {
 }
 
 /** A small invented PDF for the demo's certificates, made on the spot. */
-async function demoPdf(title: string, lines: string[]) {
+async function demoPdf(title: string, lines: string[], made: Date) {
   const { PDFDocument, StandardFonts } = await import('pdf-lib')
   const doc = await PDFDocument.create()
   const font = await doc.embedFont(StandardFonts.Helvetica)
   const page = doc.addPage([420, 300])
   page.drawText(title, { x: 30, y: 250, size: 16, font })
   lines.forEach((l, i) => page.drawText(l, { x: 30, y: 215 - i * 18, size: 10, font }))
-  page.drawText('DEMO DOCUMENT - invented for the Trapline demo; certifies nothing.', {
-    x: 30,
-    y: 30,
-    size: 8,
-    font,
-  })
-  doc.setCreationDate(new Date('2026-08-01T00:00:00Z'))
-  doc.setModificationDate(new Date('2026-08-01T00:00:00Z'))
+  const notice = 'DEMO DOCUMENT - invented for the Trapline demo; certifies nothing.'
+  page.drawText(notice, { x: 30, y: 30, size: 8, font })
+  doc.setCreationDate(made)
+  doc.setModificationDate(made)
   return Buffer.from(await doc.save())
 }
 
@@ -94,106 +91,127 @@ async function stage(bytes: Buffer, name: string): Promise<StagedFile> {
   }
 }
 
+type DemoUser = typeof tables.users.$inferSelect
+type CertificateKind = 'survey-certificate' | 'calibration-certificate' | 'rider-licence'
+
+/** The demo's event, people and the streamliner's entry and attempt, as seeded. */
+async function demoFacts() {
+  const db = useDb()
+  const user = async (email: string) => (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
+  const [organiser, timekeeper, team, official, official2] = await Promise.all(
+    ['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)),
+  )
+  const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
+  const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
+  const systems = await db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, event!.id))
+  const [streamliner] = await db
+    .select({ entry: tables.entries, rider: tables.riders })
+    .from(tables.entries)
+    .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
+    .orderBy(tables.entries.id)
+    .limit(1)
+  const [attempt] = await db.select().from(tables.attempts).where(eq(tables.attempts.entryId, streamliner!.entry.id))
+  const people = {
+    organiser: organiser!,
+    timekeeper: timekeeper!,
+    team: team!,
+    official: official!,
+    official2: official2!,
+  }
+  return { people, event: event!, course: course!, systems, streamliner: streamliner!, attempt: attempt! }
+}
+type DemoFacts = Awaited<ReturnType<typeof demoFacts>>
+
+function accessAs(facts: DemoFacts, u: DemoUser, roles: ('organiser' | 'team')[], teamIds: number[] = []) {
+  return {
+    user: { id: u.id, email: u.email, name: u.name, isAdmin: false },
+    eventId: facts.event.id,
+    roles,
+    teamIds,
+    asAdmin: false,
+  }
+}
+
+/** The course survey, both calibration certificates and the rider's licence, attached as the app does. */
+async function attachDemoCertificates(facts: DemoFacts) {
+  const { people, event, course, systems, streamliner } = facts
+  const made = new Date(`${event.startsOn}T00:00:00Z`)
+  const put = async (
+    who: ReturnType<typeof accessAs>,
+    file: { kind: CertificateKind, name: string, title: string, lines: string[] },
+    target: Record<string, number>,
+  ) => {
+    const pdf = await demoPdf(file.title, file.lines, made)
+    return commitEvidence(who, { kind: file.kind, ...target }, await stage(pdf, file.name))
+  }
+  const organiser = accessAs(facts, people.organiser, ['organiser'])
+  await put(organiser, {
+    kind: 'survey-certificate',
+    name: 'north-course-survey.pdf',
+    title: 'Course survey certificate (demo)',
+    lines: [
+      'Tamsel Flat north course, traps M-in 3000.000 m to M-out 4609.344 m',
+      `Surveyed ${addDays(event.startsOn, -13)}, tolerance 10 mm`,
+    ],
+  }, { courseId: course.id })
+  for (const s of systems) {
+    await put(organiser, {
+      kind: 'calibration-certificate',
+      name: `${s.name.toLowerCase().replace(/\s+/g, '-')}-calibration.pdf`,
+      title: `Calibration certificate (demo): ${s.name}`,
+      lines: [`Calibrated ${s.calibratedOn}, valid to ${s.calibrationExpires}`, `Resolution 1/${s.ticksPerSecond} s`],
+    }, { timingSystemId: s.id })
+  }
+  const { rider, entry } = streamliner
+  await put(accessAs(facts, people.team, ['team'], [entry.teamId]), {
+    kind: 'rider-licence',
+    name: 'rider-licence.pdf',
+    title: 'Rider licence (demo)',
+    lines: [`${rider.name}, licence ${rider.licenceNo}`, `Valid to ${rider.licenceExpires}`],
+  }, { entryId: entry.id })
+}
+
+/** Two officials' signed statements on the streamliner's pair. */
+async function signDemoStatements({ people, event, attempt }: DemoFacts) {
+  const positions = [
+    [people.official, 'beside the exit trap of the mile'],
+    [people.official2, 'at the timing hut, with a view of the entry trap'],
+  ] as const
+  for (const [official, position] of positions) {
+    const statement = {
+      attemptId: attempt.id,
+      runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)',
+      position,
+      conditions: 'dry surface, light wind from the south-south-west, clear sky',
+      irregularities: '',
+      password: demo.password,
+      typedName: official.name,
+    }
+    await createStatement(event.id, statement, official)
+  }
+}
+
 /**
  * The rest of the demo day, through the same code as the app: certificates and licences attached,
  * two witness statements, the timing sheet signed, and the streamliner's dossier sealed, submitted
  * and ratified. The second team's attempt stays on the way (one run, nothing signed).
  */
 async function seedDemoDossier() {
-  const db = useDb()
-  const user = async (email: string) =>
-    (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
-  const [organiser, timekeeper, team, official, official2] = await Promise.all(
-    ['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)),
-  )
-  const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
-  const access = (u: typeof organiser, roles: ('organiser' | 'team')[], teamIds: number[] = []) => ({
-    user: { id: u!.id, email: u!.email, name: u!.name, isAdmin: false },
-    eventId: event!.id,
-    roles,
-    teamIds,
-    asAdmin: false,
-  })
-  const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
-  const systems = await db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, event!.id))
-  const [ls] = await db
-    .select({ entry: tables.entries, rider: tables.riders })
-    .from(tables.entries)
-    .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
-    .orderBy(tables.entries.id)
-    .limit(1)
-  const [attempt] = await db.select().from(tables.attempts).where(eq(tables.attempts.entryId, ls!.entry.id))
-
-  const put = async (
-    who: ReturnType<typeof access>,
-    kind: 'survey-certificate' | 'calibration-certificate' | 'rider-licence',
-    name: string,
-    title: string,
-    lines: string[],
-    target: Record<string, number>,
-  ) => commitEvidence(who, { kind, ...target }, await stage(await demoPdf(title, lines), name))
-  await put(
-    access(organiser, ['organiser']),
-    'survey-certificate',
-    'north-course-survey.pdf',
-    'Course survey certificate (demo)',
-    ['Tamsel Flat north course, traps M-in 3000.000 m to M-out 4609.344 m', 'Surveyed 2026-07-28, tolerance 10 mm'],
-    { courseId: course!.id },
-  )
-  for (const s of systems)
-    await put(
-      access(organiser, ['organiser']),
-      'calibration-certificate',
-      `${s.name.toLowerCase().replace(/\s+/g, '-')}-calibration.pdf`,
-      `Calibration certificate (demo): ${s.name}`,
-      [`Calibrated ${s.calibratedOn}, valid to ${s.calibrationExpires}`, `Resolution 1/${s.ticksPerSecond} s`],
-      { timingSystemId: s.id },
-    )
-  await put(
-    access(team, ['team'], [ls!.entry.teamId]),
-    'rider-licence',
-    'rider-licence.pdf',
-    'Rider licence (demo)',
-    [`${ls!.rider.name}, licence ${ls!.rider.licenceNo}`, `Valid to ${ls!.rider.licenceExpires}`],
-    { entryId: ls!.entry.id },
-  )
-
-  for (const [o, position] of [
-    [official, 'beside the exit trap of the mile'],
-    [official2, 'at the timing hut, with a view of the entry trap'],
-  ] as const) {
-    await createStatement(
-      event!.id,
-      {
-        attemptId: attempt!.id,
-        runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)',
-        position,
-        conditions: 'dry surface, light wind from the south-south-west, clear sky',
-        irregularities: '',
-        password: demo.password,
-        typedName: o!.name,
-      },
-      o!,
-    )
-  }
+  const facts = await demoFacts()
+  const { people, event, attempt } = facts
+  await attachDemoCertificates(facts)
+  await signDemoStatements(facts)
   await signTimingSheet({
-    eventId: event!.id,
-    attemptId: attempt!.id,
-    userId: timekeeper!.id,
+    eventId: event.id,
+    attemptId: attempt.id,
+    userId: people.timekeeper.id,
     password: demo.password,
-    typedName: timekeeper!.name,
+    typedName: people.timekeeper.name,
   })
-  const dossier = await issueDossier(event!.id, attempt!.id, team!.id)
-  await submitDossier(dossier.id, team!.id)
-  await decideDossier(
-    dossier.id,
-    {
-      decision: 'ratified',
-      reasons:
-        'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, two statements.',
-      password: demo.password,
-      typedName: official!.name,
-    },
-    official!,
-  )
+  const dossier = await issueDossier(event.id, attempt.id, people.team.id)
+  await submitDossier(dossier.id, people.team.id)
+  const reasons = 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, '
+    + 'two statements.'
+  const decision = { decision: 'ratified' as const, reasons, password: demo.password, typedName: people.official.name }
+  await decideDossier(dossier.id, decision, people.official)
 }
