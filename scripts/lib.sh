@@ -16,6 +16,21 @@ free_port() { # first free port from $1 upwards
   echo "$p"
 }
 
+# hold_free_port START: sets HELD_PORT to the first port from START that is free and not held by another
+# run of these scripts, and keeps holding it (a lock on an open file descriptor) until this shell exits.
+hold_free_port() {
+  local p=$1
+  mkdir -p "$DATA/locks"
+  while :; do
+    if ! port_busy "$p"; then
+      exec {HELD_PORT_FD}>"$DATA/locks/port-$p"
+      if flock -n "$HELD_PORT_FD"; then HELD_PORT=$p; return; fi
+      exec {HELD_PORT_FD}>&-
+    fi
+    p=$((p + 1))
+  done
+}
+
 ensure_node_modules() {
   if [ ! -x "$ROOT/node_modules/.bin/nuxt" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
     say "installing npm dependencies (npm ci)…"
@@ -97,10 +112,11 @@ ensure_database() { # ensure_database PORT NAME
   [ -n "$exists" ] || "$PGBIN/createdb" -h 127.0.0.1 -p "$1" -U postgres "$2" || die "could not create database $2."
 }
 
-migrate() { # migrate DATABASE_URL
+migrate() { # migrate DATABASE_URL [LOG]
+  local log=${2:-$DATA/migrate.log}
   say "applying database migrations…"
-  (cd "$ROOT" && DATABASE_URL="$1" node node_modules/drizzle-kit/bin.cjs migrate >"$DATA/migrate.log" 2>&1) \
-    || { cat "$DATA/migrate.log" >&2; die "migrations failed."; }
+  (cd "$ROOT" && DATABASE_URL="$1" node node_modules/drizzle-kit/bin.cjs migrate >"$log" 2>&1) \
+    || { cat "$log" >&2; die "migrations failed."; }
 }
 
 secret_file() { # secret_file NAME: a random 64-hex secret kept under .data, made once

@@ -1,5 +1,6 @@
 import { spawn } from 'node:child_process'
 import { writeFileSync } from 'node:fs'
+import { connect } from 'node:net'
 import { resolve } from 'node:path'
 import pg from 'pg'
 import type { PDFHexString, PDFString } from 'pdf-lib'
@@ -179,19 +180,38 @@ describe('submission and ratification', () => {
   it('with the mail server down, the submission is kept and the e-mail goes out once it is back', async () => {
     const env = JSON.parse(inject('serverEnv'))
     const { readFileSync } = await import('node:fs')
+    const smtpUp = () => new Promise<boolean>((ok) => {
+      const socket = connect(env.smtpPort, '127.0.0.1', () => {
+        socket.destroy()
+        ok(true)
+      }).once('error', () => ok(false))
+    })
     process.kill(Number(readFileSync(env.catcherPidFile, 'utf8')), 'SIGTERM')
-    await new Promise(r => setTimeout(r, 300))
-    const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
-    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
-    const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
-    expect(submitted.status).toBe(201)
-    expect(submitted.body.mail.sent).toBe(0)
-    expect(submitted.body.message).toContain('will be retried')
-    expect(Number((await db.query('select count(*) from mail_outbox where sent_at is null and attachment_sha256 = $1', [built.body.pdfSha256])).rows[0].count)).toBeGreaterThan(0)
-    const catcher = spawn(process.execPath, ['scripts/mail-catcher.mjs', '--smtp', String(env.smtpPort), '--http', String(env.inboxPort), '--dir', env.mailDir], { cwd: resolve(import.meta.dirname, '../..'), stdio: 'ignore', detached: false })
-    writeFileSync(env.catcherPidFile, String(catcher.pid))
-    await expect.poll(async () => Number((await db.query('select count(*) from mail_outbox where sent_at is null')).rows[0].count), { timeout: 15_000, interval: 500 }).toBe(0)
-    const inbox = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as any[]
-    expect(inbox.some(m => m.text.includes(built.body.pdfSha256))).toBe(true)
+    let restarted = false
+    const restart = async () => {
+      if (restarted) return
+      restarted = true
+      const catcher = spawn(process.execPath, ['scripts/mail-catcher.mjs', '--smtp', String(env.smtpPort), '--http', String(env.inboxPort), '--dir', env.mailDir], { cwd: resolve(import.meta.dirname, '../..'), stdio: 'ignore' })
+      writeFileSync(env.catcherPidFile, String(catcher.pid))
+      await expect.poll(smtpUp, { timeout: 10_000 }).toBe(true)
+    }
+    try {
+      await expect.poll(smtpUp, { timeout: 10_000 }).toBe(false)
+      const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
+      const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
+      const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
+      expect(submitted.status).toBe(201)
+      expect(submitted.body.mail.sent).toBe(0)
+      expect(submitted.body.message).toContain('will be retried')
+      const pending = 'select count(*) from mail_outbox where sent_at is null and attachment_sha256 = $1'
+      expect(Number((await db.query(pending, [built.body.pdfSha256])).rows[0].count)).toBeGreaterThan(0)
+      await restart()
+      await expect.poll(async () => Number((await db.query(pending, [built.body.pdfSha256])).rows[0].count), { timeout: 15_000, interval: 200 }).toBe(0)
+      const inbox = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as any[]
+      expect(inbox.some(m => m.text.includes(built.body.pdfSha256))).toBe(true)
+    }
+    finally {
+      await restart()
+    }
   })
 })

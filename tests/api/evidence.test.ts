@@ -1,9 +1,9 @@
-import { spawn } from 'node:child_process'
 import { existsSync, readdirSync } from 'node:fs'
 import { request } from 'node:http'
 import { join } from 'node:path'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { startApp } from '../support/processes'
 import { call, demoEmail, login, url, useTestServer } from '../support/api'
 import { form, pdf, png, sha256 } from '../support/files'
 
@@ -84,18 +84,19 @@ describe('uploads', () => {
     const before = await rows()
     const boundary = 'cutoffboundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nother-document\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="cut.pdf"\r\nContent-Type: application/pdf\r\n\r\n`
-    await new Promise<void>((resolve) => {
-      const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 90_000) } })
+    const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 10_000_000) } })
+    const ended = new Promise<void>((resolve) => {
       req.on('error', () => resolve())
       req.on('response', () => resolve())
-      req.write(head)
-      req.write(pdf())
-      req.write(Buffer.alloc(30_000, 32))
-      setTimeout(() => {
-        req.destroy()
-        setTimeout(resolve, 500)
-      }, 300)
+      req.on('close', () => resolve())
     })
+    req.write(head)
+    req.write(pdf())
+    req.write(Buffer.alloc(200_000, 32))
+    // The upload reached the server: its staging file is there. Then the client goes away.
+    await expect.poll(() => tmpFiles().length, { timeout: 5000 }).toBeGreaterThan(0)
+    req.destroy()
+    await ended
     await expect.poll(() => tmpFiles(), { timeout: 5000 }).toEqual([])
     expect(await rows()).toBe(before)
   })
@@ -130,21 +131,13 @@ describe('access', () => {
 describe('a server killed during an upload', () => {
   it('leaves a temporary file that the next start removes, and no row', async () => {
     const env = JSON.parse(inject('serverEnv'))
-    const port = 39000 + Math.floor(Math.random() * 1000)
-    const start = () => spawn(process.execPath, [join(env.output, 'server/index.mjs')], {
-      env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NUXT_DATABASE_URL: env.databaseUrl, NUXT_DATA_DIR: env.dataDir, NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long', NUXT_MAIL_PORT: String(env.smtpPort) },
-      stdio: 'ignore',
+    const start = () => startApp(env.output, {
+      NUXT_DATABASE_URL: env.databaseUrl,
+      NUXT_DATA_DIR: env.dataDir,
+      NUXT_MAIL_PORT: String(env.smtpPort),
     })
-    const up = async () => {
-      for (let i = 0; i < 100; i++) {
-        const ok = await fetch(`http://127.0.0.1:${port}/api/health`).then(r => r.ok, () => false)
-        if (ok) return
-        await new Promise(r => setTimeout(r, 100))
-      }
-      throw new Error('no server')
-    }
-    let server = start()
-    await up()
+    let server = await start()
+    const port = server.port
     const before = await rows()
     const boundary = 'killboundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nvideo\r\n--${boundary}\r\nContent-Disposition: form-data; name="runId"\r\n\r\n${runId}\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="run.mp4"\r\n\r\n`
@@ -153,14 +146,18 @@ describe('a server killed during an upload', () => {
     req.write(head)
     req.write(Buffer.alloc(200_000, 1))
     await expect.poll(() => tmpFiles().length, { timeout: 5000 }).toBeGreaterThan(0)
-    server.kill('SIGKILL')
-    await new Promise(r => server.once('exit', r))
+    const killed = new Promise(r => server.child.once('exit', r))
+    server.child.kill('SIGKILL')
+    await killed
     req.destroy()
     expect(tmpFiles().length).toBeGreaterThan(0) // the crash left it
-    server = start()
-    await up()
-    await expect.poll(() => tmpFiles(), { timeout: 5000 }).toEqual([])
-    expect(await rows()).toBe(before)
-    server.kill('SIGTERM')
+    server = await start()
+    try {
+      await expect.poll(() => tmpFiles(), { timeout: 5000 }).toEqual([])
+      expect(await rows()).toBe(before)
+    }
+    finally {
+      await server.stop()
+    }
   })
 })
