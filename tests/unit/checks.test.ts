@@ -6,7 +6,8 @@ import { parseTimeOfDay, segmentTime } from '#shared/rules/timing'
 
 describe('wind components', () => {
   it('resolves head, tail and cross wind against the heading', () => {
-    // Source: vector resolution, θ = β − h; head = W·cos θ, cross = W·sin θ (domain notes).
+    // Source: vector resolution of the wind into components along and across the heading, θ = β − h;
+    // head = W·cos θ, cross = W·sin θ (common practice of wind measurement for records).
     expect(windComponents(5, 90, 90)).toEqual({ headMs: 5, crossMs: 0 }) // wind from ahead
     expect(windComponents(5, 270, 90).headMs).toBeCloseTo(-5, 12) // from behind: tail-wind
     expect(windComponents(4, 180, 90).crossMs).toBeCloseTo(4, 12)

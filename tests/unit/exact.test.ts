@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { fromDecimal, fromNumber, q, toFixed } from '#shared/rules/exact'
+import { div, fromDecimal, fromNumber, q, sub, toFixed } from '#shared/rules/exact'
+import { msToKmh } from '#shared/rules/units'
 
 describe('exact figures', () => {
   it('parses decimals exactly', () => {
@@ -12,7 +13,8 @@ describe('exact figures', () => {
   })
 
   it('truncates and rounds once at the end', () => {
-    // Common practice of published speed figures: truncation at the last decimal (see domain notes).
+    // Common practice of published speed figures: truncation at the last decimal; the 1983 result's 642.971 mph
+    // (Royal Automobile Club, published) is 3600 / 5.599 = 642.9719… truncated, where rounding gives 642.972.
     expect(toFixed(q(6429719n, 10000n), 3, 'truncate')).toBe('642.971')
     expect(toFixed(q(6429719n, 10000n), 3, 'round')).toBe('642.972')
     expect(toFixed(q(-15n, 10n), 0, 'round')).toBe('-2')
@@ -20,12 +22,10 @@ describe('exact figures', () => {
     expect(toFixed(q(7n), 2)).toBe('7.00')
   })
 
-  it('lands exactly on an exactly representable speed where floats fall a hair short', () => {
-    // 0.1 + 0.2 in floats is 0.30000000000000004; 0.3 − 0.1 is 0.19999999999999998, which a float
-    // truncation prints as 0.199. Exact arithmetic keeps 0.200.
-    expect(Math.trunc((0.3 - 0.1) * 1000) / 1000).toBe(0.199)
-    const x = fromDecimal('0.3')
-    const y = fromDecimal('0.1')
-    expect(toFixed(q(x.n * y.d - y.n * x.d, x.d * y.d), 3)).toBe('0.200')
+  it('lands exactly on an exactly representable figure and truncates it to itself', () => {
+    // Hand computation: 0.3 − 0.1 = 0.2 exactly, printed 0.200 at three decimals; and 1000 m in 2.5 s is
+    // 400 m/s = 1440 km/h exactly, printed 1440.000 (no value a hair under it).
+    expect(toFixed(sub(fromDecimal('0.3'), fromDecimal('0.1')), 3)).toBe('0.200')
+    expect(toFixed(msToKmh(div(q(1000n), fromDecimal('2.5'))), 3)).toBe('1440.000')
   })
 })
