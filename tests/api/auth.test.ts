@@ -1,6 +1,6 @@
 import pg from 'pg'
 import { afterAll, describe, expect, inject, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 
 await useTestServer()
 
@@ -11,9 +11,9 @@ afterAll(() => db.end())
 /** A fresh person invited to the demo event by its organiser, with a password set through the link. */
 async function invitedPerson(role = 'official', password = 'first-password-1') {
   const organiser = await login(demoEmail('organiser'))
-  const events = await call<{ id: number }[]>('GET', '/api/events', { cookie: organiser })
+  const eventId = await demoEventId(organiser)
   const email = unique(role)
-  const r = await call('POST', `/api/events/${events.body[0]!.id}/people`, { cookie: organiser, body: { email, name: 'Test Person', role } })
+  const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email, name: 'Test Person', role } })
   expect(r.status).toBe(201)
   const mail = await mailTo(email, 'invited')
   const token = linkToken(mail.text)
@@ -85,10 +85,15 @@ describe('sign-in', () => {
     expect(again.status).toBe(200)
   })
 
-  it('signs out', async () => {
-    const r = await call('POST', '/api/auth/logout')
+  it('signs out: the session it was sent is cleared, and the browser holding the answer is signed out', async () => {
+    const session = await login(demoEmail('official'))
+    expect((await call('GET', '/api/me', { cookie: session })).status).toBe(200)
+    const r = await call('POST', '/api/auth/logout', { cookie: session })
     expect(r.status).toBe(204)
-    expect(r.headers.getSetCookie().join('\n')).toMatch(/nuxt-session=;|Max-Age=0|Expires=Thu, 01 Jan 1970/i)
+    const cleared = r.headers.getSetCookie().find(c => c.startsWith('nuxt-session='))!
+    expect(cleared).toMatch(/^nuxt-session=;|Max-Age=0|Expires=Thu, 01 Jan 1970/i)
+    // What a browser keeps after that answer: the cookie's new, empty value.
+    expect((await call('GET', '/api/me', { cookie: cleared.split(';')[0] })).status).toBe(401)
   })
 })
 
@@ -109,15 +114,15 @@ describe('invitations and passwords', () => {
 
   it('an invitation for a role someone already holds answers 409', async () => {
     const organiser = await login(demoEmail('organiser'))
-    const events = await call<{ id: number }[]>('GET', '/api/events', { cookie: organiser })
-    const r = await call('POST', `/api/events/${events.body[0]!.id}/people`, { cookie: organiser, body: { email: demoEmail('timekeeper'), name: 'Tobias Tick', role: 'timekeeper' } })
+    const eventId = await demoEventId(organiser)
+    const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email: demoEmail('timekeeper'), name: 'Tobias Tick', role: 'timekeeper' } })
     expect(r.status).toBe(409)
   })
 
   it('a team invitation must name the team', async () => {
     const organiser = await login(demoEmail('organiser'))
-    const events = await call<{ id: number }[]>('GET', '/api/events', { cookie: organiser })
-    const r = await call('POST', `/api/events/${events.body[0]!.id}/people`, { cookie: organiser, body: { email: unique('team'), name: 'New Entrant', role: 'team' } })
+    const eventId = await demoEventId(organiser)
+    const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email: unique('team'), name: 'New Entrant', role: 'team' } })
     expect(r.status).toBe(422)
     expect(r.body.data.issues[0].path).toBe('teamName')
   })
@@ -197,8 +202,9 @@ describe('events and roles', () => {
     const overview = await call('GET', `/api/events/${me.body.memberships[0].eventId}`, { cookie: team })
     const mine = overview.body.teams.find((t: { id: number }) => t.id === me.body.memberships[0].teamId)
     const other = overview.body.teams.find((t: { id: number }) => t.id !== me.body.memberships[0].teamId)
-    expect(mine.riders[0].licenceNo).toBeTruthy()
-    expect(other.riders[0].licenceNo).toBeNull()
+    // The demo seeds the first team's rider with licence DEMO-L-0417.
+    expect(mine.riders.map((r: { licenceNo: string }) => r.licenceNo)).toContain('DEMO-L-0417')
+    expect(other.riders.map((r: { licenceNo: string | null }) => r.licenceNo)).toEqual(other.riders.map(() => null))
   })
 
   it('refuses an event whose last day is before its first, naming the field', async () => {

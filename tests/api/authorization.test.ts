@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 import { form, pdf } from '../support/files'
 
 await useTestServer()
@@ -109,14 +109,14 @@ describe('authorization table', () => {
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
     cookies.anonymous = ''
-    const events = await call<{ id: number, name: string }[]>('GET', '/api/events', { cookie: cookies.organiser })
-    eventId = events.body[0]!.id
+    eventId = await demoEventId(cookies.organiser)
     const sheet = await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookies.timekeeper })
-    ids.attempts = sheet.body.attempts[0].id
+    const streamliner = sheet.body.attempts.find((a: { entry: { teamName: string } }) => a.entry.teamName === 'Larkspur Works')
+    ids.attempts = streamliner.id
     ids.unreadyAttempt = sheet.body.attempts.find((a: { entry: { teamName: string } }) => a.entry.teamName !== 'Larkspur Works').id
     // A ratified dossier, from the public record book (other test files may add newer versions).
     ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await call('GET', '/api/record-book')).body[0].dossierUrl)![1])
-    ids.runs = sheet.body.attempts[0].runs[0].id
+    ids.runs = streamliner.runs[0].id
     ids.readings = sheet.body.history[0].id
     // The demo's first entry is the demo team's; its inspection is signed.
     const inspections = await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookies.organiser })

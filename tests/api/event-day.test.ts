@@ -1,6 +1,7 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import { call, demoEmail, DEMO_PASSWORD, login, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
+import { pairSpeed, speedOver, timesOver } from '../support/hand'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -10,14 +11,14 @@ afterAll(() => db.end())
 let eventId = 0
 const cookie = {} as Record<'organiser' | 'timekeeper' | 'team' | 'team2' | 'official', string>
 let setup: any
-const trapId = (label: string) => setup.courses[0].traps.find((t: { label: string }) => t.label === label).id
+const trapId = (label: string) => setup.courses.find((c: { name: string }) => c.name === 'North course').traps.find((t: { label: string }) => t.label === label).id
 const system = (role: string) => setup.systems.find((s: { role: string }) => s.role === role)
 
 beforeAll(async () => {
   for (const who of ['organiser', 'timekeeper', 'official'] as const) cookie[who] = await login(demoEmail(who))
   cookie.team = await login('team@trapline.test')
   cookie.team2 = await login('team2@trapline.test')
-  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  eventId = await demoEventId(cookie.organiser)
   setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
 })
 
@@ -35,20 +36,12 @@ async function runWith(entryId: number, direction: 'out' | 'back', times: Record
 const live = async () => (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body as any[]
 
 describe('the demo attempt', () => {
-  it('computed from the stored readings equals POST /api/calculator for the same times', async () => {
-    const attempt = (await live()).find(a => a.runs.length === 2 && a.entry.distanceLabel === 'Flying mile')
-    expect(attempt.result).not.toBeNull()
-    const calc = await call('POST', '/api/calculator', {
-      body: {
-        profile: 'intl-motorcycle', distanceM: 1609.344, recordKmh: Number(attempt.standingRecordKmh),
-        runs: attempt.runs.map((r: any) => ({ direction: r.direction, startedAt: r.startedAt, elapsedS: r.official.timeS })),
-      },
-    })
-    expect(calc.status).toBe(200)
-    expect(attempt.result.kmh).toBe(calc.body.resultKmh)
-    expect(attempt.result.mph).toBe(calc.body.resultMph)
-    expect(attempt.beatsRecord).toBe(calc.body.beatsRecord)
-    expect(attempt.runs.map((r: any) => r.official.kmh)).toEqual(calc.body.runs.map((r: any) => r.speedKmh))
+  it('computes the demo pair from its stored trap times as a hand computation does', async () => {
+    const sheet = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.timekeeper })).body
+    const attempt = sheet.attempts.find((a: any) => a.entry.machineName === 'Larkspur Fennwick streamliner' && a.runs.length === 2)
+    const elapsed = timesOver(attempt.runs, trapId('M-in'), trapId('M-out'), system('primary').id)
+    expect(attempt.runs.map((r: any) => r.official.kmh)).toEqual(elapsed.map((t: any) => speedOver('1609.344', t).kmh))
+    expect(attempt.result).toMatchObject(pairSpeed('1609.344', elapsed[0], elapsed[1]))
     // Both timing systems agree within their stated tolerance on every run.
     expect(attempt.runs.every((r: any) => r.crossChecks.length === 2 && r.crossChecks.every((c: any) => c.ok))).toBe(true)
     // Wind resolved against the heading: 2.4 m/s from 200° on heading 172° is a head-wind of 2.4·cos 28° = 2.119 m/s.
@@ -118,7 +111,10 @@ describe('the run sheet', () => {
     const course = await call('POST', `/api/events/${eventId}/courses`, { cookie: cookie.organiser, body: { name: 'South course', headingDeg: '10', surface: 'clay', surveyToleranceMm: 10 } })
     expect(course.status).toBe(201)
     const trap = await call('POST', `/api/events/${eventId}/traps`, { cookie: cookie.organiser, body: { courseId: course.body.id, label: 'S1', positionM: '100', elevationM: '1180' } })
-    const runId = (await live())[0].runs[0].id
+    expect(trap.status).toBe(201)
+    const southTraps = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body.courses.find((c: any) => c.id === course.body.id).traps
+    expect(southTraps.map((t: any) => [t.id, t.label])).toEqual([[trap.body.id, 'S1']])
+    const runId = (await live()).find(a => a.entry.machineName === 'Larkspur Fennwick streamliner').runs[0].id
     const r = await call('POST', `/api/runs/${runId}/readings`, { cookie: cookie.timekeeper, body: { trapId: trap.body.id, systemId: system('primary').id, time: '10:00:00.0000' } })
     expect(r.status).toBe(422)
     expect(r.body.data.issues[0].path).toBe('trapId')
@@ -127,7 +123,7 @@ describe('the run sheet', () => {
   it('refuses a measured distance that does not match the survey', async () => {
     const r = await call('POST', `/api/events/${eventId}/distances`, {
       cookie: cookie.organiser,
-      body: { courseId: setup.courses[0].id, label: 'Bad mile', start: 'flying', nominalM: '1609.000', entryTrapId: trapId('M-in'), exitTrapId: trapId('M-out') },
+      body: { courseId: setup.courses.find((c: any) => c.name === 'North course').id, label: 'Bad mile', start: 'flying', nominalM: '1609.000', entryTrapId: trapId('M-in'), exitTrapId: trapId('M-out') },
     })
     expect(r.status).toBe(422)
     expect(r.body.data.issues[0].path).toBe('nominalM')
@@ -211,7 +207,7 @@ describe('CSV import', () => {
 
 describe('entries', () => {
   it('a team enters a new machine and rider; another team\'s machine is refused', async () => {
-    const distanceId = setup.distances[0].id
+    const distanceId = setup.distances.find((d: any) => d.label === 'Flying mile').id
     const ok = await call('POST', `/api/events/${eventId}/entries`, {
       cookie: cookie.team2,
       body: { machine: { name: 'Cinder Wisp Two', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId },

@@ -4,7 +4,7 @@ import { join } from 'node:path'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { startApp } from '../support/processes'
-import { call, demoEmail, login, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
 import { form, pdf, png, sha256 } from '../support/files'
 
 await useTestServer()
@@ -30,9 +30,9 @@ beforeAll(async () => {
   for (const who of ['admin', 'organiser', 'timekeeper'] as const) cookie[who] = await login(demoEmail(who))
   cookie.team = await login('team@trapline.test')
   cookie.team2 = await login('team2@trapline.test')
-  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  eventId = await demoEventId(cookie.organiser)
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
-  courseId = setup.courses[0].id
+  courseId = setup.courses.find((c: { name: string }) => c.name === 'North course').id
   const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body
   runId = live.find((a: any) => a.entry.teamName === 'Larkspur Works').runs[0].id
 })
@@ -84,7 +84,7 @@ describe('uploads', () => {
     const before = await rows()
     const boundary = 'cutoffboundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="kind"\r\n\r\nother-document\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="cut.pdf"\r\nContent-Type: application/pdf\r\n\r\n`
-    const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 10_000_000) } })
+    const req = request(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { 'cookie': cookie.organiser, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': String(head.length + 90_000) } })
     const ended = new Promise<void>((resolve) => {
       req.on('error', () => resolve())
       req.on('response', () => resolve())
@@ -92,7 +92,7 @@ describe('uploads', () => {
     })
     req.write(head)
     req.write(pdf())
-    req.write(Buffer.alloc(200_000, 32))
+    req.write(Buffer.alloc(60_000, 32)) // of the 90 000 bytes announced, within the kind's 100 kB limit
     // The upload reached the server: its staging file is there. Then the client goes away.
     await expect.poll(() => tmpFiles().length, { timeout: 5000 }).toBeGreaterThan(0)
     req.destroy()

@@ -2,7 +2,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { allItems } from '#shared/inspection/evaluate'
 import { electricMotorcycle } from '#shared/inspection/templates'
-import { call, demoEmail, DEMO_PASSWORD, login, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, useTestServer } from '../support/api'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -17,7 +17,7 @@ beforeAll(async () => {
   for (const who of ['organiser', 'scrutineer', 'timekeeper', 'official'] as const) cookie[who] = await login(demoEmail(who))
   cookie.team = await login('team@trapline.test')
   cookie.team2 = await login('team2@trapline.test')
-  eventId = (await call('GET', '/api/events', { cookie: cookie.organiser })).body[0].id
+  eventId = await demoEventId(cookie.organiser)
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.team2 })).body
   const entry = await call('POST', `/api/events/${eventId}/entries`, {
     cookie: cookie.team2,

@@ -1,6 +1,7 @@
 import type { BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, expect, inject, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
+import { demoEventPath } from '../support/api'
 import { launchBrowser, open, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
 
@@ -31,7 +32,7 @@ async function run(page: Page, direction: 'out' | 'back', times: string[], minut
 
 it('runs the demo day from the first reading to the record book', async () => {
   // Readings: two runs of the streamliner, the mile in 14.20 s and 14.10 s, weather at each.
-  let page = await as('timekeeper@trapline.test', '/events/1/run-sheet')
+  let page = await as('timekeeper@trapline.test', await demoEventPath('/run-sheet'))
   const out = await run(page, 'out', ['11:00:00.0000', '11:00:02.6900', '11:00:11.5100', '11:00:14.2000'], 50)
   await run(page, 'back', ['11:40:00.0000', '11:40:02.6700', '11:40:11.4300', '11:40:14.1000'], 10)
   await page.locator(`[data-test="run-${out}"]`).click()
@@ -43,12 +44,12 @@ it('runs the demo day from the first reading to the record book', async () => {
   await page.locator('text=Signed by Tobias Tick').first().waitFor()
 
   // Inspection: the streamliner was cleared by a signed inspection this morning.
-  page = await as('scrutineer@trapline.test', '/events/1/inspections')
+  page = await as('scrutineer@trapline.test', await demoEventPath('/inspections'))
   expect(await page.locator('article', { hasText: 'Larkspur Fennwick streamliner' }).locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
   // Statements from both officials.
   for (const [email, name] of [['official@trapline.test', 'Oswin Oakes'], ['official2@trapline.test', 'Orla Ormsby']]) {
-    page = await as(email!, '/events/1/statements')
+    page = await as(email!, await demoEventPath('/statements'))
     await page.selectOption('#st-attempt', String(attemptId))
     await page.fill('#st-runs', 'both runs of the afternoon pair')
     await page.fill('#st-position', `${name}'s post on the course`)
@@ -60,7 +61,7 @@ it('runs the demo day from the first reading to the record book', async () => {
   }
 
   // Uploads: the team attaches a data log to the first run.
-  page = await as('team@trapline.test', `/events/1/evidence?kind=data-log&target=runId:${out}`)
+  page = await as('team@trapline.test', `${await demoEventPath()}/evidence?kind=data-log&target=runId:${out}`)
   await page.locator('[data-test="file-input"]').setInputFiles({ name: 'afternoon-run.csv', mimeType: 'text/csv', buffer: Buffer.from('t_s,kmh\n0,405.1\n0.1,405.3\n') })
   await expect.poll(() => page.locator('[data-test="upload-afternoon-run.csv"] [data-test="upload-state"]').innerText().catch(() => ''), { timeout: 10_000 }).toContain('Stored')
 

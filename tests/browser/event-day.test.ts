@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
+import { demoEventPath } from '../support/api'
 import { launchBrowser, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
 
@@ -14,8 +15,8 @@ afterAll(async () => {
 })
 
 it('the timekeeper enters two runs on the run sheet; the team sees the return-run target, then the two-way result', async () => {
-  const tk = await signIn(hut, 'timekeeper@trapline.test', '/events/1/run-sheet')
-  const team = await signIn(pits, 'team@trapline.test', '/events/1/live')
+  const tk = await signIn(hut, 'timekeeper@trapline.test', await demoEventPath('/run-sheet'))
+  const team = await signIn(pits, 'team@trapline.test', await demoEventPath('/live'))
   const before = await team.locator('article[data-test^="attempt-"]').count()
 
   // Out: the mile in 14.5000 s (399.555… km/h); the kilometre inside it in 9.0000 s.

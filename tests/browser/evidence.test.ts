@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { pdf, png, sha256 } from '../support/files'
+import { demoEventPath } from '../support/api'
 import { launchBrowser, signIn } from '../support/browser'
 
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
@@ -11,7 +12,7 @@ afterAll(async () => {
 })
 
 it('uploads two files, shows their progress and hashes, and opens them in the viewer', async () => {
-  const page = await signIn(ctx, 'organiser@trapline.test', '/events/1/evidence')
+  const page = await signIn(ctx, 'organiser@trapline.test', await demoEventPath('/evidence'))
   await page.selectOption('#ev-kind', 'other-document')
 
   const certificate = pdf('browser upload')

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
-import { call, login, useTestServer } from '../support/api'
+import { call, demoEventPath, login, useTestServer } from '../support/api'
 import { launchBrowser, signIn } from '../support/browser'
 
 await useTestServer()
@@ -15,14 +15,14 @@ afterAll(async () => {
 it('the scrutineer completes and signs an inspection, and the team sees its entry cleared', async () => {
   // A new entry of the second demo team, through the API, so that this test owns it.
   const team2 = await login('team2@trapline.test')
-  const setup = (await call('GET', '/api/events/1/setup', { cookie: team2 })).body
-  const entry = await call('POST', '/api/events/1/entries', {
+  const setup = (await call('GET', `/api${await demoEventPath('/setup')}`, { cookie: team2 })).body
+  const entry = await call('POST', `/api${await demoEventPath('/entries')}`, {
     cookie: team2,
     body: { machine: { name: 'Cinder Tallow', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
   })
   expect(entry.status).toBe(201)
 
-  const page = await signIn(ctx, 'scrutineer@trapline.test', '/events/1/inspections')
+  const page = await signIn(ctx, 'scrutineer@trapline.test', await demoEventPath('/inspections'))
   await page.locator(`[data-test="entry-${entry.body.id}"] button:has-text("Inspect")`).click()
   await page.waitForURL('**/inspections/*')
   await page.waitForSelector('html[data-hydrated="true"]')
@@ -57,13 +57,13 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await page.click('button:has-text("Sign the inspection")')
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
-  const team = await signIn(ctx, 'team2@trapline.test', '/events/1/entries')
+  const team = await signIn(ctx, 'team2@trapline.test', await demoEventPath('/entries'))
   const card = team.locator('article', { hasText: 'Cinder Tallow' })
   await expect.poll(() => card.locator('[data-test="entry-clearance"]').innerText()).toContain('Cleared to run')
 })
 
 it('an official signs a witness statement, and it is listed with its signature', async () => {
-  const page = await signIn(ctx, 'official@trapline.test', '/events/1/statements')
+  const page = await signIn(ctx, 'official@trapline.test', await demoEventPath('/statements'))
   await page.fill('#st-runs', 'both runs of the pair')
   await page.fill('#st-position', 'at the exit trap of the mile')
   await page.fill('#st-conditions', 'dry, light southerly wind')

@@ -43,6 +43,7 @@ describe('signing in as each demo role', () => {
     const page = await context.newPage()
     await page.goto(`${ctx.baseUrl}/home`)
     await page.waitForURL('**/login?next=/home')
+    expect(new URL(page.url()).searchParams.get('next')).toBe('/home')
     await page.close()
   })
 })

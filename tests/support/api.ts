@@ -61,3 +61,17 @@ export async function mailTo(address: string, subjectHas = ''): Promise<CaughtMa
 export const linkToken = (text: string) => /set-password\?token=([\w-]+)/.exec(text)?.[1] ?? ''
 
 export const unique = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}@example.test`
+
+/** The demo event, found by its name (never by its position or id). */
+export const DEMO_EVENT_NAME = 'Tamsel Flat Electric Record Days'
+export async function demoEventId(cookie: string): Promise<number> {
+  const events = (await call('GET', '/api/events', { cookie })).body as { id: number, name: string }[]
+  return events.find(e => e.name === DEMO_EVENT_NAME)!.id
+}
+
+let demoEventIdCache: Promise<number> | undefined
+/** A page or route of the demo event: `await demoEventPath('/run-sheet')` is `/events/<its id>/run-sheet`. */
+export async function demoEventPath(tail = '') {
+  demoEventIdCache ??= login(demoEmail('organiser')).then(demoEventId)
+  return `/events/${await demoEventIdCache}${tail}`
+}
