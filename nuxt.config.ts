@@ -28,6 +28,8 @@ export default defineNuxtConfig({
     siteUrl: 'http://localhost:3000',
     public: { inboxUrl: '' },
     seedDemo: false,
+    /** The demo's seeding day (YYYY-MM-DD); empty is today. Tests set it to check the demo on other days. */
+    demoToday: '',
     /** Folder of evidence files and upload staging (local driver). */
     dataDir: '.data',
     storage: {

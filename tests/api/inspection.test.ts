@@ -145,8 +145,14 @@ describe('witness statements', () => {
   })
 
   it('a signature whose stored content was altered behind the app no longer matches its hash', async () => {
+    // A statement of this test's own, so that no other test's record is touched.
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.official })).body
+    const attempt = attempts.find((a: any) => a.entry.teamName === 'Larkspur Works')
+    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body: { attemptId: attempt.id, runsSeen: 'run 1', position: 'timing hut', conditions: 'calm', irregularities: '', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
+    expect(created.status).toBe(201)
     const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.official })).body
-    const sigId = list.at(-1).signatureId
+    const sigId = list.find((s: any) => s.id === created.body.id).signatureId
+    expect((await call('GET', `/api/signatures/${sigId}`, { cookie: cookie.official })).body.storedContentMatches).toBe(true)
     // Simulate tampering straight in the database, past the append-only trigger.
     await db.query('alter table signatures disable trigger signatures_append_only')
     try {

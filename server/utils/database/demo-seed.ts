@@ -11,7 +11,8 @@ let seeding: Promise<unknown> = Promise.resolve()
 export const demoSeeded = () => seeding
 
 export function startDemoSeed() {
-  seeding = seedDemo(useDb(), hashPassword)
+  const today = String(useRuntimeConfig().demoToday || '') || undefined
+  seeding = seedDemo(useDb(), hashPassword, today)
     .then(async (created) => {
       if (created) {
         await seedDemoInspections()
