@@ -47,15 +47,16 @@ export async function login(email: string, password = DEMO_PASSWORD): Promise<st
 
 interface CaughtMail { id: string, to: string, subject: string, text: string }
 
-/** The newest message the mail catcher holds for an address, waiting briefly for it. */
+/** The newest message the mail catcher holds for an address, asking again until it is there (15 s at most). */
 export async function mailTo(address: string, subjectHas = ''): Promise<CaughtMail> {
-  for (let i = 0; i < 50; i++) {
+  const until = Date.now() + 15_000
+  while (Date.now() < until) {
     const list = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as CaughtMail[]
     const hit = list.find(m => m.to.includes(address) && m.subject.includes(subjectHas))
     if (hit) return hit
-    await new Promise(r => setTimeout(r, 100))
+    await new Promise(r => setTimeout(r, 50))
   }
-  throw new Error(`no mail to ${address} with "${subjectHas}"`)
+  throw new Error(`no mail to ${address} with "${subjectHas}" within 15 s`)
 }
 
 export const linkToken = (text: string) => /set-password\?token=([\w-]+)/.exec(text)?.[1] ?? ''
