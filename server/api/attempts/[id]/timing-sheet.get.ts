@@ -1,7 +1,10 @@
 // The printable timing sheet: its canonical content now, and each signature with whether the
 // content it signed still hashes to what was stored.
 export default defineEventHandler(async (event) => {
-  const { recordId, eventId } = await requireRoleOn(event, 'attempt', 'any')
+  const access = await requireRoleOn(event, 'attempt', 'any')
+  const { recordId, eventId } = access
+  // A team reads its own attempts' timing sheets, as it reads their signatures and dossiers.
+  await assertOwnAttempt(access, recordId)
   const day = await loadEventDay(eventId, { history: true })
   const content = timingSheetContent(day, recordId)
   const nowHash = sha256(canonicalJson(content))
