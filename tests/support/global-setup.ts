@@ -1,7 +1,7 @@
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
-import { root, startApp, startCatcher, unexpectedErrors, type Started } from './processes'
+import { expectedServerErrors, root, startApp, startCatcher, unexpectedErrors, type Started } from './processes'
 
 // Starts the mail catcher and the built app once for all end-to-end tests, on ports checked when
 // they are bound, with folders of this run's own (scripts/test.sh gives each run one), against the
@@ -56,8 +56,8 @@ export default async function setup(project: TestProject) {
       process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM')
     }
     catch { /* the same catcher, already stopped */ }
-    // An error the server logged and no test asked for fails the run.
-    const errors = unexpectedErrors(app.log())
+    // An error the server logged and no test said it provokes fails the run.
+    const errors = unexpectedErrors(app.log(), expectedServerErrors(runDir))
     if (errors.length) {
       console.log(`--- server log ---\n${app.log()}`)
       throw new Error(`the server logged ${errors.length} unexpected error line(s), first: ${errors[0]}`)

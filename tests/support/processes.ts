@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createServer } from 'node:net'
+import { appendFileSync, existsSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 
 export const root = resolve(import.meta.dirname, '../..')
@@ -89,6 +90,22 @@ export async function startCatcher(mailDir: string, smtpPort?: number) {
   return { ...catcher, smtpPort: smtp, inboxUrl: `http://127.0.0.1:${catcher.port}` }
 }
 
-/** Lines of a server log that show an error the server did not expect. */
-export const unexpectedErrors = (log: string) =>
-  log.split('\n').filter(l => /\[nitro\] \[unhandled error\]|^\s*(Type|Reference|Range|Syntax)?Error\b/.test(l))
+/** Lines of a server log that show an error, less those a test said it provokes (see expectServerError). */
+export function unexpectedErrors(log: string, expected: RegExp[] = []) {
+  return log
+    .split('\n')
+    .filter(l => /\[nitro\] \[unhandled error\]|^\s*(Type|Reference|Range|Syntax)?Error\b/.test(l))
+    .filter(l => !expected.some(e => e.test(l)))
+}
+
+/**
+ * A test that provokes a server error on purpose says so here (a pattern of the logged line), so
+ * that the run does not fail on it; every other logged error fails the run.
+ */
+export function expectServerError(runDir: string, pattern: RegExp) {
+  appendFileSync(resolve(runDir, 'expected-errors'), `${pattern.source}\n`)
+}
+export const expectedServerErrors = (runDir: string) => {
+  const file = resolve(runDir, 'expected-errors')
+  return existsSync(file) ? readFileSync(file, 'utf8').split('\n').filter(Boolean).map(p => new RegExp(p)) : []
+}
