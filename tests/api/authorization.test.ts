@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, DEMO_PASSWORD, demoEmail, demoEventId, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 import { form, pdf } from '../support/files'
 
 await useTestServer()
@@ -115,7 +115,7 @@ describe('authorization table', () => {
     ids.attempts = streamliner.id
     ids.unreadyAttempt = sheet.body.attempts.find((a: { entry: { teamName: string } }) => a.entry.teamName !== 'Larkspur Works').id
     // A ratified dossier, from the public record book (other test files may add newer versions).
-    ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await call('GET', '/api/record-book')).body[0].dossierUrl)![1])
+    ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await demoMileRecord()).dossierUrl)![1])
     ids.runs = streamliner.runs[0].id
     ids.readings = sheet.body.history[0].id
     // The demo's first entry is the demo team's; its inspection is signed.
