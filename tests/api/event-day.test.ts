@@ -1,4 +1,5 @@
 import pg from 'pg'
+import { addDays } from '#shared/rules/zoned'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
 import { pairSpeed, speedOver, timesOver } from '../support/hand'
@@ -210,7 +211,7 @@ describe('entries', () => {
     const distanceId = setup.distances.find((d: any) => d.label === 'Flying mile').id
     const ok = await call('POST', `/api/events/${eventId}/entries`, {
       cookie: cookie.team2,
-      body: { machine: { name: 'Cinder Wisp Two', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId },
+      body: { machine: { name: 'Cinder Wisp Two', power: 'electric', declaredMassKg: '199.5', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0983', licenceExpires: '2099-08-12' }, className: 'Electric, unstreamlined', distanceId },
     })
     expect(ok.status).toBe(201)
     const other = await call('POST', `/api/events/${eventId}/entries`, { cookie: cookie.team, body: { machineId: ok.body.machineId, riderId: ok.body.riderId, className: 'x', distanceId } })
@@ -221,11 +222,18 @@ describe('entries', () => {
 
 describe('event details', () => {
   it('the organiser changes the venue; a last day before the first is refused naming the field', async () => {
-    const ok = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue: 'Tamsel Flat dry lake (fictional), north shore' } })
-    expect(ok.status).toBe(200)
-    expect(ok.body.venue).toBe('Tamsel Flat dry lake (fictional), north shore')
-    const bad = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { endsOn: '2026-08-01' } })
-    expect(bad.status).toBe(422)
-    expect(bad.body.data.issues[0].path).toBe('endsOn')
+    const { venue, startsOn } = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body.event
+    try {
+      const ok = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue: 'Tamsel Flat dry lake (fictional), north shore' } })
+      expect(ok.status).toBe(200)
+      expect(ok.body.venue).toBe('Tamsel Flat dry lake (fictional), north shore')
+      const bad = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { endsOn: addDays(startsOn, -1) } })
+      expect(bad.status).toBe(422)
+      expect(bad.body.data.issues[0].path).toBe('endsOn')
+    }
+    finally {
+      // The demo event is shared by every test: its venue goes back as it was.
+      await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue } })
+    }
   })
 })

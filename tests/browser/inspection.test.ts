@@ -18,7 +18,7 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   const setup = (await call('GET', `/api${await demoEventPath('/setup')}`, { cookie: team2 })).body
   const entry = await call('POST', `/api${await demoEventPath('/entries')}`, {
     cookie: team2,
-    body: { machine: { name: 'Cinder Tallow', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2027-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
+    body: { machine: { name: 'Cinder Tallow', power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0990', licenceExpires: '2099-08-12' }, className: 'Electric, unstreamlined', distanceId: setup.distances[1].id },
   })
   expect(entry.status).toBe(201)
 
