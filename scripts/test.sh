@@ -61,5 +61,12 @@ say "type-checked in $((SECONDS - check_start)) s"
 flock -u "$BUILD_LOCK"
 
 say "running the tests…"
-node node_modules/vitest/vitest.mjs run "$@"
+status=0
+node node_modules/vitest/vitest.mjs run "$@" || status=$?
+if [ -s "$RUN_DIR/unexpected-server-errors" ]; then
+  say "the server logged errors no test expected:"
+  cat "$RUN_DIR/unexpected-server-errors" >&2
+  status=1
+fi
 say "npm test took $((SECONDS - started)) s"
+exit "$status"

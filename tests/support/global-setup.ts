@@ -60,6 +60,8 @@ export default async function setup(project: TestProject) {
     const errors = unexpectedErrors(app.log(), expectedServerErrors(runDir))
     if (errors.length) {
       console.log(`--- server log ---\n${app.log()}`)
+      // vitest does not fail a run on a teardown error: scripts/test.sh fails it on this file.
+      writeFileSync(resolve(runDir, 'unexpected-server-errors'), `${errors.join('\n')}\n`)
       throw new Error(`the server logged ${errors.length} unexpected error line(s), first: ${errors[0]}`)
     }
   }
