@@ -1,26 +1,12 @@
 import pg from 'pg'
 import { afterAll, describe, expect, inject, it } from 'vitest'
-import { call, DEMO_PASSWORD, demoEmail, demoEventId, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, invitedPerson, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 
 await useTestServer()
 
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
 await db.connect()
 afterAll(() => db.end())
-
-/** A fresh person invited to the demo event by its organiser, with a password set through the link. */
-async function invitedPerson(role = 'official', password = 'first-password-1') {
-  const organiser = await login(demoEmail('organiser'))
-  const eventId = await demoEventId(organiser)
-  const email = unique(role)
-  const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email, name: 'Test Person', role } })
-  expect(r.status).toBe(201)
-  const mail = await mailTo(email, 'invited')
-  const token = linkToken(mail.text)
-  const set = await call('POST', '/api/auth/token', { body: { token, password } })
-  expect(set.status).toBe(200)
-  return { email, password, token }
-}
 
 describe('sign-in', () => {
   it('signs in with a sealed cookie: HttpOnly, SameSite=Lax', async () => {

@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, demoMileRecord, invitedPerson, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 import { form, pdf } from '../support/files'
 
 await useTestServer()
@@ -122,9 +122,11 @@ describe('authorization table', () => {
     const inspections = await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookies.organiser })
     ids.inspections = inspections.body.find((e: { team: string }) => e.team === 'Larkspur Works').inspectionId
     ids.signatures = (await call('GET', `/api/inspections/${ids.inspections}`, { cookie: cookies.organiser })).body.signature.id
+    // A statement of an official of this test's own: a demo official already has one on this attempt.
+    const witness = await invitedPerson('official')
     const statement = await call('POST', `/api/events/${eventId}/statements`, {
-      cookie: cookies.official,
-      body: { attemptId: ids.attempts, runsSeen: 'both', position: 'timing hut', conditions: 'calm', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' },
+      cookie: witness.cookie,
+      body: { attemptId: ids.attempts, runsSeen: 'both', position: 'timing hut', conditions: 'calm', password: witness.password, typedName: witness.name },
     })
     expect(statement.status).toBe(201)
     ids.statements = statement.body.id

@@ -2,7 +2,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { allItems } from '#shared/inspection/evaluate'
 import { electricMotorcycle } from '#shared/inspection/templates'
-import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, invitedPerson, login, useTestServer } from '../support/api'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -132,11 +132,12 @@ describe('checklists', () => {
 
 describe('witness statements', () => {
   it('an official signs a statement; the team reads it; it is withdrawn only by a new signed statement', async () => {
-    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.official })).body
+    const official = await invitedPerson('official')
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: official.cookie })).body
     const attempt = attempts.find((a: any) => a.entry.teamName === 'Larkspur Works')
-    const body = { attemptId: attempt.id, runsSeen: 'runs 1 and 2', position: 'beside the mile exit trap', conditions: 'light wind from the south, dry surface', irregularities: '', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' }
-    expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body: { ...body, password: 'wrong' } })).status).toBe(422)
-    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body })
+    const body = { attemptId: attempt.id, runsSeen: 'runs 1 and 2', position: 'beside the mile exit trap', conditions: 'light wind from the south, dry surface', irregularities: '', password: official.password, typedName: official.name }
+    expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, password: 'wrong' } })).status).toBe(422)
+    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body })
     expect(created.status).toBe(201)
     const forTeam = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.team })).body
     expect(forTeam.some((s: any) => s.id === created.body.id)).toBe(true)
@@ -144,19 +145,41 @@ describe('witness statements', () => {
     expect(forOtherTeam.some((s: any) => s.id === created.body.id)).toBe(false)
 
     await expect(db.query(`update witness_statements set conditions = 'x' where id = $1`, [created.body.id])).rejects.toThrow(/immutable/)
-    const withdrawn = await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: cookie.official, body: { reason: 'wrote the wrong attempt', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
+    // One statement per official and attempt while it stands: a second is refused, naming the first.
+    const second = await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, position: 'at the timing hut' } })
+    expect(second.status).toBe(409)
+    expect(second.body.statusMessage).toContain(`#${created.body.id}`)
+    const withdrawn = await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: official.cookie, body: { reason: 'wrote the wrong attempt', password: official.password, typedName: official.name } })
     expect(withdrawn.status).toBe(201)
     expect(withdrawn.body.withdrawsId).toBe(created.body.id)
-    expect((await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: cookie.official, body: { reason: 'again', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
+    expect((await call('POST', `/api/statements/${created.body.id}/withdrawals`, { cookie: official.cookie, body: { reason: 'again', password: official.password, typedName: official.name } })).status).toBe(409)
+    // Withdrawn, the first no longer stands: the official may write another.
+    expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, position: 'at the timing hut' } })).status).toBe(201)
     const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.team })).body
     expect(list.find((s: any) => s.id === created.body.id).withdrawnBy).toMatchObject({ id: withdrawn.body.id, reason: 'wrote the wrong attempt' })
   })
 
+  it('an official who also holds a role in the attempt\'s team cannot witness it', async () => {
+    // Common practice: a witness is independent of the team whose attempt it witnesses.
+    const official = await invitedPerson('official')
+    const asTeam = await call('POST', `/api/events/${eventId}/people`, { cookie: cookie.organiser, body: { email: official.email, name: official.name, role: 'team', teamName: 'Larkspur Works' } })
+    expect(asTeam.status).toBe(201)
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.organiser })).body
+    const larkspur = attempts.find((a: any) => a.entry.teamName === 'Larkspur Works')
+    const cinder = attempts.find((a: any) => a.entry.teamName === 'Cinder Hollow Engineering')
+    const body = { runsSeen: 'run 1', position: 'timing hut', conditions: 'calm', irregularities: '', password: official.password, typedName: official.name }
+    const own = await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, attemptId: larkspur.id } })
+    expect(own.status).toBe(409)
+    expect(own.body.statusMessage).toContain('cannot witness it')
+    expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, attemptId: cinder.id } })).status).toBe(201)
+  })
+
   it('a signature whose stored content was altered behind the app no longer matches its hash', async () => {
-    // A statement of this test's own, so that no other test's record is touched.
-    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.official })).body
+    // A statement of this test's own, by an official of its own, so that no other test's record is touched.
+    const official = await invitedPerson('official')
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: official.cookie })).body
     const attempt = attempts.find((a: any) => a.entry.teamName === 'Larkspur Works')
-    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: cookie.official, body: { attemptId: attempt.id, runsSeen: 'run 1', position: 'timing hut', conditions: 'calm', irregularities: '', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
+    const created = await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { attemptId: attempt.id, runsSeen: 'run 1', position: 'timing hut', conditions: 'calm', irregularities: '', password: official.password, typedName: official.name } })
     expect(created.status).toBe(201)
     const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.official })).body
     const sigId = list.find((s: any) => s.id === created.body.id).signatureId

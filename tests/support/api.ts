@@ -82,3 +82,19 @@ export async function demoMileRecord() {
   const book = (await call('GET', '/api/record-book')).body as { class: string, distance: string, dossierUrl: string }[]
   return book.find(r => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')!
 }
+
+/**
+ * A fresh person invited to the demo event by its organiser, with a password set through the link:
+ * a record of the test's own (an official's statements, say, touch no other test's).
+ */
+export async function invitedPerson(role = 'official', password = 'first-password-1', name = 'Test Person') {
+  const organiser = await login(demoEmail('organiser'))
+  const eventId = await demoEventId(organiser)
+  const email = unique(role)
+  const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email, name, role } })
+  if (r.status !== 201) throw new Error(`invitation refused: ${JSON.stringify(r.body)}`)
+  const token = linkToken((await mailTo(email, 'invited')).text)
+  const set = await call('POST', '/api/auth/token', { body: { token, password } })
+  if (set.status !== 200) throw new Error(`password not set: ${JSON.stringify(set.body)}`)
+  return { email, password, token, name, cookie: await login(email, password) }
+}

@@ -40,6 +40,8 @@ type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
 function recordItems({ at, live, counted, clearance, statements, attempt }: AttemptFile): ReadinessItem[] {
   const needed = attempt.profile.witnessStatements.value
+  // Witnesses are people: a statement counts once per official.
+  const witnesses = new Set(statements.map(s => s.authorId)).size
   const failing = live.findings.filter(f => f.severity === 'fail')
   const pairDetail = !live.result
     ? `${counted.length} complete run(s) so far`
@@ -68,10 +70,10 @@ function recordItems({ at, live, counted, clearance, statements, attempt }: Atte
     },
     {
       key: 'statements',
-      label: `${needed} signed witness statement(s)`,
+      label: `Signed witness statements of ${needed} distinct official(s)`,
       fix: `${at}/statements`,
-      met: statements.length >= needed,
-      detail: `${statements.length} signed, not withdrawn`,
+      met: witnesses >= needed,
+      detail: `${witnesses} official(s) with a signed statement that stands`,
     },
   ]
 }

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray } from 'drizzle-orm'
+import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import type { StatementInput, WithdrawalInput } from '#shared/schemas/inspection'
 
 type StatementRow = typeof tables.statements.$inferSelect
@@ -22,23 +22,47 @@ export async function createStatement(
   user: { id: number, name: string },
 ) {
   const [attempt] = await useDb()
-    .select({ id: tables.attempts.id })
+    .select({ id: tables.attempts.id, teamId: tables.entries.teamId })
     .from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
   if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
   await assertPassword(user.id, input.password)
-  return signStatement(
-    eventId,
-    {
-      attemptId: input.attemptId,
-      runsSeen: input.runsSeen,
-      position: input.position,
-      conditions: input.conditions,
-      irregularities: input.irregularities,
-    },
-    user,
-    input,
-  )
+  const body = {
+    attemptId: input.attemptId,
+    runsSeen: input.runsSeen,
+    position: input.position,
+    conditions: input.conditions,
+    irregularities: input.irregularities,
+  }
+  return signStatement(eventId, body, user, input, tx => assertMayWitness(tx, eventId, attempt, user.id))
+}
+
+/**
+ * A witness is independent of the team and counts once: an official who holds a role in the
+ * attempt's team may not witness it, and a second statement on the same attempt is refused while
+ * the first stands (withdraw it first). Checked under a lock on the attempt's statements.
+ */
+async function assertMayWitness(tx: Tx, eventId: number, attempt: { id: number, teamId: number }, userId: number) {
+  await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`statements:${attempt.id}`}, 0))`)
+  const inTeam = await tx
+    .select({ id: tables.memberships.id })
+    .from(tables.memberships)
+    .where(and(
+      eq(tables.memberships.eventId, eventId),
+      eq(tables.memberships.userId, userId),
+      eq(tables.memberships.teamId, attempt.teamId),
+    ))
+  if (inTeam.length) throw conflict('An official who holds a role in the attempt\'s team cannot witness it')
+  const mine = await tx
+    .select({ id: tables.statements.id, withdrawsId: tables.statements.withdrawsId })
+    .from(tables.statements)
+    .where(and(eq(tables.statements.attemptId, attempt.id), eq(tables.statements.authorId, userId)))
+  const withdrawn = new Set(mine.map(m => m.withdrawsId).filter(Boolean))
+  const standing = mine.find(m => !m.withdrawsId && !withdrawn.has(m.id))
+  if (standing) {
+    throw conflict(`You already have a signed statement on this attempt (#${standing.id}); withdraw it to write another`)
+  }
 }
 
 async function signStatement(
@@ -49,8 +73,10 @@ async function signStatement(
   },
   user: { id: number, name: string },
   sign: { typedName: string, drawingPng?: string },
+  guard?: (tx: Tx) => Promise<void>,
 ) {
   return useDb().transaction(async (tx) => {
+    await guard?.(tx)
     const [row] = await tx
       .insert(tables.statements)
       .values({ eventId, authorId: user.id, ...body })
