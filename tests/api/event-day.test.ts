@@ -237,3 +237,52 @@ describe('event details', () => {
     }
   })
 })
+
+describe('what was signed stays as signed', () => {
+  const streamliner = async () => (await live()).find(a => a.entry.machineName === 'Larkspur Fennwick streamliner' && a.sheet.locked)
+
+  it('refuses to abort a run of a signed sheet, or add weather to it, naming the signature (409)', async () => {
+    const attempt = await streamliner()
+    const signatureId = attempt.sheet.latest.id
+    const runId = attempt.runs[0].id
+    const aborted = await call('POST', `/api/runs/${runId}/abort`, { cookie: cookie.timekeeper, body: { reason: 'a late second thought' } })
+    expect(aborted.status).toBe(409)
+    expect(aborted.body.statusMessage).toContain(`signature #${signatureId}`)
+    const weather = await call('POST', `/api/runs/${runId}/weather`, { cookie: cookie.timekeeper, body: { windSpeedMs: '9.00', windFromDeg: '10.00' } })
+    expect(weather.status).toBe(409)
+    const after = (await live()).find(a => a.id === attempt.id)
+    expect(after.runs.map((r: any) => [r.status, r.weather?.windSpeedMs])).toEqual(attempt.runs.map((r: any) => [r.status, r.weather?.windSpeedMs]))
+  })
+
+  it('refuses to rename the event or change its time zone while a sheet is signed; the venue may change', async () => {
+    const { name, timeZone, venue } = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body.event
+    const renamed = await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { name: `${name} (renamed)` } })
+    expect(renamed.status).toBe(409)
+    expect(renamed.body.statusMessage).toContain('signed timing sheets')
+    expect((await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { timeZone: 'UTC' } })).status).toBe(timeZone === 'UTC' ? 200 : 409)
+    try {
+      expect((await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue: `${venue}, west shore` } })).status).toBe(200)
+    }
+    finally {
+      await call('PATCH', `/api/events/${eventId}`, { cookie: cookie.organiser, body: { venue } })
+    }
+  })
+
+  it('finds a sheet changed behind the app since it was signed, and readiness refuses the dossier', async () => {
+    const attempt = await streamliner()
+    const ready = async () => (await call('GET', `/api/attempts/${attempt.id}/readiness`, { cookie: cookie.team })).body
+    expect((await ready()).items.find((i: any) => i.key === 'timing-sheet').met).toBe(true)
+    const [{ name }] = (await db.query('select name from events where id = $1', [eventId])).rows
+    try {
+      // Straight in the database, past the app's refusal: the name is part of the signed content.
+      await db.query('update events set name = $1 where id = $2', [`${name} (altered)`, eventId])
+      const item = (await ready()).items.find((i: any) => i.key === 'timing-sheet')
+      expect(item.met).toBe(false)
+      expect(item.detail).toContain('differs from what was signed')
+      expect((await call('POST', `/api/attempts/${attempt.id}/dossiers`, { cookie: cookie.team })).status).toBe(422)
+    }
+    finally {
+      await db.query('update events set name = $1 where id = $2', [name, eventId])
+    }
+  })
+})

@@ -38,7 +38,10 @@ async function loadAttemptFile(eventId: number, attemptId: number) {
 type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
-function recordItems({ at, live, counted, clearance, statements, attempt }: AttemptFile): ReadinessItem[] {
+function recordItems({ at, day, live, counted, clearance, statements, attempt }: AttemptFile): ReadinessItem[] {
+  // The dossier is issued on figures somebody signed: the sheet's content now must hash as signed.
+  const sheetUnchanged = live.sheet.locked
+    && sha256(canonicalJson(timingSheetContent(day, attempt.id))) === live.sheet.latest?.sha256
   const needed = attempt.profile.witnessStatements.value
   // Witnesses are people: a statement counts once per official.
   const witnesses = new Set(statements.map(s => s.authorId)).size
@@ -56,10 +59,14 @@ function recordItems({ at, live, counted, clearance, statements, attempt }: Atte
     },
     {
       key: 'timing-sheet',
-      label: 'The signed timing sheet',
+      label: 'The signed timing sheet, unchanged since it was signed',
       fix: `${at}/run-sheet`,
-      met: live.sheet.locked,
-      detail: live.sheet.locked ? `signed by ${live.sheet.latest?.typedName}` : 'not signed',
+      met: live.sheet.locked && sheetUnchanged,
+      detail: !live.sheet.locked
+        ? 'not signed'
+        : sheetUnchanged
+          ? `signed by ${live.sheet.latest?.typedName}`
+          : 'what the timing sheet holds now differs from what was signed: reopen it and sign it again',
     },
     {
       key: 'inspection',

@@ -54,11 +54,34 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
 /** Locks the attempt row so that signing and entering readings never interleave. */
 export async function lockAttempt(tx: Tx, attemptId: number) {
   await tx.execute(sql`select id from attempts where id = ${attemptId} for update`)
-  const { rows } = await tx.execute<{ kind: string }>(sql`
-    select kind from signatures
+  const { rows } = await tx.execute<{ id: number, kind: string }>(sql`
+    select id, kind from signatures
     where subject_id = ${attemptId} and kind in ('timing-sheet', 'timing-sheet-reopened')
     order by id desc limit 1`)
-  return { signed: rows[0]?.kind === 'timing-sheet' }
+  const signed = rows[0]?.kind === 'timing-sheet'
+  return { signed, signatureId: signed ? Number(rows[0]!.id) : null }
+}
+
+/** 409 when the attempt's timing sheet is signed: what it covers changes only after a signed reopening. */
+export async function refuseIfSheetSigned(tx: Tx, attemptId: number, what: string) {
+  const { signed, signatureId } = await lockAttempt(tx, attemptId)
+  if (!signed) return
+  throw conflict(
+    `The timing sheet of attempt #${attemptId} is signed (signature #${signatureId}); `
+    + `reopen it with a reason on the run sheet before ${what}`,
+    { signatureId, attemptId },
+  )
+}
+
+/** The signed timing sheets of an event: attempts whose latest sheet act is a signature. */
+export async function signedSheetsOf(eventId: number) {
+  const { rows } = await useDb().execute<{ subject_id: number, id: number, kind: string }>(sql`
+    select distinct on (subject_id) subject_id, id, kind from signatures
+    where event_id = ${eventId} and kind in ('timing-sheet', 'timing-sheet-reopened')
+    order by subject_id, id desc`)
+  return rows
+    .filter(r => r.kind === 'timing-sheet')
+    .map(r => ({ attemptId: Number(r.subject_id), signatureId: Number(r.id) }))
 }
 
 /** Signs (or reopens) the timing sheet of an attempt: who, when, typed name, SHA-256 of the content. */

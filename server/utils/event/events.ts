@@ -1,7 +1,7 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm'
 import type { User } from '#auth-utils'
 import { copyProfile, profiles } from '#shared/rules/profiles'
-import type { CreateEventInput } from '#shared/schemas/events'
+import type { CreateEventInput, UpdateEventInput } from '#shared/schemas/events'
 import type { EventAccess } from '../auth/auth'
 
 export async function membershipsOf(userId: number) {
@@ -130,4 +130,28 @@ export async function peopleAt(eventId: number) {
     .leftJoin(teams, eq(teams.id, memberships.teamId))
     .where(eq(memberships.eventId, eventId))
     .orderBy(asc(memberships.role), asc(users.name))
+}
+
+/**
+ * Changes an event's details. The name and time zone are part of every timing sheet: while one is
+ * signed they are not changed (409 naming the signature; reopen the sheet first).
+ */
+export async function updateEvent(eventId: number, changes: UpdateEventInput) {
+  const [current] = await useDb().select().from(tables.events).where(eq(tables.events.id, eventId))
+  const startsOn = changes.startsOn ?? current!.startsOn
+  const endsOn = changes.endsOn ?? current!.endsOn
+  if (endsOn < startsOn) throw fieldInvalid('endsOn', 'must not be before the first day')
+  const feedsSheets = (changes.name !== undefined && changes.name !== current!.name)
+    || (changes.timeZone !== undefined && changes.timeZone !== current!.timeZone)
+  if (feedsSheets) {
+    const signed = await signedSheetsOf(eventId)
+    if (signed.length) {
+      const list = signed.map(x => `attempt #${x.attemptId} (signature #${x.signatureId})`).join(', ')
+      const message = `The event's name and time zone are on signed timing sheets: ${list}; reopen them first`
+      throw conflict(message, { signed })
+    }
+  }
+  if (!Object.keys(changes).length) return current!
+  const [row] = await useDb().update(tables.events).set(changes).where(eq(tables.events.id, eventId)).returning()
+  return row!
 }

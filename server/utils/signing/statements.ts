@@ -61,7 +61,9 @@ async function assertMayWitness(tx: Tx, eventId: number, attempt: { id: number, 
   const withdrawn = new Set(mine.map(m => m.withdrawsId).filter(Boolean))
   const standing = mine.find(m => !m.withdrawsId && !withdrawn.has(m.id))
   if (standing) {
-    throw conflict(`You already have a signed statement on this attempt (#${standing.id}); withdraw it to write another`)
+    const message = `You already have a signed statement on this attempt (#${standing.id}); `
+      + 'withdraw it to write another'
+    throw conflict(message)
   }
 }
 
