@@ -53,6 +53,9 @@ export interface AttemptResult {
   window: WindowState
   /** The smallest published figure that counts as a record, in the record's unit. */
   required: { value: Q, text: string, unit: string } | null
+  /** True when no finding fails the profile: the one answer to "does this pair count". */
+  valid: boolean
+  /** True only for a valid result that meets the profile's improvement rule. */
   beatsRecord: boolean | null
   /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
   returnTargetS: Q | null

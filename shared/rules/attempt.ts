@@ -28,20 +28,25 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
   const window = evaluateWindow(profile, runs, input.timeZone ?? 'UTC')
   const pair = pairResult(profile, input.distanceM, figures)
   const record = input.record ? compareWithRecord({ ...input, record: input.record }, figures[0]!, pair.result) : null
+  const findings = [
+    ...pairFindings(profile, runs),
+    ...windowFindings(profile, window),
+    ...pair.findings,
+    ...(record?.findings ?? []),
+  ]
+  // A pair that fails its profile is not a record, whatever its speed.
+  const valid = !findings.some(f => f.severity === 'fail' && f.code !== 'record.not-beaten'
+    && f.code !== 'record.margin-not-met')
   return {
     runs: figures,
     meanTimeS: pair.meanTimeS,
     result: pair.result,
     window,
     required: record?.required ?? null,
-    beatsRecord: record?.beatsRecord ?? null,
+    valid,
+    beatsRecord: record?.beatsRecord == null ? null : record.beatsRecord && valid,
     returnTargetS: record?.returnTargetS ?? null,
-    findings: [
-      ...pairFindings(profile, runs),
-      ...windowFindings(profile, window),
-      ...pair.findings,
-      ...(record?.findings ?? []),
-    ],
+    findings,
   }
 }
 

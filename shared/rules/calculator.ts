@@ -49,6 +49,7 @@ export function calculate(req: CalculatorRequestInput): CalculatorResponse {
       deadline: iso(r.window.deadlineMs),
       opens: iso(r.window.opensMs),
     },
+    valid: r.valid,
     beatsRecord: r.beatsRecord,
     required: r.required ? { figure: r.required.text, unit: r.required.unit } : null,
     returnTargetS: r.returnTargetS ? toFixed(r.returnTargetS, timeDecimals) : null,

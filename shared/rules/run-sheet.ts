@@ -1,4 +1,4 @@
-import { abs, cmp, div, fromDecimal, q, sub, toFixed, type Q } from './exact'
+import { abs, add, cmp, div, fromDecimal, q, sub, toFixed, type Q } from './exact'
 import type { Finding } from './findings'
 import { checkWind, windComponents, type WindComponents } from './checks'
 import type { RuleProfile } from './profile'
@@ -151,9 +151,13 @@ function systemDistances(input: RunInput, system: SystemDef, at: Map<number, big
   return distances
 }
 
-/** Primary against backup over each distance both timed, within the primary's stated tolerance. */
+/**
+ * Primary against backup over each distance both timed: they agree within the two systems' stated
+ * tolerances added together (each may be off by its own; common practice of comparing two instruments).
+ */
 function crossCheck(input: RunInput, results: SystemResult[]) {
   const primarySystem = input.systems.find(s => s.role === 'primary')
+  const backupSystem = input.systems.find(s => s.role === 'backup')
   const primary = results.find(s => s.role === 'primary')
   const backup = results.find(s => s.role === 'backup')
   const crossChecks: RunComputation['crossChecks'] = []
@@ -161,8 +165,8 @@ function crossCheck(input: RunInput, results: SystemResult[]) {
   for (const d of input.distances) {
     const p = primary?.distances.find(x => x.distanceId === d.id)
     const b = backup?.distances.find(x => x.distanceId === d.id)
-    if (p && b && primarySystem) {
-      const tolerance = fromDecimal(primarySystem.toleranceS)
+    if (p && b && primarySystem && backupSystem) {
+      const tolerance = add(fromDecimal(primarySystem.toleranceS), fromDecimal(backupSystem.toleranceS))
       const difference = abs(sub(p.exactS, b.exactS))
       const ok = cmp(difference, tolerance) <= 0
       const [differenceS, toleranceS] = [toFixed(difference, 6, 'round'), toFixed(tolerance, 6, 'round')]

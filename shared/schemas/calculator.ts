@@ -37,6 +37,8 @@ export interface CalculatorResponse {
   resultMph: string | null
   windowOk: boolean
   window: { rule: string, usedS: string | null, deadline: string | null, opens: string | null }
+  /** No finding fails the profile. */
+  valid: boolean
   beatsRecord: boolean | null
   required: { figure: string, unit: string } | null
   returnTargetS: string | null

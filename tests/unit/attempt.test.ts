@@ -210,3 +210,33 @@ describe('pairing', () => {
     expect(r.result!.mph).toBe('633.606')
   })
 })
+
+describe('validity is one answer', () => {
+  const pair = (directions: ['out' | 'back', 'out' | 'back'], recordMph: number) => calculate({
+    profile: 'intl-motorcycle',
+    distanceM: MILE,
+    runs: [
+      { direction: directions[0], startedAt: '2026-08-14T09:00:00Z', elapsedS: '5.6' },
+      { direction: directions[1], startedAt: '2026-08-14T09:30:00Z', elapsedS: '5.6' },
+    ],
+    recordMph,
+  })
+
+  it('a pair against its profile is not valid and beats no record, whatever its speed', () => {
+    // Hand computation: 3600 / 5.6 = 642.857… mph, well over a record of 600 mph; but both runs went
+    // out, and the international motorcycle profile needs one run each way (its "Runs" rule, with its source).
+    const res = pair(['out', 'out'], 600)
+    expect(res.resultMph).toBe('642.857')
+    expect(res.valid).toBe(false)
+    expect(res.beatsRecord).toBe(false)
+    expect(res.findings.map(f => f.code)).toContain('pair.direction')
+  })
+
+  it('a valid pair that does not beat the record is still valid', () => {
+    // Hand computation: 642.857 mph against a record of 650 mph.
+    const res = pair(['out', 'back'], 650)
+    expect(res.valid).toBe(true)
+    expect(res.beatsRecord).toBe(false)
+    expect(pair(['out', 'back'], 600)).toMatchObject({ valid: true, beatsRecord: true })
+  })
+})

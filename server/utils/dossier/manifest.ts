@@ -30,6 +30,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     result: {
       ...live.result,
       window: live.window,
+      valid: live.valid,
       beatsRecord: live.beatsRecord,
       standingRecordKmh: live.standingRecordKmh,
       required: live.required,

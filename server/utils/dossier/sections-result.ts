@@ -35,6 +35,7 @@ export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
     ['Event', `${m.event.name}, ${m.event.venue}`],
     ['Rule profile', `${m.profile.name}, version ${m.profile.version}`],
     ['Time window', `${window?.ok ? 'within' : 'NOT within'}: ${window?.rule ?? ''}`],
+    ['Valid under the profile', m.result.valid ? 'yes: no finding fails it' : 'NO: see the computation\'s findings'],
     ['Standing record', standingRecordLine(m)],
     ['Dossier', `version ${m.dossier.version}, sealed ${utcStamp(m.dossier.issuedAt)} UTC`],
     ['Manifest SHA-256', seal.sha256],

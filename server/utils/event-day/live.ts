@@ -139,9 +139,14 @@ function liveRun(ix: DayIndex, { distance }: Setting, r: ComputedRun, counted: b
 }
 
 /** The pair's figures, window and margin as the pages show them. */
-function liveResult(ix: DayIndex, evaluation: AttemptResult | null, countedRuns: number) {
+function liveResult(ix: DayIndex, evaluation: AttemptResult | null, pair: ComputedRun[]) {
   const { timeDecimals } = ix
+  // Valid is one answer: no failing finding of the pair (directions, window) nor of its runs (a
+  // cross-check, a tail wind over the limit, a reading out of order).
+  const runsPass = pair.every(r => !r.c.findings.some(f => f.severity === 'fail'))
+  const valid = !!evaluation && evaluation.valid && runsPass
   return {
+    valid,
     result: evaluation?.result
       ? {
           kmh: evaluation.result.kmh,
@@ -157,9 +162,9 @@ function liveResult(ix: DayIndex, evaluation: AttemptResult | null, countedRuns:
           opens: iso(evaluation.window.opensMs),
         }
       : null,
-    beatsRecord: evaluation?.beatsRecord ?? null,
+    beatsRecord: evaluation?.beatsRecord == null ? null : evaluation.beatsRecord && valid,
     required: evaluation?.required ? { figure: evaluation.required.text, unit: evaluation.required.unit } : null,
-    returnTargetS: countedRuns === 1 && evaluation?.returnTargetS
+    returnTargetS: pair.length === 1 && evaluation?.returnTargetS
       ? toFixed(evaluation.returnTargetS, timeDecimals)
       : null,
     findings: evaluation?.findings ?? [],
@@ -188,7 +193,7 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
     profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
     standingRecordKmh: record?.speedKmh ?? null,
     runs: runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings)),
-    ...liveResult(ix, evaluateCounted(ix, attempt, setting, counted), counted.length),
+    ...liveResult(ix, evaluateCounted(ix, attempt, setting, counted), counted.slice(0, 2)),
     sheet: sheetState(ix.day, attempt.id),
   }
 }
