@@ -45,7 +45,8 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
   const needed = attempt.profile.witnessStatements.value
   // Witnesses are people: a statement counts once per official.
   const witnesses = new Set(statements.map(s => s.authorId)).size
-  const failing = live.findings.filter(f => f.severity === 'fail')
+  // Every failing finding blocks: the pair's (directions, window) and its counted runs' (cross-check, wind…).
+  const failing = [...live.findings, ...counted.flatMap(r => r.findings)].filter(f => f.severity === 'fail')
   const pairDetail = !live.result
     ? `${counted.length} complete run(s) so far`
     : failing.length ? failing.map(f => f.message).join(' ') : `${live.result.kmh} km/h, ${live.window?.rule}`
@@ -54,7 +55,7 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
       key: 'pair',
       label: 'A valid pair of runs under the profile',
       fix: `${at}/live`,
-      met: !!live.result && counted.length === 2 && failing.length === 0,
+      met: !!live.result && counted.length === 2 && live.valid && failing.length === 0,
       detail: pairDetail,
     },
     {

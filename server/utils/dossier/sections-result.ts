@@ -9,6 +9,9 @@ export interface SealFacts { sha256: string, signature: string, fingerprint: str
 export const utcStamp = (iso: string) => iso.replace('T', ' ').slice(0, 19)
 
 const roundingWord = (m: Manifest) => (m.profile.figures.value.rounding === 'truncate' ? 'truncated' : 'rounded')
+const meanOfTimes = (m: Manifest) => m.profile.averaging.value === 'mean-of-times'
+const averageWords = (m: Manifest) =>
+  (meanOfTimes(m) ? 'distance over the mean of the two times' : 'mean of the two speeds')
 
 function standingRecordLine(m: Manifest) {
   const { standingRecordKmh, beatsRecord, required } = m.result
@@ -27,7 +30,7 @@ export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
   L.heading(`${m.result.kmh ?? '—'} km/h`, 34)
   const decimals = m.profile.figures.value.decimals
   L.text(
-    `${m.result.mph ?? '—'} mph · distance over the mean of the two times, ${roundingWord(m)} to ${decimals} decimals`,
+    `${m.result.mph ?? '—'} mph · ${averageWords(m)}, ${roundingWord(m)} to ${decimals} decimals`,
     { size: 11, gap: 16 },
   )
   const window = m.result.window
@@ -96,16 +99,27 @@ function renderRunComputation(L: PdfLayout, m: Manifest, run: Run) {
   L.y -= 6
 }
 
+const UNITS_NOTE = '1 km/h = 1/3.6 m/s; 1 mph = 0.44704 m/s exactly; 1 mile = 1609.344 m (NIST SP 811, appendix B).'
+
+/** The pair's result, shown by the computation the profile used and no other. */
 function renderPairResult(L: PdfLayout, m: Manifest) {
   const d = m.course.distance
   const { meanTimeS, kmh, mph } = m.result
   L.text('Result', { bold: true })
-  L.text(`Mean time = (t1 + t2) / 2 = ${meanTimeS} s`, { indent: 10 })
-  L.text(
-    `v = d / mean time = ${d.nominalM} m / ${meanTimeS} s = ${kmh} km/h = ${mph} mph. `
-    + '1 km/h = 1/3.6 m/s; 1 mph = 0.44704 m/s exactly; 1 mile = 1609.344 m (NIST SP 811, appendix B).',
-    { indent: 10, gap: 10 },
-  )
+  if (meanOfTimes(m)) {
+    L.text(`Mean time = (t1 + t2) / 2 = ${meanTimeS} s`, { indent: 10 })
+    L.text(`v = d / mean time = ${d.nominalM} m / ${meanTimeS} s = ${kmh} km/h = ${mph} mph. ${UNITS_NOTE}`, {
+      indent: 10,
+      gap: 10,
+    })
+    return
+  }
+  const speeds = m.runs.filter(r => r.counted && r.official).map(r => r.official!)
+  L.text(`Speeds: v1 = ${speeds[0]?.kmh} km/h, v2 = ${speeds[1]?.kmh} km/h (each d / t, exactly)`, { indent: 10 })
+  L.text(`v = (v1 + v2) / 2 = ${kmh} km/h = ${mph} mph, from the exact speeds. ${UNITS_NOTE}`, {
+    indent: 10,
+    gap: 10,
+  })
 }
 
 function renderProfileInForce(L: PdfLayout, m: Manifest) {
