@@ -243,8 +243,15 @@ export const standingRecords = pgTable(
     speedKmh: numeric('speed_kmh', { precision: 10, scale: 3 }).notNull(),
     setOn: date('set_on'),
     note: text('note').notNull().default(''),
+    /** A result ratified at this event stands from the moment of its ratification; null for one entered by hand. */
+    dossierId: integer('dossier_id').references(() => dossiers.id),
+    setAt: timestamp('set_at', { withTimezone: true }),
   },
-  t => [uniqueIndex('standing_records_event_class_distance').on(t.eventId, t.className, t.distanceLabel)],
+  t => [
+    uniqueIndex('standing_records_event_class_distance')
+      .on(t.eventId, t.className, t.distanceLabel)
+      .where(sql`dossier_id is null`),
+  ],
 )
 
 /** A machine and rider entered for a record: a class at a measured distance. */

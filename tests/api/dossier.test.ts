@@ -74,6 +74,30 @@ describe('the demo\'s ratified dossier', () => {
     expect(Buffer.from(pdf.subarray(0, 5)).toString()).toBe('%PDF-')
   })
 
+  it('became the standing record from its ratification on; the pair before it is measured against the old one', async () => {
+    const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
+    const rows = setup.records.filter((r: any) => r.className === 'Electric, fully streamlined' && r.distanceLabel === 'Flying mile')
+    // The demo's first dossier of the streamliner's pair, ratified by the seed.
+    const [first] = (await db.query(`select d.id, d.attempt_id from dossiers d join decisions x on x.dossier_id = d.id
+      where x.decision = 'ratified' order by d.id limit 1`)).rows
+    const row = rows.find((r: any) => r.dossierId === first.id)
+    const sheet = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.organiser })).body
+    const trap = (label: string) => setup.courses.flatMap((c: any) => c.traps).find((t: any) => t.label === label).id
+    const primary = setup.systems.find((x: any) => x.role === 'primary').id
+    const [t1, t2] = timesOver(sheet.attempts.find((a: any) => a.id === first.attempt_id).runs, trap('M-in'), trap('M-out'), primary)
+    expect(row).toMatchObject({ speedKmh: pairSpeed('1609.344', t1!, t2!).kmh })
+    expect(row.setAt).not.toBeNull()
+    // The book's hand-entered record (385.000 km/h, invented for the demo) still stands for the pair run before it.
+    const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body
+    expect(live.find((a: any) => a.id === first.attempt_id).standingRecordKmh).toBe('385.000')
+    // Each ratified row is faster than every record that stood before it: a tie never displaces the holder.
+    const ratified = rows.filter((r: any) => r.dossierId).sort((a: any, b: any) => a.setAt.localeCompare(b.setAt))
+    for (const r of ratified) {
+      const before = rows.filter((x: any) => !x.setAt || x.setAt < r.setAt)
+      expect(before.every((x: any) => Number(x.speedKmh) < Number(r.speedKmh))).toBe(true)
+    }
+  })
+
   it('read back with pdf-lib, carries the manifest, its seal and the small evidence files exactly as stored', async () => {
     const [row] = (await db.query('select * from dossiers where id = $1', [dossierId])).rows
     expect(sha256(pdf)).toBe(row.pdf_sha256)

@@ -41,3 +41,14 @@ export function timesOver(runs: SheetRun[], entryTrapId: number, exitTrapId: num
     ? at(run, exitTrapId).sub(at(run, entryTrapId))
     : at(run, entryTrapId).sub(at(run, exitTrapId))))
 }
+
+/**
+ * The longest return time that still beats a record by the smallest step of the published figure,
+ * under the mean of times: t2 ≤ 2d / V − t1, floored to the timing resolution.
+ */
+export function returnTargetByHand(metres: string, recordKmh: string, t1: BigNumber, decimals = 4) {
+  const needed = big(recordKmh).add('0.001').div(3.6)
+  const longest = big(metres).mul(2).div(needed).sub(t1)
+  const scale = big(10).pow(decimals)
+  return longest.mul(scale).floor().div(scale).toFixed(decimals)
+}

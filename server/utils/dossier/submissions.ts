@@ -1,4 +1,6 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
+import { cmp, fromDecimal } from '#shared/rules/exact'
+import { localDate } from '#shared/rules/zoned'
 import type { EventAccess } from '../auth/auth'
 import type { DecisionInput } from '#shared/schemas/inspection'
 
@@ -157,6 +159,7 @@ export async function decideDossier(
         decidedBy: user.id,
       })
       .returning()
+    if (input.decision === 'ratified') await standFromRatification(tx, d, row!.decidedAt)
     return row!
   })
   const teamId = await useDb()
@@ -242,3 +245,42 @@ export async function isRatified(dossierId: number) {
     .where(and(eq(tables.decisions.dossierId, dossierId), inArray(tables.decisions.decision, ['ratified'])))
   return rows.length > 0
 }
+
+/**
+ * A ratified result becomes the event's standing record for its class and distance from the moment
+ * of ratification, when it is faster than the record standing then; a tie never displaces the holder.
+ */
+async function standFromRatification(tx: Tx, d: typeof tables.dossiers.$inferSelect, ratifiedAt: Date) {
+  const m = d.manifest as {
+    entry: { className: string, distanceLabel: string }
+    result: { kmh: string }
+    event: { timeZone: string }
+  }
+  const { className, distanceLabel } = m.entry
+  const records = tables.standingRecords
+  const standing = await tx
+    .select({ speedKmh: records.speedKmh })
+    .from(records)
+    .where(and(
+      eq(records.eventId, d.eventId),
+      eq(records.className, className),
+      eq(records.distanceLabel, distanceLabel),
+    ))
+  const best = standing.reduce<string | null>(
+    (b, r) => (b === null || cmpDecimal(r.speedKmh, b) > 0 ? r.speedKmh : b),
+    null,
+  )
+  if (best !== null && cmpDecimal(m.result.kmh, best) <= 0) return
+  await tx.insert(records).values({
+    eventId: d.eventId,
+    className,
+    distanceLabel,
+    speedKmh: m.result.kmh,
+    setOn: localDate(ratifiedAt.getTime(), m.event.timeZone),
+    setAt: ratifiedAt,
+    dossierId: d.id,
+    note: `ratified dossier #${d.id}, version ${d.version}`,
+  })
+}
+
+const cmpDecimal = (a: string, b: string) => cmp(fromDecimal(a), fromDecimal(b))

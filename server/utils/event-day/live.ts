@@ -1,5 +1,5 @@
 import { evaluateAttempt, type AttemptResult } from '#shared/rules/attempt'
-import { fromDecimal, toFixed } from '#shared/rules/exact'
+import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import type { EventDay } from './load'
@@ -50,13 +50,29 @@ function indexDay(day: EventDay) {
 type DayIndex = ReturnType<typeof indexDay>
 type Attempt = EventDay['attempts'][number]
 
+/**
+ * The record an attempt is measured against: the fastest for its class and distance that stood when
+ * its first run started (a result ratified later does not count against it; one entered by hand always
+ * stands).
+ */
+function recordStandingAt(ix: DayIndex, attempt: Attempt, className: string, distanceLabel: string) {
+  const firstRun = ix.day.runs.find(r => r.attemptId === attempt.id)
+  const from = firstRun?.startedAt.getTime() ?? Number.POSITIVE_INFINITY
+  return ix.day.records
+    .filter(r => r.className === className && r.distanceLabel === distanceLabel)
+    .filter(r => !r.setAt || r.setAt.getTime() <= from)
+    .reduce<typeof ix.day.records[number] | undefined>(
+      (best, r) => (!best || cmp(fromDecimal(r.speedKmh), fromDecimal(best.speedKmh)) > 0 ? r : best),
+      undefined,
+    )
+}
+
 /** What an attempt is about: its entry, measured distance, course and the standing record. */
 function attemptSetting(ix: DayIndex, attempt: Attempt) {
   const e = ix.entryById.get(attempt.entryId)!
   const distance = ix.distanceById.get(e.entry.distanceId)!
   const course = ix.courseById.get(distance.courseId)!
-  const record = ix.day.records.find(r => r.className === e.entry.className && r.distanceLabel === distance.label)
-  return { e, distance, course, record }
+  return { e, distance, course, record: recordStandingAt(ix, attempt, e.entry.className, distance.label) }
 }
 type Setting = ReturnType<typeof attemptSetting>
 
