@@ -60,7 +60,8 @@ function recordStandingAt(ix: DayIndex, attempt: Attempt, className: string, dis
   const from = firstRun?.startedAt.getTime() ?? Number.POSITIVE_INFINITY
   return ix.day.records
     .filter(r => r.className === className && r.distanceLabel === distanceLabel)
-    .filter(r => !r.setAt || r.setAt.getTime() <= from)
+    // A record set by this attempt's own ratification is never held against it.
+    .filter(r => !r.setAt || (r.setAt.getTime() <= from && r.fromAttemptId !== attempt.id))
     .reduce<typeof ix.day.records[number] | undefined>(
       (best, r) => (!best || cmp(fromDecimal(r.speedKmh), fromDecimal(best.speedKmh)) > 0 ? r : best),
       undefined,

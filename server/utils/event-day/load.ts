@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
 
 /** Entries with their team's name, machine and rider. */
 function entryRows(eventId: number) {
@@ -35,6 +35,17 @@ function readingRows(eventId: number, history: boolean) {
     .innerJoin(t.users, eq(t.users.id, t.readings.enteredBy))
     .where(history ? eq(t.runs.eventId, eventId) : and(eq(t.runs.eventId, eventId), current))
     .orderBy(asc(t.readings.id))
+}
+
+/** The event's standing records, each with the attempt whose ratified dossier set it (if one did). */
+function standingRecordRows(eventId: number) {
+  const t = tables
+  return useDb()
+    .select({ ...getTableColumns(t.standingRecords), fromAttemptId: t.dossiers.attemptId })
+    .from(t.standingRecords)
+    .leftJoin(t.dossiers, eq(t.dossiers.id, t.standingRecords.dossierId))
+    .where(eq(t.standingRecords.eventId, eventId))
+    .orderBy(asc(t.standingRecords.id))
 }
 
 /** The latest weather entered for each run. */
@@ -89,7 +100,7 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
         .orderBy(asc(t.measuredDistances.id)),
       db.select().from(t.timingSystems).where(eq(t.timingSystems.eventId, eventId)).orderBy(asc(t.timingSystems.role)),
       entryRows(eventId),
-      db.select().from(t.standingRecords).where(eq(t.standingRecords.eventId, eventId)),
+      standingRecordRows(eventId),
       db.select().from(t.attempts).where(eq(t.attempts.eventId, eventId)).orderBy(asc(t.attempts.id)),
       db.select().from(t.runs).where(eq(t.runs.eventId, eventId)).orderBy(asc(t.runs.startedAt)),
       readingRows(eventId, !!options.history),
