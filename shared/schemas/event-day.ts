@@ -145,7 +145,12 @@ export const entrySchema = z
   })
 export type EntryInput = z.infer<typeof entrySchema>
 
-export const startRunSchema = z.object({ entryId: id, direction: z.enum(DIRECTIONS), startedAt: isoDateTime })
+/** A run leaves the line now, by the server's clock, unless the instant it left is given. */
+export const startRunSchema = z.object({
+  entryId: id,
+  direction: z.enum(DIRECTIONS),
+  startedAt: isoDateTime.optional(),
+})
 export type StartRunInput = z.infer<typeof startRunSchema>
 export const readingSchema = z.object({ trapId: id, systemId: id, time: timeOfDay })
 export type ReadingInput = z.infer<typeof readingSchema>

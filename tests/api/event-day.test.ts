@@ -290,3 +290,18 @@ describe('what was signed stays as signed', () => {
     }
   })
 })
+
+describe('starting a run', () => {
+  it('takes the server\'s clock when no start is given', async () => {
+    const entryId = setup.entries.find((e: any) => e.machineName === 'Cinder Wisp').id
+    const before = Date.now()
+    const run = await call('POST', `/api/events/${eventId}/runs`, { cookie: cookie.timekeeper, body: { entryId, direction: 'back' } })
+    const after = Date.now()
+    expect(run.status).toBe(201)
+    const at = Date.parse(run.body.startedAt)
+    expect(at).toBeGreaterThanOrEqual(before - 1000)
+    expect(at).toBeLessThanOrEqual(after + 1000)
+    // Aborted again, so that the second team's attempt keeps its one counted run for the other tests.
+    expect((await call('POST', `/api/runs/${run.body.id}/abort`, { cookie: cookie.timekeeper, body: { reason: 'started by the clock test' } })).status).toBe(200)
+  })
+})

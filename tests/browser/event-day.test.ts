@@ -23,6 +23,8 @@ it('the timekeeper enters two runs on the run sheet; the team sees the return-ru
   // Out, started five minutes ago (the back run starts after it has finished): the mile in 14.5000 s
   // (399.555… km/h); the kilometre inside it in 9.0000 s.
   await enterRun(tk, 'out', ['10:00:00.0000', '10:00:02.7500', '10:00:11.7500', '10:00:14.5000'], 5)
+  // A start typed on the run sheet is in the event's time zone, and the field says which (the demo's).
+  expect(await tk.locator('label[for="sr-start"]').innerText()).toContain('America/Denver')
   await expect.poll(() => team.locator('article[data-test^="attempt-"]').count(), { timeout: 10_000 }).toBe(before + 1)
   const card = team.locator('article[data-test^="attempt-"]').first()
   // The record this attempt is measured against is the one standing when it started: the demo book's

@@ -7,11 +7,11 @@ import type { Page } from 'playwright-core'
 export async function enterRun(page: Page, direction: 'out' | 'back', times: string[], minutesAgo?: number) {
   await page.selectOption('#sr-entry', { label: 'Larkspur Fennwick streamliner — Mara Quillfeather (Larkspur Works)' })
   if (minutesAgo !== undefined) {
-    const start = await page.evaluate((m) => {
-      const d = new Date(Date.now() - m * 60_000)
-      d.setSeconds(0, 0)
-      return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 19)
-    }, minutesAgo)
+    // Typed, as a timekeeper does for a run already under way: in the event's time zone, shown by the field.
+    await page.uncheck('#sr-now')
+    const zone = await page.locator('#sr-start').getAttribute('data-time-zone')
+    const start = new Date(Date.now() - minutesAgo * 60_000)
+      .toLocaleString('sv-SE', { timeZone: zone! }).replace(' ', 'T').slice(0, 16) + ':00'
     await page.fill('#sr-start', start)
   }
   await page.selectOption('#sr-direction', direction)

@@ -179,7 +179,7 @@ export async function startRun(eventId: number, input: StartRunInput, userId: nu
         eventId,
         attemptId: attempt.id,
         direction: input.direction,
-        startedAt: new Date(input.startedAt),
+        startedAt: input.startedAt ? new Date(input.startedAt) : new Date(),
         createdBy: userId,
       })
       .returning()

@@ -4,6 +4,7 @@ export default defineEventHandler(async (event) => {
   const day = await loadEventDay(eventId, { history: true })
   return {
     now: new Date().toISOString(),
+    timeZone: day.event.timeZone,
     attempts: computeLive(day, { readings: true }),
     history: day.readings.map(r => ({ ...r, ticks: r.ticks.toString() })),
     entries: day.entries.map(e => ({
