@@ -12,6 +12,12 @@ export interface RunInput {
   startedAtMs: number
   /** Time over the measured distance, seconds, exact. */
   elapsedS: Q
+  /**
+   * The instant the run left the measured distance (its last trap), epoch milliseconds, when the
+   * readings give it. Without it the finish is estimated as the start plus the time over the distance,
+   * which leaves out the run-up, and a finding says so.
+   */
+  finishedAtMs?: number
 }
 
 export interface AttemptInput {

@@ -4,11 +4,16 @@ import { describeWindow, type RuleProfile, type WindowAnchor } from './profile'
 import { ruleOf, type RunInput, type WindowState } from './attempt-types'
 import { addDays, localDate, localMidnight } from './zoned'
 
+/** A run's finish: the instant it left the measured distance, or at least its start plus the time over it. */
+export function finishMs(run: RunInput): Q {
+  if (run.finishedAtMs !== undefined) return q(BigInt(Math.round(run.finishedAtMs)))
+  return add(q(BigInt(run.startedAtMs)), mul(run.elapsedS, q(1000n)))
+}
+
 function anchorMs(anchor: WindowAnchor, runs: RunInput[]): Q | null {
   const run = anchor.endsWith('first') ? runs[0] : runs[1]
   if (!run) return null
-  const start = q(BigInt(run.startedAtMs))
-  return anchor.startsWith('start') ? start : add(start, mul(run.elapsedS, q(1000n)))
+  return anchor.startsWith('start') ? q(BigInt(run.startedAtMs)) : finishMs(run)
 }
 
 /** Next-day rules: the record run starts on the calendar day after the qualifying run, in the event's zone. */
@@ -42,8 +47,22 @@ export function evaluateWindow(profile: RuleProfile, runs: RunInput[], timeZone:
   }
 }
 
-export function windowFindings(profile: RuleProfile, window: WindowState): Finding[] {
-  if (window.ok) return []
+export function windowFindings(profile: RuleProfile, window: WindowState, runs: RunInput[] = []): Finding[] {
+  const w = profile.window.value
+  const runAt = (anchor: WindowAnchor) => runs[anchor.endsWith('first') ? 0 : 1]
+  // A finish anchor of a run whose readings do not give the instant it left the distance.
+  const anchoredAtFinish = w.kind !== 'next-day' && [w.from, w.to]
+    .some(a => a.startsWith('finish') && runAt(a) !== undefined && runAt(a)!.finishedAtMs === undefined)
+  const estimated: Finding[] = anchoredAtFinish
+    ? [{
+        code: 'window.estimated',
+        severity: 'warn',
+        message: 'A run\'s finish is estimated as its start plus the time over the distance, which leaves out '
+          + 'the run-up: the window is checked against an earlier finish than the true one.',
+        rule: ruleOf(profile, 'window', 'Time window', window.rule),
+      }]
+    : []
+  if (window.ok) return estimated
   const minutes = window.usedS ? toFixed(div(window.usedS, q(60n)), 1, 'truncate') : ''
   return [{
     code: 'window.exceeded',
@@ -52,5 +71,5 @@ export function windowFindings(profile: RuleProfile, window: WindowState): Findi
       ? 'The record run is not on the calendar day after the qualifying run.'
       : `The runs took ${minutes} min between the anchors; the window is ${window.rule}.`,
     rule: ruleOf(profile, 'window', 'Time window', window.rule),
-  }]
+  }, ...estimated]
 }

@@ -11,7 +11,7 @@ import {
   type RunFigures,
   type RunInput,
 } from './attempt-types'
-import { evaluateWindow, windowFindings } from './attempt-window'
+import { evaluateWindow, finishMs, windowFindings } from './attempt-window'
 
 export type * from './attempt-types'
 export { returnTarget } from './attempt-record'
@@ -30,7 +30,7 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
   const record = input.record ? compareWithRecord({ ...input, record: input.record }, figures[0]!, pair.result) : null
   const findings = [
     ...pairFindings(profile, runs),
-    ...windowFindings(profile, window),
+    ...windowFindings(profile, window, runs),
     ...pair.findings,
     ...(record?.findings ?? []),
   ]
@@ -80,7 +80,7 @@ function pairFindings(profile: RuleProfile, runs: RunInput[]): Finding[] {
       : 'The runs went in opposite directions; the profile needs both in the same direction.'
     findings.push({ code: 'pair.direction', severity: 'fail', message, rule })
   }
-  if (second.startedAtMs < first.startedAtMs + toNumber(first.elapsedS) * 1000) {
+  if (second.startedAtMs < toNumber(finishMs(first))) {
     findings.push({
       code: 'pair.overlap',
       severity: 'fail',

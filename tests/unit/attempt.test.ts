@@ -240,3 +240,32 @@ describe('validity is one answer', () => {
     expect(pair(['out', 'back'], 600)).toMatchObject({ valid: true, beatsRecord: true })
   })
 })
+
+describe('the finish of a run', () => {
+  // Automobile profile: 60 min from the start of the first run to the finish of the second (its window rule).
+  const at = (iso: string) => Date.parse(iso)
+  const runs = (finishedAtMs?: number) => evaluateAttempt({
+    profile: profiles['intl-automobile'],
+    distanceM: fromDecimal('1609.344'),
+    runs: [
+      { direction: 'out', startedAtMs: at('2026-08-14T09:00:00Z'), elapsedS: fromDecimal('20') },
+      { direction: 'back', startedAtMs: at('2026-08-14T09:59:00Z'), elapsedS: fromDecimal('20'), finishedAtMs },
+    ],
+  })
+
+  it('is the instant the run left the measured distance, run-up included', () => {
+    // Hand computation: leaving the line at 09:59:00 with a 75 s run-up and a 20 s mile, the run leaves the
+    // mile at 10:00:35, after the window that closed at 10:00:00.
+    const res = runs(at('2026-08-14T10:00:35Z'))
+    expect(res.window.ok).toBe(false)
+    expect(res.valid).toBe(false)
+    expect(res.findings.map(f => f.code)).toContain('window.exceeded')
+  })
+
+  it('without the readings, is estimated as start plus time over the distance, and says so', () => {
+    // 09:59:00 + 20 s = 09:59:20: within the window, but only as an estimate.
+    const res = runs()
+    expect(res.window.ok).toBe(true)
+    expect(res.findings.map(f => [f.code, f.severity])).toContainEqual(['window.estimated', 'warn'])
+  })
+})

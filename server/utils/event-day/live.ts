@@ -2,6 +2,7 @@ import { evaluateAttempt, type AttemptResult } from '#shared/rules/attempt'
 import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
 import { formatTimeOfDay } from '#shared/rules/timing'
+import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import type { EventDay } from './load'
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
@@ -99,6 +100,24 @@ function computeRuns(ix: DayIndex, attempt: Attempt, { course, distance }: Setti
 }
 type ComputedRun = ReturnType<typeof computeRuns>[number]
 
+/**
+ * The instant a run left the measured distance: the time of day at its last trap (the exit trap out,
+ * the entry trap back) on the system whose time counts, on the run's date in the event's zone, rolling
+ * over midnight when the reading is earlier in the day than the start.
+ */
+function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Setting['distance']) {
+  const lastTrap = r.run.direction === 'out' ? distance.exitTrapId : distance.entryTrapId
+  const reading = r.readings.find(g => g.trapId === lastTrap && g.systemId === r.official!.systemId)
+  if (!reading) return undefined
+  const zone = ix.day.event.timeZone
+  const startMs = r.run.startedAt.getTime()
+  const ofDay = Number(reading.ticks * 1000n / ix.tpsOf.get(reading.systemId)!)
+  const day = localDate(startMs, zone)
+  const sameDay = localMidnight(day, zone) + ofDay
+  // An hour of slack for a start typed a little late; a reading earlier than that is after midnight.
+  return sameDay >= startMs - 3_600_000 ? sameDay : localMidnight(addDays(day, 1), zone) + ofDay
+}
+
 /** The pair by the profile, from the first two runs that finished with an official time. */
 function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: Setting, counted: ComputedRun[]) {
   if (!counted.length) return null
@@ -109,6 +128,7 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
       direction: r.run.direction,
       startedAtMs: r.run.startedAt.getTime(),
       elapsedS: r.official!.exactS,
+      finishedAtMs: leftDistanceAt(ix, r, distance),
     })),
     record: record ? { value: fromDecimal(record.speedKmh), unit: 'km/h' } : undefined,
     timeZone: ix.day.event.timeZone,
