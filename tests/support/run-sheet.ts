@@ -6,14 +6,16 @@ import type { Page } from 'playwright-core'
  */
 export async function enterRun(page: Page, direction: 'out' | 'back', times: string[], minutesAgo?: number) {
   await page.selectOption('#sr-entry', { label: 'Larkspur Fennwick streamliner — Mara Quillfeather (Larkspur Works)' })
+  const zone = (await page.locator('[data-test="start-run"]').getAttribute('data-time-zone'))!
+  const startMs = Math.floor((Date.now() - (minutesAgo ?? 0) * 60_000) / 60_000) * 60_000
   if (minutesAgo !== undefined) {
     // Typed, as a timekeeper does for a run already under way: in the event's time zone, shown by the field.
     await page.uncheck('#sr-now')
-    const zone = await page.locator('#sr-start').getAttribute('data-time-zone')
-    const start = new Date(Date.now() - minutesAgo * 60_000)
-      .toLocaleString('sv-SE', { timeZone: zone! }).replace(' ', 'T').slice(0, 16) + ':00'
-    await page.fill('#sr-start', start)
+    await page.fill('#sr-start', eventClock(startMs, zone).slice(0, 16).replace(' ', 'T') + ':00')
   }
+  // The timing clock reads the time of day in the event's zone: the first trap a minute after the start,
+  // the others as far after it as the times given.
+  const clocked = shiftedTimes(times, eventClock(startMs + 60_000, zone).slice(11, 19))
   await page.selectOption('#sr-direction', direction)
   const started = page.waitForResponse(r => r.url().endsWith('/runs') && r.request().method() === 'POST')
   await page.click('button:has-text("Start the run")')
@@ -22,9 +24,29 @@ export async function enterRun(page: Page, direction: 'out' | 'back', times: str
   const order = direction === 'out' ? ['M-in', 'K-in', 'K-out', 'M-out'] : ['M-out', 'K-out', 'K-in', 'M-in']
   await page.locator(`[data-test="cell-${order[0]}-primary"]`).focus()
   for (const [i, label] of order.entries()) {
-    await page.keyboard.type(times[i]!)
+    await page.keyboard.type(clocked[i]!)
     await page.keyboard.press('Enter')
     await page.locator(`[data-test="value-${label}-primary"]`).waitFor()
   }
   return runId
+}
+
+/** "YYYY-MM-DD hh:mm:ss" of an instant in a time zone. */
+const eventClock = (ms: number, zone: string) => new Date(ms).toLocaleString('sv-SE', { timeZone: zone })
+
+/** The times kept apart as given, the first one moved to `firstAt` (hh:mm:ss); four decimals, as typed. */
+function shiftedTimes(times: string[], firstAt: string) {
+  const tenThousandths = (t: string) => {
+    const [h, m, s] = t.split(':') as [string, string, string]
+    const [whole, frac = ''] = s.split('.')
+    return ((Number(h) * 60 + Number(m)) * 60 + Number(whole)) * 10_000 + Number(frac.padEnd(4, '0').slice(0, 4))
+  }
+  const day = 24 * 3600 * 10_000
+  const shift = tenThousandths(firstAt) - tenThousandths(times[0]!)
+  return times.map((t) => {
+    const v = (((tenThousandths(t) + shift) % day) + day) % day
+    const pad = (x: number) => String(x).padStart(2, '0')
+    const seconds = Math.floor(v / 10_000)
+    return `${pad(Math.floor(seconds / 3600))}:${pad(Math.floor(seconds / 60) % 60)}:${pad(seconds % 60)}.${String(v % 10_000).padStart(4, '0')}`
+  })
 }
