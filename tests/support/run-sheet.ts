@@ -1,4 +1,5 @@
 import type { Page } from 'playwright-core'
+import { formatTimeOfDay, parseTimeOfDay } from '#shared/rules/timing'
 
 /**
  * On the run sheet: starts a run for the demo streamliner (optionally some minutes ago) and types
@@ -34,19 +35,10 @@ export async function enterRun(page: Page, direction: 'out' | 'back', times: str
 /** "YYYY-MM-DD hh:mm:ss" of an instant in a time zone. */
 const eventClock = (ms: number, zone: string) => new Date(ms).toLocaleString('sv-SE', { timeZone: zone })
 
-/** The times kept apart as given, the first one moved to `firstAt` (hh:mm:ss); four decimals, as typed. */
+/** The times kept apart as given, the first one moved to `firstAt` (hh:mm:ss); at 1/10 000 s, as typed. */
 function shiftedTimes(times: string[], firstAt: string) {
-  const tenThousandths = (t: string) => {
-    const [h, m, s] = t.split(':') as [string, string, string]
-    const [whole, frac = ''] = s.split('.')
-    return ((Number(h) * 60 + Number(m)) * 60 + Number(whole)) * 10_000 + Number(frac.padEnd(4, '0').slice(0, 4))
-  }
-  const day = 24 * 3600 * 10_000
-  const shift = tenThousandths(firstAt) - tenThousandths(times[0]!)
-  return times.map((t) => {
-    const v = (((tenThousandths(t) + shift) % day) + day) % day
-    const pad = (x: number) => String(x).padStart(2, '0')
-    const seconds = Math.floor(v / 10_000)
-    return `${pad(Math.floor(seconds / 3600))}:${pad(Math.floor(seconds / 60) % 60)}:${pad(seconds % 60)}.${String(v % 10_000).padStart(4, '0')}`
-  })
+  const tps = 10_000n
+  const day = 86_400n * tps
+  const shift = parseTimeOfDay(firstAt, tps) - parseTimeOfDay(times[0]!, tps)
+  return times.map(t => formatTimeOfDay((((parseTimeOfDay(t, tps) + shift) % day) + day) % day, tps))
 }

@@ -98,16 +98,19 @@ async function attemptRows(eventIds: number[]) {
 
 /** Everything the role homes of these events are made from, read once for all of them. */
 export async function loadHomeFacts(eventIds: number[]) {
-  const entries = await entryRows(eventIds)
-  return {
-    traps: await trapCounts(eventIds),
-    roles: await roleCounts(eventIds),
-    machines: await machineRows(eventIds),
-    riders: await riderRows(eventIds),
-    entries,
-    attempts: await attemptRows(eventIds),
-    clearance: await clearanceOf(entries.map(e => e.id)),
+  if (!eventIds.length) {
+    const clearance = await clearanceOf([])
+    return { traps: [], roles: [], machines: [], riders: [], entries: [], attempts: [], clearance }
   }
+  const [traps, roles, machines, riders, entries, attempts] = await Promise.all([
+    trapCounts(eventIds),
+    roleCounts(eventIds),
+    machineRows(eventIds),
+    riderRows(eventIds),
+    entryRows(eventIds),
+    attemptRows(eventIds),
+  ])
+  return { traps, roles, machines, riders, entries, attempts, clearance: await clearanceOf(entries.map(e => e.id)) }
 }
 
 export type HomeFacts = Awaited<ReturnType<typeof loadHomeFacts>>
