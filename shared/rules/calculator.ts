@@ -1,6 +1,6 @@
 import type { CalculatorRequestInput, CalculatorResponse } from '../schemas/calculator'
 import { evaluateAttempt } from './attempt'
-import { cmp, decimalsOf, fromInput, fromNumber, roundTo, toFixed, type Q } from './exact'
+import { add, cmp, decimalsOf, fromInput, mul, q, roundTo, toFixed, toNumber, type Q } from './exact'
 import { profiles } from './profiles'
 
 /** The public calculator: one request in, every figure as a decimal string out. Same code on page and server. */
@@ -9,17 +9,21 @@ export function calculate(req: CalculatorRequestInput): CalculatorResponse {
   const timeDecimals = Math.max(3, ...req.runs.map(r => decimalsOf(r.elapsedS)))
   const record
     = req.recordKmh !== undefined
-      ? { value: fromNumber(req.recordKmh), unit: 'km/h' as const }
+      ? { value: fromInput(req.recordKmh), unit: 'km/h' as const }
       : req.recordMph !== undefined
-        ? { value: fromNumber(req.recordMph), unit: 'mph' as const }
+        ? { value: fromInput(req.recordMph), unit: 'mph' as const }
         : undefined
   const r = evaluateAttempt({
     profile,
-    distanceM: fromNumber(req.distanceM),
+    distanceM: fromInput(req.distanceM),
     runs: req.runs.map(run => ({
       direction: run.direction,
       startedAtMs: Date.parse(run.startedAt),
       elapsedS: fromInput(run.elapsedS),
+      // Crossing the entry trap plus the time over the distance: the instant the run left it.
+      finishedAtMs: run.entryAt === undefined
+        ? undefined
+        : toNumber(add(q(BigInt(Date.parse(run.entryAt))), mul(fromInput(run.elapsedS), q(1000n)))),
     })),
     record,
     timeZone: req.timeZone,

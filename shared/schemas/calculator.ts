@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { PROFILE_IDS } from '../rules/profiles'
-import { isoDateTime, positiveDecimal, positiveNumber, timeZoneName } from './fields'
+import { isoDateTime, positiveDecimal, timeZoneName } from './fields'
 import { DIRECTIONS, type Direction } from '../constants'
 import type { Finding } from '../rules/findings'
 
@@ -8,22 +8,24 @@ export const calculatorRunSchema = z.object({
   direction: z.enum(DIRECTIONS, { error: 'must be "out" or "back"' }),
   startedAt: isoDateTime,
   elapsedS: positiveDecimal,
+  /** The instant the run crossed the entry trap; its finish is then this plus the time over the distance. */
+  entryAt: isoDateTime.optional(),
 })
 export type CalculatorRunInput = z.infer<typeof calculatorRunSchema>
 
 export const calculatorRequestSchema = z
   .object({
     profile: z.enum(PROFILE_IDS, { error: `must be one of ${PROFILE_IDS.join(', ')}` }),
-    distanceM: positiveNumber,
+    distanceM: positiveDecimal,
     runs: z
       .array(calculatorRunSchema)
       .min(1, { error: 'needs at least one run' })
       .max(2, { error: 'takes at most two runs' }),
-    recordKmh: positiveNumber.optional(),
-    recordMph: positiveNumber.optional(),
+    recordKmh: positiveDecimal.optional(),
+    recordMph: positiveDecimal.optional(),
     timeZone: timeZoneName.optional(),
   })
-  .refine(x => !(x.recordKmh && x.recordMph), {
+  .refine(x => x.recordKmh === undefined || x.recordMph === undefined, {
     error: 'give the standing record in km/h or in mph, not both',
     path: ['recordMph'],
   })

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { calculate } from '#shared/rules/calculator'
+import { calculatorRequestSchema } from '#shared/schemas/calculator'
 import { evaluateAttempt } from '#shared/rules/attempt'
 import { fromDecimal } from '#shared/rules/exact'
 import { profiles } from '#shared/rules/profiles'
@@ -267,5 +268,55 @@ describe('the finish of a run', () => {
     const res = runs()
     expect(res.window.ok).toBe(true)
     expect(res.findings.map(f => [f.code, f.severity])).toContainEqual(['window.estimated', 'warn'])
+  })
+})
+
+describe('the public calculator takes the entry-trap instant and exact decimals', () => {
+  const request = (entryAt?: string) => calculatorRequestSchema.parse({
+    profile: 'intl-automobile',
+    distanceM: '1609.344',
+    runs: [
+      { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '20' },
+      { direction: 'back', startedAt: '2026-08-14T09:59:00Z', elapsedS: '20', ...(entryAt ? { entryAt } : {}) },
+    ],
+  })
+
+  it('finishes a run at its entry-trap instant plus the time over the distance', () => {
+    // Hand computation (the issue's case): run 2 leaves the line at 09:59:00, crosses the entry trap after a
+    // 75 s run-up at 10:00:15, and leaves the mile 20 s later at 10:00:35, after the 60 min window (FIA
+    // Appendix D as reported: 60 min; anchors start of the first run to the finish of the second).
+    const late = calculate(request('2026-08-14T10:00:15Z'))
+    expect(late.windowOk).toBe(false)
+    expect(late.valid).toBe(false)
+    expect(late.findings.map(f => f.code)).not.toContain('window.estimated')
+    // Crossing the entry trap at 09:59:39.5 leaves the mile at 09:59:59.5: inside.
+    expect(calculate(request('2026-08-14T09:59:39.5Z')).windowOk).toBe(true)
+  })
+
+  it('without it, estimates the finish and says the window is estimated', () => {
+    const res = calculate(request())
+    expect(res.windowOk).toBe(true)
+    expect(res.findings.map(f => [f.code, f.severity])).toContainEqual(['window.estimated', 'warn'])
+  })
+
+  it('takes every decimal as a string or a number, the exact decimal counting', () => {
+    // 1983 flying mile (Royal Automobile Club, published): 5.767 s and 5.599 s → 633.468 mph; the standing
+    // record 622.407 mph (1970, widely published) is the same given as text or as a number.
+    const runs = [
+      { direction: 'out', startedAt: '1983-10-04T09:00:00Z', elapsedS: 5.767 },
+      { direction: 'back', startedAt: '1983-10-04T09:40:00Z', elapsedS: '5.599' },
+    ]
+    const asText = calculate(calculatorRequestSchema.parse({
+      profile: 'intl-automobile', distanceM: '1609.344', runs, recordMph: '622.407',
+    }))
+    const asNumbers = calculate(calculatorRequestSchema.parse({
+      profile: 'intl-automobile', distanceM: 1609.344, runs, recordMph: 622.407,
+    }))
+    expect(asText.resultMph).toBe('633.468')
+    expect(asText.required).toEqual({ figure: '628.632', unit: 'mph' })
+    expect(asNumbers).toEqual(asText)
+    const bad = calculatorRequestSchema.safeParse({ profile: 'intl-automobile', distanceM: '1 mile', runs })
+    expect(bad.success).toBe(false)
+    expect(bad.error!.issues[0]!.path).toEqual(['distanceM'])
   })
 })
