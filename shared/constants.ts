@@ -38,8 +38,13 @@ export const SIGNED_KINDS = [
   'inspection',
   'statement',
   'ratification',
+  'set-aside',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
+
+/** The units records are published in. */
+export const RECORD_UNITS = ['km/h', 'mph'] as const
+export type RecordUnit = (typeof RECORD_UNITS)[number]
 
 /** The officials' decision on a submitted dossier. */
 export const DECISIONS = ['ratified', 'refused'] as const

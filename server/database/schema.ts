@@ -26,6 +26,7 @@ import {
   ITEM_RESULTS,
   POWER_SOURCES,
   RUN_STATUSES,
+  RECORD_UNITS,
   SIGNED_KINDS,
   START_KINDS,
   STREAMLINING,
@@ -45,6 +46,7 @@ export const systemRole = pgEnum('system_role', SYSTEM_ROLES)
 export const runDirection = pgEnum('run_direction', DIRECTIONS)
 export const runStatus = pgEnum('run_status', RUN_STATUSES)
 export const signedKind = pgEnum('signed_kind', SIGNED_KINDS)
+export const recordUnit = pgEnum('record_unit', RECORD_UNITS)
 export const decisionKind = pgEnum('decision_kind', DECISIONS)
 export const itemResult = pgEnum('item_result', ITEM_RESULTS)
 export const evidenceKind = pgEnum('evidence_kind', EVIDENCE_KINDS)
@@ -240,7 +242,9 @@ export const standingRecords = pgTable(
       .references(() => events.id),
     className: text('class_name').notNull(),
     distanceLabel: text('distance_label').notNull(),
-    speedKmh: numeric('speed_kmh', { precision: 10, scale: 3 }).notNull(),
+    /** The record as published: its exact decimal and its unit, compared in that unit. */
+    speed: numeric('speed').notNull(),
+    unit: recordUnit('unit').notNull().default('km/h'),
     setOn: date('set_on'),
     note: text('note').notNull().default(''),
     /** A result ratified at this event stands from the moment of its ratification; null for one entered by hand. */
@@ -596,3 +600,43 @@ export type User = typeof users.$inferSelect
 export type Event = typeof events.$inferSelect
 export type Membership = typeof memberships.$inferSelect
 export type { EventRole }
+
+/**
+ * An official's signed decision to set aside a failing finding of an attempt (a cross-check, a window,
+ * a tail wind…), with a written reason. Append-only; the dossier prints it beside the finding.
+ */
+export const setAsides = pgTable('set_asides', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  attemptId: integer('attempt_id')
+    .notNull()
+    .references(() => attempts.id),
+  /** The run whose finding it is; null for a finding of the pair or the attempt. */
+  runId: integer('run_id').references(() => runs.id),
+  code: text('code').notNull(),
+  /** The finding's words when it was set aside. */
+  finding: text('finding').notNull(),
+  reason: text('reason').notNull(),
+  officialId: integer('official_id')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+})
+
+/** The machine's check-in at the impound after a qualifying run, as the club procedure asks. */
+export const impoundCheckIns = pgTable('impound_check_ins', {
+  id: serial('id').primaryKey(),
+  attemptId: integer('attempt_id')
+    .notNull()
+    .references(() => attempts.id)
+    .unique(),
+  checkedInAt: timestamp('checked_in_at', { withTimezone: true }).notNull(),
+  note: text('note').notNull().default(''),
+  recordedBy: integer('recorded_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+})

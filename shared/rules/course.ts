@@ -12,8 +12,9 @@ export interface DistanceCheck {
 }
 
 /**
- * A measured distance against the surveyed trap positions: the surveyed length must match the
- * nominal length within the survey tolerance, and the gradient must be within the profile's limit.
+ * A measured distance against the surveyed trap positions. Shorter than nominal is never accepted,
+ * since timing a shorter distance as the nominal one inflates the speed (common practice, reasoned);
+ * longer is accepted within the survey tolerance. The gradient must be within the profile's limit.
  */
 export function checkMeasuredDistance(
   profile: RuleProfile,
@@ -23,15 +24,20 @@ export function checkMeasuredDistance(
   toleranceMm: number,
 ): DistanceCheck {
   const surveyed = abs(sub(fromDecimal(exit.positionM), fromDecimal(entry.positionM)))
-  const difference = abs(mul(sub(surveyed, fromDecimal(nominalM)), q(1000n)))
-  const withinTolerance = cmp(difference, q(BigInt(toleranceMm))) <= 0
+  const signedMm = mul(sub(surveyed, fromDecimal(nominalM)), q(1000n))
+  const difference = abs(signedMm)
+  const shorter = cmp(signedMm, q(0n)) < 0
+  const withinTolerance = !shorter && cmp(difference, q(BigInt(toleranceMm))) <= 0
   const findings: Finding[] = []
   if (!withinTolerance) {
     findings.push({
       code: 'course.distance-off-survey',
       severity: 'fail',
-      message: `The traps are ${toFixed(surveyed, 3)} m apart, ${toFixed(difference, 0, 'round')} mm from the `
-        + `nominal ${nominalM} m; the survey tolerance is ${toleranceMm} mm.`,
+      message: `The traps are ${toFixed(surveyed, 3)} m apart, ${toFixed(difference, 1, 'round')} mm `
+        + `${shorter ? 'shorter than' : 'longer than'} the nominal ${nominalM} m; `
+        + (shorter
+          ? 'a distance shorter than nominal is never accepted, as it inflates the speed.'
+          : `the survey tolerance is ${toleranceMm} mm.`),
     })
   }
   const gradient

@@ -1,4 +1,4 @@
-import { div, mul, q, toNumber, type Q } from './exact'
+import { div, fromDecimal, mul, q, toNumber, type Q } from './exact'
 
 /** 1 mile = 1609.344 m exactly: international yard and pound agreement of 1959; NIST SP 811, appendix B. */
 export const METRES_PER_MILE = q(1609344n, 1000n)
@@ -22,6 +22,9 @@ export const msToKmh = (v: Q) => convertSpeed(v, 'm/s', 'km/h')
 export const msToMph = (v: Q) => convertSpeed(v, 'm/s', 'mph')
 export const kmhToMph = (v: Q) => convertSpeed(v, 'km/h', 'mph')
 export const mphToKmh = (v: Q) => convertSpeed(v, 'mph', 'km/h')
+
+/** A published speed (an exact decimal in its unit) in m/s, to compare records published in different units. */
+export const publishedInMs = (r: { speed: string, unit: SpeedUnit }) => convertSpeed(fromDecimal(r.speed), r.unit, 'm/s')
 
 /** For display only (charts, gauges): never for a published figure. */
 export const speedAsNumber = (v: Q, unit: SpeedUnit) => toNumber(convertSpeed(v, 'm/s', unit))

@@ -2,7 +2,15 @@ import { z } from 'zod'
 import { decimalsOf, fromDecimal } from '../rules/exact'
 import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime } from './fields'
-import { AVERAGINGS, DIRECTIONS, POWER_SOURCES, START_KINDS, STREAMLINING, SYSTEM_ROLES } from '../constants'
+import {
+  AVERAGINGS,
+  DIRECTIONS,
+  POWER_SOURCES,
+  RECORD_UNITS,
+  START_KINDS,
+  STREAMLINING,
+  SYSTEM_ROLES,
+} from '../constants'
 
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
 export const decimalText = (maxDecimals: number, opts: { min?: number, max?: number } = {}) =>
@@ -87,7 +95,9 @@ export type TimingSystemInput = z.infer<typeof timingSystemSchema>
 export const standingRecordSchema = z.object({
   className: z.string().trim().min(1).max(80),
   distanceLabel: z.string().trim().min(1).max(40),
-  speedKmh: decimalText(3, { min: 0.001, max: 2000 }),
+  /** The record as published, in its own unit. */
+  speed: decimalText(3, { min: 0.001, max: 2000 }),
+  unit: z.enum(RECORD_UNITS, { error: 'must be km/h or mph' }),
   setOn: day.optional(),
   note: z.string().trim().max(300).default(''),
 })

@@ -55,7 +55,7 @@ describe('the demo seeded two years ahead', () => {
   it('has its runs on the day before the seeding day and a complete, ratified day', async () => {
     // The seed seals, submits and ratifies the streamliner's dossier only when nothing is missing;
     // the ratified record in the book shows that it did.
-    await expect.poll(async () => (await (await fetch(`${base}/api/record-book`)).json()).length, { timeout: 30_000 })
+    await expect.poll(async () => (await (await fetch(`${base}/api/record-book`)).json()).records.length, { timeout: 30_000 })
       .toBe(1)
     const team = await signIn('team@trapline.test')
     const events = await (await fetch(`${base}/api/events`, { headers: { cookie: team } })).json() as any[]

@@ -85,16 +85,19 @@ describe('the demo\'s ratified dossier', () => {
     const trap = (label: string) => setup.courses.flatMap((c: any) => c.traps).find((t: any) => t.label === label).id
     const primary = setup.systems.find((x: any) => x.role === 'primary').id
     const [t1, t2] = timesOver(sheet.attempts.find((a: any) => a.id === first.attempt_id).runs, trap('M-in'), trap('M-out'), primary)
-    expect(row).toMatchObject({ speedKmh: pairSpeed('1609.344', t1!, t2!).kmh })
+    // Kept in the unit the class's record was published in (mph), at its published decimals.
+    expect(row).toMatchObject({ speed: pairSpeed('1609.344', t1!, t2!).mph, unit: 'mph' })
     expect(row.setAt).not.toBeNull()
-    // The book's hand-entered record (385.000 km/h, invented for the demo) still stands for the pair run before it.
+    // The book's hand-entered record (239.227 mph, invented for the demo) still stands for the pair run before it.
     const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team })).body
-    expect(live.find((a: any) => a.id === first.attempt_id).standingRecordKmh).toBe('385.000')
+    expect(live.find((a: any) => a.id === first.attempt_id).standingRecord).toEqual({ speed: '239.227', unit: 'mph' })
     // Each ratified row is faster than every record that stood before it: a tie never displaces the holder.
     const ratified = rows.filter((r: any) => r.dossierId).sort((a: any, b: any) => a.setAt.localeCompare(b.setAt))
     for (const r of ratified) {
       const before = rows.filter((x: any) => !x.setAt || x.setAt < r.setAt)
-      expect(before.every((x: any) => Number(x.speedKmh) < Number(r.speedKmh))).toBe(true)
+      // Compared in m/s: a mile is 1609.344 m and an hour 3600 s (NIST SP 811, appendix B).
+      const ms = (x: any) => Number(x.speed) * (x.unit === 'mph' ? 0.44704 : 1 / 3.6)
+      expect(before.every((x: any) => ms(x) < ms(r))).toBe(true)
     }
   })
 
@@ -209,7 +212,7 @@ describe('submission and ratification', () => {
     expect(decided.status).toBe(201)
     expect((await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'refused', reasons: 'changed my mind', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
     await mailTo('team@trapline.test', 'ratified')
-    const book = (await call('GET', '/api/record-book')).body
+    const book = (await call('GET', '/api/record-book')).body.records
     const mile = book.find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
     expect(mile.dossierUrl).toContain(`/api/dossiers/${built.body.id}/pdf`)
     await expect(db.query('update dossiers set version = 9 where id = $1', [built.body.id])).rejects.toThrow(/append-only/)

@@ -28,13 +28,14 @@ it('the timekeeper enters two runs on the run sheet; the team sees the return-ru
   await expect.poll(() => team.locator('article[data-test^="attempt-"]').count(), { timeout: 10_000 }).toBe(before + 1)
   const card = team.locator('article[data-test^="attempt-"]').first()
   // The record this attempt is measured against is the one standing when it started: the demo book's
-  // 385.000 km/h, or a result ratified since. Hand computation of the target against it (mathjs):
-  // t2 ≤ 2 × 1609.344 m / (record + 0.001 km/h) − 14.5 s, floored at 1/10 000 s (385.000 km/h gives 15.5967 s).
+  // 239.227 mph (published in mph, invented), or a result ratified since. Hand computation of the target
+  // against it (mathjs): t2 ≤ 2 × 1609.344 m / (record + 0.001 in its unit) − 14.5 s, floored at 1/10 000 s
+  // (239.228 mph = 106.944… m/s gives 15.5968 s).
   const cookie = await login('team@trapline.test')
   const attempts = (await call('GET', `/api${await demoEventPath('/live')}`, { cookie })).body as any[]
   const mine = attempts.filter(a => a.entry.machineName === 'Larkspur Fennwick streamliner').sort((a, b) => b.id - a.id)[0]
-  const record = mine.standingRecordKmh as string
-  expect(returnTargetByHand('1609.344', '385.000', secondsOfDay('00:00:14.5'))).toBe('15.5967')
+  const record = mine.standingRecord as { speed: string, unit: 'km/h' | 'mph' }
+  expect(returnTargetByHand('1609.344', { speed: '239.227', unit: 'mph' }, secondsOfDay('00:00:14.5'))).toBe('15.5968')
   const target = returnTargetByHand('1609.344', record, secondsOfDay('00:00:14.5'))
   await expect.poll(() => card.locator('[data-test="live-target"]').innerText(), { timeout: 10_000 }).toContain(`${target} s`)
   expect(await card.locator('[data-test="live-window"]').innerText()).toMatch(/window closes in\s+1 h 5\d min/i)
@@ -42,7 +43,9 @@ it('the timekeeper enters two runs on the run sheet; the team sees the return-ru
   // Back: the mile in 14.3000 s. Mean 14.4000 s → 1609.344 / 14.4 × 3.6 = 402.336 km/h exactly.
   await enterRun(tk, 'back', ['10:30:00.0000', '10:30:02.7000', '10:30:11.5500', '10:30:14.3000'])
   await expect.poll(() => card.locator('[data-test="live-result"]').innerText(), { timeout: 10_000 }).toContain('402.336')
-  expect(await card.innerText()).toContain(Number('402.336') > Number(record) ? 'Beats the standing record' : 'Does not beat the standing record')
+  // 402.336 km/h is 250.000 mph exactly (below).
+  const beats = Number(record.unit === 'mph' ? '250.000' : '402.336') > Number(record.speed)
+  expect(await card.innerText()).toContain(beats ? 'Beats the standing record' : 'Does not beat the standing record')
   await team.getByRole('button', { name: 'mph' }).click()
   // 402.336 km/h ÷ 1.609344 = 250.000 mph exactly (the mile in 14.4 s is 3600 / 14.4 mph).
   await expect.poll(() => card.locator('[data-test="live-result"]').innerText()).toContain('250.000')

@@ -46,8 +46,15 @@ export function timesOver(runs: SheetRun[], entryTrapId: number, exitTrapId: num
  * The longest return time that still beats a record by the smallest step of the published figure,
  * under the mean of times: t2 ≤ 2d / V − t1, floored to the timing resolution.
  */
-export function returnTargetByHand(metres: string, recordKmh: string, t1: BigNumber, decimals = 4) {
-  const needed = big(recordKmh).add('0.001').div(3.6)
+export function returnTargetByHand(
+  metres: string,
+  record: { speed: string, unit: 'km/h' | 'mph' },
+  t1: BigNumber,
+  decimals = 4,
+) {
+  // Exceed the record at its published decimals, in its own unit: one unit of the third decimal more.
+  const over = big(record.speed).add('0.001')
+  const needed = record.unit === 'mph' ? over.mul('0.44704') : over.div(3.6)
   const longest = big(metres).mul(2).div(needed).sub(t1)
   const scale = big(10).pow(decimals)
   return longest.mul(scale).floor().div(scale).toFixed(decimals)

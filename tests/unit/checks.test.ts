@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { checkGradient, crossCheck, massClass, windComponents } from '#shared/rules/checks'
 import { fromDecimal, toFixed } from '#shared/rules/exact'
+import { checkMeasuredDistance } from '#shared/rules/course'
 import { profiles } from '#shared/rules/profiles'
 import { parseTimeOfDay, segmentTime } from '#shared/rules/timing'
 
@@ -28,6 +29,42 @@ describe('gradient', () => {
     // Source: FIM world records page (seen): gradient at most 1 %. 11 m over 1000 m is 1.1 %.
     expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('1.1'))[0]?.code).toBe('course.gradient-over-limit')
     expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('-1.0'))).toEqual([])
+  })
+})
+
+describe('measured distance against its survey', () => {
+  const mile = (exitM: string, tolMm = 10) => checkMeasuredDistance(
+    profiles['intl-motorcycle'],
+    { positionM: '3000', elevationM: '0' },
+    { positionM: exitM, elevationM: '0' },
+    '1609.344', // 1 mile = 1609.344 m exactly (NIST SP 811, appendix B)
+    tolMm,
+  )
+
+  it('never accepts a distance shorter than nominal, even within the tolerance', () => {
+    // Common practice, reasoned: a shorter distance timed as the nominal one inflates the speed.
+    const short = mile('4609.343')
+    expect(short.withinTolerance).toBe(false)
+    expect(short.findings.map(f => [f.code, f.severity])).toEqual([['course.distance-off-survey', 'fail']])
+    expect(short.findings[0]!.message).toMatch(/1\.0 mm shorter than the nominal/)
+  })
+
+  it('accepts a longer one within the survey tolerance only', () => {
+    expect(mile('4609.354').withinTolerance).toBe(true) // 10 mm longer, tolerance 10 mm
+    expect(mile('4609.355').withinTolerance).toBe(false) // 11 mm longer
+    expect(mile('4609.344').findings).toEqual([])
+  })
+
+  it('fails a gradient over the profile limit', () => {
+    // Source: FIM world records page (seen): gradient at most 1 %; 16.1 m rise over 1609.344 m is 1.0004 %.
+    const steep = checkMeasuredDistance(
+      profiles['intl-motorcycle'],
+      { positionM: '0', elevationM: '0' },
+      { positionM: '1609.344', elevationM: '16.1' },
+      '1609.344',
+      10,
+    )
+    expect(steep.findings.map(f => [f.code, f.severity])).toEqual([['course.gradient-over-limit', 'fail']])
   })
 })
 

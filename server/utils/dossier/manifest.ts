@@ -32,7 +32,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       window: live.window,
       valid: live.valid,
       beatsRecord: live.beatsRecord,
-      standingRecordKmh: live.standingRecordKmh,
+      standingRecord: live.standingRecord,
       required: live.required,
       findings: live.findings.map(f => ({ code: f.code, message: f.message })),
     },

@@ -14,10 +14,11 @@ const averageWords = (m: Manifest) =>
   (meanOfTimes(m) ? 'distance over the mean of the two times' : 'mean of the two speeds')
 
 function standingRecordLine(m: Manifest) {
-  const { standingRecordKmh, beatsRecord, required } = m.result
-  if (!standingRecordKmh) return 'none in the book'
+  const { standingRecord, beatsRecord, required } = m.result
+  if (!standingRecord) return 'none in the book'
   const needed = required ? ` (at least ${required.figure} ${required.unit} needed)` : ''
-  return `${standingRecordKmh} km/h; ${beatsRecord ? 'beaten' : 'not beaten'}${needed}`
+  // In the unit the record was published in, compared in that unit.
+  return `${standingRecord.speed} ${standingRecord.unit}; ${beatsRecord ? 'beaten' : 'not beaten'}${needed}`
 }
 
 export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {

@@ -1,6 +1,9 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
 import { cmp, fromDecimal } from '#shared/rules/exact'
+import { convertSpeed, publishedInMs } from '#shared/rules/units'
 import { localDate } from '#shared/rules/zoned'
+import { buildRecordBook } from '#shared/rules/record-book'
+import type { Manifest } from './manifest'
 import type { EventAccess } from '../auth/auth'
 import type { DecisionInput } from '#shared/schemas/inspection'
 
@@ -180,62 +183,50 @@ export async function decideDossier(
   return decision
 }
 
-/** Current records: the best ratified result per class and distance. */
+/**
+ * The record book: the best ratified result per class and distance, and the ratified results a
+ * best-per-day rule did not carry forward. Dates are the event's local dates of the runs.
+ */
 export async function recordBook() {
   const rows = await useDb()
-    .select({ d: tables.dossiers, decidedAt: tables.decisions.decidedAt })
+    .select({ d: tables.dossiers })
     .from(tables.decisions)
     .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
     .where(eq(tables.decisions.decision, 'ratified'))
     .orderBy(asc(tables.decisions.id))
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const best = new Map<
-    string,
-    {
-      class: string
-      distance: string
-      speedKmh: string
-      speedMph: string
-      date: string
-      dossierUrl: string
-      verifyUrl: string
-      machine: string
-      rider: string
-      team: string
-    }
-  >()
-  for (const { d } of rows) {
-    const m = d.manifest as {
-      entry: { className: string, distanceLabel: string, machineName: string, riderName: string, teamName: string }
-      result: { kmh: string, mph: string }
-      runs: { startedAt: string, counted: boolean }[]
-      event: { timeZone: string }
-    }
-    const key = `${m.entry.className}\u0000${m.entry.distanceLabel}`
-    const date = m.runs
-      .filter(r => r.counted)
-      .map(r => r.startedAt)
-      .sort()
-      .at(-1)!
-      .slice(0, 10)
-    const current = best.get(key)
-    // Equal speeds: the later ratification (a newer version of the same dossier) stands.
-    if (!current || Number(m.result.kmh) >= Number(current.speedKmh)) {
-      best.set(key, {
-        class: m.entry.className,
-        distance: m.entry.distanceLabel,
-        speedKmh: m.result.kmh,
-        speedMph: m.result.mph,
-        date,
+  const book = buildRecordBook(rows.map(({ d }, order) => {
+    const m = d.manifest as Manifest
+    const lastRun = Math.max(...m.runs.filter(r => r.counted).map(r => Date.parse(r.startedAt)))
+    return {
+      attemptId: d.attemptId,
+      className: m.entry.className,
+      distanceLabel: m.entry.distanceLabel,
+      kmh: m.result.kmh!,
+      date: localDate(lastRun, m.event.timeZone),
+      bestPerDayOnly: m.profile.bestPerDayOnly?.value === true,
+      order,
+      extra: {
+        speedMph: m.result.mph!,
         dossierUrl: `${site}/api/dossiers/${d.id}/pdf`,
         verifyUrl: `${site}/verify`,
         machine: m.entry.machineName,
         rider: m.entry.riderName,
         team: m.entry.teamName,
-      })
+      },
     }
+  }))
+  const row = (r: (typeof book.records)[number]) => ({
+    class: r.className,
+    distance: r.distanceLabel,
+    speedKmh: r.kmh,
+    date: r.date,
+    ...r.extra,
+  })
+  return {
+    records: book.records.map(row),
+    notCarriedForward: book.notCarriedForward.map(r => ({ ...row(r), bestOfDay: row(r.bestOfDay) })),
   }
-  return [...best.values()].sort((a, b) => a.class.localeCompare(b.class) || a.distance.localeCompare(b.distance))
 }
 
 export async function isRatified(dossierId: number) {
@@ -249,38 +240,41 @@ export async function isRatified(dossierId: number) {
 /**
  * A ratified result becomes the event's standing record for its class and distance from the moment
  * of ratification, when it is faster than the record standing then; a tie never displaces the holder.
+ * It is kept in the unit the class's record was published in (km/h when the book had none), and
+ * compared in that unit at the profile's published decimals.
  */
 async function standFromRatification(tx: Tx, d: typeof tables.dossiers.$inferSelect, ratifiedAt: Date) {
   const m = d.manifest as {
     entry: { className: string, distanceLabel: string }
-    result: { kmh: string }
+    result: { kmh: string, mph: string }
     event: { timeZone: string }
   }
   const { className, distanceLabel } = m.entry
   const records = tables.standingRecords
   const standing = await tx
-    .select({ speedKmh: records.speedKmh })
+    .select({ speed: records.speed, unit: records.unit })
     .from(records)
     .where(and(
       eq(records.eventId, d.eventId),
       eq(records.className, className),
       eq(records.distanceLabel, distanceLabel),
     ))
-  const best = standing.reduce<string | null>(
-    (b, r) => (b === null || cmpDecimal(r.speedKmh, b) > 0 ? r.speedKmh : b),
+  const best = standing.reduce<typeof standing[number] | null>(
+    (b, r) => (b === null || cmp(publishedInMs(r), publishedInMs(b)) > 0 ? r : b),
     null,
   )
-  if (best !== null && cmpDecimal(m.result.kmh, best) <= 0) return
+  const unit = best?.unit ?? 'km/h'
+  const speed = unit === 'mph' ? m.result.mph : m.result.kmh
+  if (best !== null && cmp(fromDecimal(speed), convertSpeed(publishedInMs(best), 'm/s', unit)) <= 0) return
   await tx.insert(records).values({
     eventId: d.eventId,
     className,
     distanceLabel,
-    speedKmh: m.result.kmh,
+    speed,
+    unit,
     setOn: localDate(ratifiedAt.getTime(), m.event.timeZone),
     setAt: ratifiedAt,
     dossierId: d.id,
     note: `ratified dossier #${d.id}, version ${d.version}`,
   })
 }
-
-const cmpDecimal = (a: string, b: string) => cmp(fromDecimal(a), fromDecimal(b))

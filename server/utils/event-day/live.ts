@@ -2,6 +2,7 @@ import { evaluateAttempt, type AttemptResult } from '#shared/rules/attempt'
 import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
 import { formatTimeOfDay } from '#shared/rules/timing'
+import { publishedInMs } from '#shared/rules/units'
 import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import type { EventDay } from './load'
 
@@ -64,7 +65,7 @@ function recordStandingAt(ix: DayIndex, attempt: Attempt, className: string, dis
     // A record set by this attempt's own ratification is never held against it.
     .filter(r => !r.setAt || (r.setAt.getTime() <= from && r.fromAttemptId !== attempt.id))
     .reduce<typeof ix.day.records[number] | undefined>(
-      (best, r) => (!best || cmp(fromDecimal(r.speedKmh), fromDecimal(best.speedKmh)) > 0 ? r : best),
+      (best, r) => (!best || cmp(publishedInMs(r), publishedInMs(best)) > 0 ? r : best),
       undefined,
     )
 }
@@ -130,7 +131,8 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
       elapsedS: r.official!.exactS,
       finishedAtMs: leftDistanceAt(ix, r, distance),
     })),
-    record: record ? { value: fromDecimal(record.speedKmh), unit: 'km/h' } : undefined,
+    // Compared in the unit the record was published in, at its exact decimal.
+    record: record ? { value: fromDecimal(record.speed), unit: record.unit } : undefined,
     timeZone: ix.day.event.timeZone,
     timeDecimals: ix.timeDecimals,
   })
@@ -228,7 +230,7 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
       distanceM: distance.nominalM,
     },
     profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
-    standingRecordKmh: record?.speedKmh ?? null,
+    standingRecord: record ? { speed: record.speed, unit: record.unit } : null,
     runs: runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings)),
     ...liveResult(ix, evaluateCounted(ix, attempt, setting, counted), counted.slice(0, 2)),
     sheet: sheetState(ix.day, attempt.id),

@@ -1,0 +1,58 @@
+import { cmp, fromDecimal } from './exact'
+
+/** A ratified result as the record book reads it from its sealed dossier. */
+export interface RatifiedResult<T = unknown> {
+  attemptId: number
+  className: string
+  distanceLabel: string
+  /** The result in km/h as published (the same exact value gives the mph figure). */
+  kmh: string
+  /** The event's local date of the result's runs. */
+  date: string
+  /** Whether the profile in force carries forward only the best result per class each day. */
+  bestPerDayOnly: boolean
+  /** Order of ratification; a later version of the same attempt's dossier replaces the earlier. */
+  order: number
+  extra: T
+}
+
+export interface RecordBook<T> {
+  /** The record per class and distance: the fastest carried-forward result; a tie never displaces the holder. */
+  records: RatifiedResult<T>[]
+  /** Ratified results that a best-per-day rule did not carry forward, with the one that was. */
+  notCarriedForward: (RatifiedResult<T> & { bestOfDay: RatifiedResult<T> })[]
+}
+
+const key = (r: RatifiedResult<unknown>) => `${r.className}\u0000${r.distanceLabel}`
+const faster = (a: RatifiedResult<unknown>, b: RatifiedResult<unknown>) => cmp(fromDecimal(a.kmh), fromDecimal(b.kmh)) > 0
+
+/**
+ * The record book from the ratified results: one result per attempt (its latest ratified version);
+ * where the profile says so, only the best per class, distance and day goes forward; then the
+ * fastest per class and distance stands, the earlier holder keeping it on a tie.
+ */
+export function buildRecordBook<T>(ratified: RatifiedResult<T>[]): RecordBook<T> {
+  const byAttempt = new Map<number, RatifiedResult<T>>()
+  for (const r of [...ratified].sort((a, b) => a.order - b.order)) byAttempt.set(r.attemptId, r)
+  const results = [...byAttempt.values()].sort((a, b) => a.order - b.order)
+  const bestOfDay = new Map<string, RatifiedResult<T>>()
+  for (const r of results) {
+    const day = `${key(r)}\u0000${r.date}`
+    const best = bestOfDay.get(day)
+    if (!best || faster(r, best)) bestOfDay.set(day, r)
+  }
+  const notCarriedForward: RecordBook<T>['notCarriedForward'] = []
+  const standing = new Map<string, RatifiedResult<T>>()
+  for (const r of results) {
+    const best = bestOfDay.get(`${key(r)}\u0000${r.date}`)!
+    if (r.bestPerDayOnly && best !== r) {
+      notCarriedForward.push({ ...r, bestOfDay: best })
+      continue
+    }
+    const holder = standing.get(key(r))
+    if (!holder || faster(r, holder)) standing.set(key(r), r)
+  }
+  const records = [...standing.values()]
+    .sort((a, b) => a.className.localeCompare(b.className) || a.distanceLabel.localeCompare(b.distanceLabel))
+  return { records, notCarriedForward }
+}

@@ -1,0 +1,44 @@
+import { describe, expect, it } from 'vitest'
+import { buildRecordBook, type RatifiedResult } from '#shared/rules/record-book'
+
+let order = 0
+const result = (attemptId: number, kmh: string, date: string, bestPerDayOnly = true): RatifiedResult<string> => ({
+  attemptId,
+  className: 'Electric, fully streamlined',
+  distanceLabel: 'Flying mile',
+  kmh,
+  date,
+  bestPerDayOnly,
+  order: order++,
+  extra: `attempt ${attemptId}`,
+})
+
+describe('the record book', () => {
+  it('carries forward only the best result per class each day where the profile says so', () => {
+    // Source: FIM rulebook extract (seen): only the best result per class each day goes forward.
+    const book = buildRecordBook([
+      result(1, '401.000', '2026-08-14'),
+      result(2, '405.500', '2026-08-14'),
+      result(3, '403.000', '2026-08-15'),
+    ])
+    expect(book.records.map(r => r.attemptId)).toEqual([2])
+    expect(book.notCarriedForward.map(r => [r.attemptId, r.bestOfDay.attemptId])).toEqual([[1, 2]])
+  })
+
+  it('carries every result forward under a profile without that rule', () => {
+    const book = buildRecordBook([result(1, '401.000', '2026-08-14', false), result(2, '405.500', '2026-08-14', false)])
+    expect(book.records.map(r => r.attemptId)).toEqual([2])
+    expect(book.notCarriedForward).toEqual([])
+  })
+
+  it('never lets a tie displace the holder', () => {
+    // Common practice: a record must be exceeded, so an equal figure leaves the earlier holder in the book.
+    const book = buildRecordBook([result(1, '405.500', '2026-08-14', false), result(2, '405.500', '2026-08-15', false)])
+    expect(book.records.map(r => r.attemptId)).toEqual([1])
+  })
+
+  it('reads one result per attempt, its latest ratified version', () => {
+    const book = buildRecordBook([result(1, '401.000', '2026-08-14'), { ...result(1, '400.900', '2026-08-14') }])
+    expect(book.records.map(r => r.kmh)).toEqual(['400.900'])
+  })
+})
