@@ -24,7 +24,8 @@ export interface RecordBook<T> {
 }
 
 const key = (r: RatifiedResult<unknown>) => `${r.className}\u0000${r.distanceLabel}`
-const faster = (a: RatifiedResult<unknown>, b: RatifiedResult<unknown>) => cmp(fromDecimal(a.kmh), fromDecimal(b.kmh)) > 0
+const faster = (a: RatifiedResult<unknown>, b: RatifiedResult<unknown>) =>
+  cmp(fromDecimal(a.kmh), fromDecimal(b.kmh)) > 0
 
 /**
  * The record book from the ratified results: one result per attempt (its latest ratified version);
