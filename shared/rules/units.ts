@@ -24,7 +24,8 @@ export const kmhToMph = (v: Q) => convertSpeed(v, 'km/h', 'mph')
 export const mphToKmh = (v: Q) => convertSpeed(v, 'mph', 'km/h')
 
 /** A published speed (an exact decimal in its unit) in m/s, to compare records of different units. */
-export const publishedInMs = (r: { speed: string, unit: SpeedUnit }) => convertSpeed(fromDecimal(r.speed), r.unit, 'm/s')
+export const publishedInMs = (r: { speed: string, unit: SpeedUnit }) =>
+  convertSpeed(fromDecimal(r.speed), r.unit, 'm/s')
 
 /** For display only (charts, gauges): never for a published figure. */
 export const speedAsNumber = (v: Q, unit: SpeedUnit) => toNumber(convertSpeed(v, 'm/s', unit))
