@@ -63,6 +63,8 @@ export interface AttemptResult {
   valid: boolean
   /** True only for a valid result that meets the profile's improvement rule. */
   beatsRecord: boolean | null
+  /** Whether the figure meets the improvement rule, valid or not (null without a record or a result). */
+  meetsImprovement: boolean | null
   /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
   returnTargetS: Q | null
   findings: Finding[]

@@ -40,6 +40,7 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     required: record?.required ?? null,
     valid,
     beatsRecord: record?.beatsRecord == null ? null : record.beatsRecord && valid,
+    meetsImprovement: record?.beatsRecord ?? null,
     returnTargetS: record?.returnTargetS ?? null,
     findings,
   }

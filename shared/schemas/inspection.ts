@@ -78,3 +78,12 @@ export const decisionSchema = signRecordSchema.extend({
   reasons: z.string().trim().min(3, { error: 'give the reasons in writing' }).max(4000),
 })
 export type DecisionInput = z.infer<typeof decisionSchema>
+
+/** An official sets a failing finding aside, signed, with the reason in writing. */
+export const setAsideSchema = signSheetSchema.extend({
+  code: z.string().trim().min(1, { error: 'name the finding' }).max(80),
+  /** The run whose finding it is; absent for a finding of the pair or the attempt. */
+  runId: id.nullable().default(null),
+  reason: z.string().trim().min(10, { error: 'give the reason in writing (at least 10 characters)' }).max(2000),
+})
+export type SetAsideInput = z.infer<typeof setAsideSchema>

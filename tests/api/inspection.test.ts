@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { allItems } from '#shared/inspection/evaluate'
 import { electricMotorcycle } from '#shared/inspection/templates'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, invitedPerson, login, useTestServer } from '../support/api'
+import { answerAll, newEntry } from '../support/entries'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -18,38 +19,16 @@ beforeAll(async () => {
   cookie.team = await login('team@trapline.test')
   cookie.team2 = await login('team2@trapline.test')
   eventId = await demoEventId(cookie.organiser)
-  entryId = await newEntry('Cinder Brandle')
+  entryId = await newEntry(eventId, 'Cinder Brandle')
 })
-
-/** A new entry of the second demo team, owned by the test that makes it. */
-async function newEntry(machineName: string) {
-  const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.team2 })).body
-  const kilometre = setup.distances.find((d: { label: string }) => d.label === 'Flying kilometre').id
-  const entry = await call('POST', `/api/events/${eventId}/entries`, {
-    cookie: cookie.team2,
-    body: { machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: 'partial' }, rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: '2099-12-31' }, className: 'Electric, partially streamlined', distanceId: kilometre },
-  })
-  expect(entry.status).toBe(201)
-  return entry.body.id as number
-}
 
 const answer = (id: number, body: Record<string, unknown>) => call('POST', `/api/inspections/${id}/answers`, { cookie: cookie.scrutineer, body })
 const startRun = () => call('POST', `/api/events/${eventId}/runs`, { cookie: cookie.timekeeper, body: { entryId, direction: 'out', startedAt: new Date().toISOString() } })
 
-async function answerAll(id: number, failing?: string) {
-  for (const i of allItems(electricMotorcycle)) {
-    const result = i.key === failing ? 'fail' : 'pass'
-    const measured: Record<string, [number, string]> = { 'isolation': [80, 'kΩ'], 'bonding': [0.05, 'Ω'], 'canopy-exit': [12, 's'], 'mass': [181.5, 'kg'] }
-    const [value, unit] = measured[i.key] ?? []
-    const r = await answer(id, { itemKey: i.key, result, value, unit })
-    expect(r.status, JSON.stringify(r.body)).toBe(200)
-  }
-}
-
 // The steps of one entry's inspections, in their order: the failed inspection, then the re-inspection.
 describe('an inspection from start to clearance', { shuffle: false }, () => {
   it('an entry with no inspection cannot start a run (409 with why)', async () => {
-    const fresh = await newEntry('Cinder Quill')
+    const fresh = await newEntry(eventId, 'Cinder Quill')
     const r = await call('POST', `/api/events/${eventId}/runs`, { cookie: cookie.timekeeper, body: { entryId: fresh, direction: 'out', startedAt: new Date().toISOString() } })
     expect(r.status).toBe(409)
     expect(r.body.statusMessage).toContain('no technical inspection yet')

@@ -34,7 +34,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       beatsRecord: live.beatsRecord,
       standingRecord: live.standingRecord,
       required: live.required,
-      findings: live.findings.map(f => ({ code: f.code, message: f.message })),
+      findings: live.findings.map(manifestFinding),
     },
     timingSheet: live.sheet.history.map(h => ({
       kind: h.kind,
@@ -91,6 +91,14 @@ function manifestCourse({ day, distance }: Readiness) {
   }
 }
 
+/** A finding with the official's signed decision that set it aside, if one did. */
+const manifestFinding = (f: Readiness['live']['findings'][number]) => ({
+  code: f.code,
+  severity: f.severity,
+  message: f.message,
+  setAside: f.setAside ?? null,
+})
+
 const trapLabels = (day: EventDay) => new Map(day.traps.map(t => [t.id, t.label]))
 
 function manifestRuns({ day, live, attemptId }: Readiness) {
@@ -108,6 +116,7 @@ function manifestRuns({ day, live, attemptId }: Readiness) {
       crossChecks: lr.crossChecks,
       weather: lr.weather,
       wind: lr.wind,
+      findings: lr.findings.map(manifestFinding),
     }
   })
 }

@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
+import { blocks, mayBeSetAside } from '#shared/rules/findings'
 
 export interface ReadinessItem {
   key: string
@@ -7,6 +8,8 @@ export interface ReadinessItem {
   met: boolean
   detail: string
   fix: string
+  /** For a failing finding: which, and whether an official may still set it aside. */
+  finding?: { code: string, runId: number | null, setAsideable: boolean }
 }
 
 /** Everything an attempt's file is judged on, read once. */
@@ -45,18 +48,15 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
   const needed = attempt.profile.witnessStatements.value
   // Witnesses are people: a statement counts once per official.
   const witnesses = new Set(statements.map(s => s.authorId)).size
-  // Every failing finding blocks: the pair's (directions, window) and its counted runs' (cross-check, wind…).
-  const failing = [...live.findings, ...counted.flatMap(r => r.findings)].filter(f => f.severity === 'fail')
-  const pairDetail = !live.result
-    ? `${counted.length} complete run(s) so far`
-    : failing.length ? failing.map(f => f.message).join(' ') : `${live.result.kmh} km/h, ${live.window?.rule}`
   return [
     {
       key: 'pair',
-      label: 'A valid pair of runs under the profile',
+      label: 'A complete pair of runs under the profile',
       fix: `${at}/live`,
-      met: !!live.result && counted.length === 2 && live.valid && failing.length === 0,
-      detail: pairDetail,
+      met: !!live.result && counted.length === 2,
+      detail: live.result
+        ? `${live.result.kmh} km/h, ${live.window?.rule}`
+        : `${counted.length} complete run(s) so far`,
     },
     {
       key: 'timing-sheet',
@@ -84,6 +84,38 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
       detail: `${witnesses} official(s) with a signed statement that stands`,
     },
   ]
+}
+
+/** Where a finding is resolved, by what it is about. */
+function findingFix(at: string, code: string, attemptId: number) {
+  if (code.startsWith('timing.') || code.startsWith('reading.') || code.startsWith('wind.')) return `${at}/run-sheet`
+  if (code.startsWith('course.')) return `${at}/setup`
+  if (code.startsWith('rider.')) return `${at}/entries`
+  if (mayBeSetAside({ code, severity: 'fail' })) return `/attempts/${attemptId}/dossier#set-aside`
+  return `${at}/live`
+}
+
+/**
+ * Each failing finding of the attempt and of its counted runs, one item each: it blocks the dossier
+ * until it is resolved where it arose, or an official sets it aside with a signed, written reason.
+ */
+function findingItems({ at, live, counted, attemptId }: AttemptFile): ReadinessItem[] {
+  const all = [
+    ...live.findings.map(f => ({ f, runId: null as number | null })),
+    ...counted.flatMap(r => r.findings.map(f => ({ f, runId: r.id as number | null }))),
+  ].filter(({ f }) => f.severity === 'fail')
+  return all.map(({ f, runId }) => ({
+    key: `finding-${f.code}-${runId ?? 'attempt'}`,
+    label: `${runId ? `Run #${runId}` : 'The attempt'}: ${f.message}`,
+    fix: findingFix(at, f.code, attemptId),
+    met: !blocks(f),
+    detail: f.setAside
+      ? `set aside by ${f.setAside.by}: ${f.setAside.reason}`
+      : mayBeSetAside(f)
+        ? 'blocks the dossier until it is resolved, or an official sets it aside with a signed, written reason'
+        : 'blocks the dossier: the result does not meet the profile\'s improvement rule',
+    finding: { code: f.code, runId, setAsideable: mayBeSetAside(f) && !f.setAside },
+  }))
 }
 
 /** The course survey and each timing system's calibration, valid on the days of the runs. */
@@ -150,7 +182,7 @@ function runAndRiderItems({ at, counted, entry, evidence, runDays }: AttemptFile
  */
 export async function readinessOf(eventId: number, attemptId: number) {
   const file = await loadAttemptFile(eventId, attemptId)
-  const items = [...recordItems(file), ...equipmentItems(file), ...runAndRiderItems(file)]
+  const items = [...recordItems(file), ...findingItems(file), ...equipmentItems(file), ...runAndRiderItems(file)]
   const { live, day, entry, distance, evidence, statements, clearance } = file
   const ready = items.every(i => i.met)
   return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance }

@@ -13,6 +13,14 @@ const meanOfTimes = (m: Manifest) => m.profile.averaging.value === 'mean-of-time
 const averageWords = (m: Manifest) =>
   (meanOfTimes(m) ? 'distance over the mean of the two times' : 'mean of the two speeds')
 
+function validLine(m: Manifest) {
+  if (!m.result.valid) return 'NO: see the computation\'s findings'
+  const setAside = [...m.result.findings, ...m.runs.flatMap(r => r.findings ?? [])].filter(f => f.setAside).length
+  return setAside
+    ? `yes: ${setAside} failing finding(s) set aside by an official's signed decision, printed with the computation`
+    : 'yes: no finding fails it'
+}
+
 function standingRecordLine(m: Manifest) {
   const { standingRecord, beatsRecord, required } = m.result
   if (!standingRecord) return 'none in the book'
@@ -39,7 +47,7 @@ export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
     ['Event', `${m.event.name}, ${m.event.venue}`],
     ['Rule profile', `${m.profile.name}, version ${m.profile.version}`],
     ['Time window', `${window?.ok ? 'within' : 'NOT within'}: ${window?.rule ?? ''}`],
-    ['Valid under the profile', m.result.valid ? 'yes: no finding fails it' : 'NO: see the computation\'s findings'],
+    ['Valid under the profile', validLine(m)],
     ['Standing record', standingRecordLine(m)],
     ['Dossier', `version ${m.dossier.version}, sealed ${utcStamp(m.dossier.issuedAt)} UTC`],
     ['Manifest SHA-256', seal.sha256],
@@ -123,6 +131,17 @@ function renderPairResult(L: PdfLayout, m: Manifest) {
   })
 }
 
+/** A finding, and beside it the official's signed decision that set it aside. */
+function renderFinding(L: PdfLayout, f: Manifest['result']['findings'][number]) {
+  L.text(`Finding ${f.code}${f.severity === 'fail' ? ' (fails the profile)' : ''}: ${f.message}`, { color: 'grey' })
+  if (f.setAside) {
+    L.text(
+      `SET ASIDE by ${f.setAside.by}, ${f.setAside.at}, signed decision #${f.setAside.id}: ${f.setAside.reason}`,
+      { indent: 10, bold: true },
+    )
+  }
+}
+
 function renderProfileInForce(L: PdfLayout, m: Manifest) {
   L.heading('Rule profile in force', 12)
   const keys = Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]
@@ -145,7 +164,9 @@ export function renderComputation(L: PdfLayout, m: Manifest) {
   L.newPage().heading('Computation sheet')
   for (const run of m.runs) renderRunComputation(L, m, run)
   if (m.result.kmh) renderPairResult(L, m)
-  for (const f of m.result.findings) L.text(`Finding ${f.code}: ${f.message}`, { color: 'grey' })
+  const runFindings = m.runs.filter(r => r.counted)
+    .flatMap(r => (r.findings ?? []).map(f => ({ ...f, message: `run #${r.id}: ${f.message}` })))
+  for (const f of [...m.result.findings, ...runFindings]) renderFinding(L, f)
   renderProfileInForce(L, m)
 }
 

@@ -2,6 +2,8 @@ import { evaluateAttempt, type AttemptResult } from '#shared/rules/attempt'
 import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
 import { formatTimeOfDay } from '#shared/rules/timing'
+import { checkMeasuredDistance } from '#shared/rules/course'
+import { blocks, withSetAsides, type Finding } from '#shared/rules/findings'
 import { publishedInMs } from '#shared/rules/units'
 import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import type { EventDay } from './load'
@@ -75,7 +77,10 @@ function attemptSetting(ix: DayIndex, attempt: Attempt) {
   const e = ix.entryById.get(attempt.entryId)!
   const distance = ix.distanceById.get(e.entry.distanceId)!
   const course = ix.courseById.get(distance.courseId)!
-  return { e, distance, course, record: recordStandingAt(ix, attempt, e.entry.className, distance.label) }
+  const setAsides = ix.day.setAsides
+    .filter(s => s.attemptId === attempt.id)
+    .map(s => ({ ...s, at: s.createdAt.toISOString() }))
+  return { e, distance, course, setAsides, record: recordStandingAt(ix, attempt, e.entry.className, distance.label) }
 }
 type Setting = ReturnType<typeof attemptSetting>
 
@@ -139,7 +144,13 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
 }
 
 /** One run as the pages show it. */
-function liveRun(ix: DayIndex, { distance }: Setting, r: ComputedRun, counted: boolean, withReadings: boolean) {
+function liveRun(
+  ix: DayIndex,
+  { distance, setAsides }: Setting,
+  r: ComputedRun,
+  counted: boolean,
+  withReadings: boolean,
+) {
   const { run, c, official, readings, weather } = r
   const officialFigures = official
     ? c.systems.find(s => s.systemId === official.systemId)!.distances.find(d => d.distanceId === distance.id)!
@@ -173,17 +184,42 @@ function liveRun(ix: DayIndex, { distance }: Setting, r: ComputedRun, counted: b
           pressureHpa: weather.pressureHpa,
         }
       : null,
-    findings: c.findings,
+    findings: withSetAsides(c.findings, run.id, setAsides),
   }
 }
 
+/**
+ * Findings of what the attempt rests on: the measured distance against its survey (shorter than
+ * nominal, or longer beyond the tolerance) and its gradient under the attempt's profile; the rider's
+ * licence on each day a counted run was made, in the event's zone.
+ */
+function settingFindings(ix: DayIndex, attempt: Attempt, { e, distance, course }: Setting, counted: ComputedRun[]) {
+  const trap = (id: number) => ix.day.traps.find(t => t.id === id)!
+  const survey = checkMeasuredDistance(
+    attempt.profile,
+    trap(distance.entryTrapId),
+    trap(distance.exitTrapId),
+    distance.nominalM,
+    course.surveyToleranceMm,
+  )
+  const findings: Finding[] = [...survey.findings]
+  const zone = ix.day.event.timeZone
+  const late = [...new Set(counted.map(r => localDate(r.run.startedAt.getTime(), zone)))]
+    .filter(d => d > e.rider.licenceExpires)
+  if (late.length) {
+    findings.push({
+      code: 'rider.licence-expired',
+      severity: 'fail',
+      message: `The rider's licence ${e.rider.licenceNo} expired on ${e.rider.licenceExpires}, before the run(s) `
+        + `of ${late.join(', ')}.`,
+    })
+  }
+  return findings
+}
+
 /** The pair's figures, window and margin as the pages show them. */
-function liveResult(ix: DayIndex, evaluation: AttemptResult | null, pair: ComputedRun[]) {
+function liveResult(ix: DayIndex, evaluation: AttemptResult | null, findings: Finding[], valid: boolean) {
   const { timeDecimals } = ix
-  // Valid is one answer: no failing finding of the pair (directions, window) nor of its runs (a
-  // cross-check, a tail wind over the limit, a reading out of order).
-  const runsPass = pair.every(r => !r.c.findings.some(f => f.severity === 'fail'))
-  const valid = !!evaluation && evaluation.valid && runsPass
   return {
     valid,
     result: evaluation?.result
@@ -201,12 +237,12 @@ function liveResult(ix: DayIndex, evaluation: AttemptResult | null, pair: Comput
           opens: iso(evaluation.window.opensMs),
         }
       : null,
-    beatsRecord: evaluation?.beatsRecord == null ? null : evaluation.beatsRecord && valid,
+    beatsRecord: evaluation?.meetsImprovement == null ? null : evaluation.meetsImprovement && valid,
     required: evaluation?.required ? { figure: evaluation.required.text, unit: evaluation.required.unit } : null,
-    returnTargetS: pair.length === 1 && evaluation?.returnTargetS
+    returnTargetS: evaluation?.runs.length === 1 && evaluation.returnTargetS
       ? toFixed(evaluation.returnTargetS, timeDecimals)
       : null,
-    findings: evaluation?.findings ?? [],
+    findings,
   }
 }
 
@@ -217,6 +253,18 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
   const counted = runs.filter(r => r.run.status !== 'aborted' && r.official)
   const pair = new Set(counted.slice(0, 2).map(x => x.run.id))
   const { profile } = attempt
+  const evaluation = evaluateCounted(ix, attempt, setting, counted)
+  const liveRuns = runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings))
+  const findings = withSetAsides(
+    [...(evaluation?.findings ?? []), ...(counted.length ? settingFindings(ix, attempt, setting, counted) : [])],
+    null,
+    setting.setAsides,
+  )
+  // Valid is one answer: no failing finding that stands, of the pair (directions, window), of what it
+  // rests on (survey, licence) or of its counted runs (a cross-check, a tail wind, a reading out of order).
+  const valid = !!evaluation
+    && ![...findings, ...liveRuns.filter(r => r.counted).flatMap(r => r.findings)]
+      .some(f => blocks(f) && !f.code.startsWith('record.'))
   return {
     id: attempt.id,
     entry: {
@@ -231,8 +279,8 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
     },
     profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
     standingRecord: record ? { speed: record.speed, unit: record.unit } : null,
-    runs: runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings)),
-    ...liveResult(ix, evaluateCounted(ix, attempt, setting, counted), counted.slice(0, 2)),
+    runs: liveRuns,
+    ...liveResult(ix, evaluation, findings, valid),
     sheet: sheetState(ix.day, attempt.id),
   }
 }

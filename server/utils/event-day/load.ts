@@ -82,6 +82,37 @@ function sheetSignatureRows(eventId: number) {
     .orderBy(asc(s.id))
 }
 
+/** The officials' signed set-asides of failing findings, with the official's name. */
+function setAsideRows(eventId: number) {
+  const t = tables
+  return useDb()
+    .select({
+      id: t.setAsides.id,
+      attemptId: t.setAsides.attemptId,
+      runId: t.setAsides.runId,
+      code: t.setAsides.code,
+      finding: t.setAsides.finding,
+      reason: t.setAsides.reason,
+      signatureId: t.setAsides.signatureId,
+      createdAt: t.setAsides.createdAt,
+      by: t.users.name,
+    })
+    .from(t.setAsides)
+    .innerJoin(t.users, eq(t.users.id, t.setAsides.officialId))
+    .where(eq(t.setAsides.eventId, eventId))
+    .orderBy(asc(t.setAsides.id))
+}
+
+/** Impound check-ins after qualifying runs. */
+function impoundRows(eventId: number) {
+  const t = tables
+  return useDb()
+    .select(getTableColumns(t.impoundCheckIns))
+    .from(t.impoundCheckIns)
+    .innerJoin(t.attempts, eq(t.attempts.id, t.impoundCheckIns.attemptId))
+    .where(eq(t.attempts.eventId, eventId))
+}
+
 /**
  * Everything the run sheet and the live results need for one event, in a fixed number of queries
  * whatever the number of runs and readings.
@@ -92,23 +123,25 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   const [event] = await db.select().from(t.events).where(eq(t.events.id, eventId))
   if (!event) throw notFound('No such event')
   const courseIds = db.select({ id: t.courses.id }).from(t.courses).where(eq(t.courses.eventId, eventId))
-  const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures]
-    = await Promise.all([
-      db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
-      db.select().from(t.traps).where(inArray(t.traps.courseId, courseIds)).orderBy(asc(t.traps.positionM)),
-      db.select().from(t.measuredDistances).where(inArray(t.measuredDistances.courseId, courseIds))
-        .orderBy(asc(t.measuredDistances.id)),
-      db.select().from(t.timingSystems).where(eq(t.timingSystems.eventId, eventId)).orderBy(asc(t.timingSystems.role)),
-      entryRows(eventId),
-      standingRecordRows(eventId),
-      db.select().from(t.attempts).where(eq(t.attempts.eventId, eventId)).orderBy(asc(t.attempts.id)),
-      db.select().from(t.runs).where(eq(t.runs.eventId, eventId)).orderBy(asc(t.runs.startedAt)),
-      readingRows(eventId, !!options.history),
-      latestWeather(eventId),
-      sheetSignatureRows(eventId),
-    ])
+  const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures,
+    setAsides, impounds] = await Promise.all([
+    db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
+    db.select().from(t.traps).where(inArray(t.traps.courseId, courseIds)).orderBy(asc(t.traps.positionM)),
+    db.select().from(t.measuredDistances).where(inArray(t.measuredDistances.courseId, courseIds))
+      .orderBy(asc(t.measuredDistances.id)),
+    db.select().from(t.timingSystems).where(eq(t.timingSystems.eventId, eventId)).orderBy(asc(t.timingSystems.role)),
+    entryRows(eventId),
+    standingRecordRows(eventId),
+    db.select().from(t.attempts).where(eq(t.attempts.eventId, eventId)).orderBy(asc(t.attempts.id)),
+    db.select().from(t.runs).where(eq(t.runs.eventId, eventId)).orderBy(asc(t.runs.startedAt)),
+    readingRows(eventId, !!options.history),
+    latestWeather(eventId),
+    sheetSignatureRows(eventId),
+    setAsideRows(eventId),
+    impoundRows(eventId),
+  ])
   const day = { event, courses, traps, distances, systems, records, attempts, runs, readings, signatures, entries }
-  return { ...day, weather: weather.map(w => w.weather) }
+  return { ...day, setAsides, impounds, weather: weather.map(w => w.weather) }
 }
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>

@@ -34,6 +34,16 @@ export async function signatureReport(signatureId: number) {
       ? `Withdrawal of witness statement #${st!.s.withdrawsId}`
       : `Witness statement #${s.subjectId}`
   }
+  else if (s.kind === 'set-aside') {
+    const [x] = await useDb()
+      .select({ s: tables.setAsides, official: tables.users.name })
+      .from(tables.setAsides)
+      .innerJoin(tables.users, eq(tables.users.id, tables.setAsides.officialId))
+      .where(eq(tables.setAsides.id, s.subjectId))
+    current = setAsideContent(x!.s, x!.official)
+    teamId = await teamOfAttempt(x!.s.attemptId)
+    title = `Set-aside of finding ${x!.s.code} on attempt #${x!.s.attemptId}`
+  }
   else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
     teamId = await teamOfAttempt(s.subjectId)

@@ -1,0 +1,65 @@
+import { expect } from 'vitest'
+import { allItems } from '#shared/inspection/evaluate'
+import { electricMotorcycle } from '#shared/inspection/templates'
+import { call, DEMO_PASSWORD, demoEmail, login } from './api'
+
+/**
+ * A new entry of the second demo team over the flying kilometre, owned by the test that makes it:
+ * its runs and attempts touch no other test's.
+ */
+export async function newEntry(eventId: number, machineName: string, rider: { licenceExpires?: string } = {}) {
+  const team2 = await login('team2@trapline.test')
+  const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
+  const kilometre = setup.distances.find((d: { label: string }) => d.label === 'Flying kilometre').id
+  const entry = await call('POST', `/api/events/${eventId}/entries`, {
+    cookie: team2,
+    body: {
+      machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: 'partial' },
+      rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: rider.licenceExpires ?? '2099-12-31' },
+      className: 'Electric, partially streamlined',
+      distanceId: kilometre,
+    },
+  })
+  expect(entry.status).toBe(201)
+  return entry.body.id as number
+}
+
+/** Answers every item of the electric motorcycle checklist: pass, or fail for the one named. */
+export async function answerAll(inspectionId: number, failing?: string) {
+  const scrutineer = await login(demoEmail('scrutineer'))
+  for (const i of allItems(electricMotorcycle)) {
+    const result = i.key === failing ? 'fail' : 'pass'
+    const measured: Record<string, [number, string]> = {
+      'isolation': [80, 'kΩ'],
+      'bonding': [0.05, 'Ω'],
+      'canopy-exit': [12, 's'],
+      'mass': [181.5, 'kg'],
+    }
+    const [value, unit] = measured[i.key] ?? []
+    const r = await call('POST', `/api/inspections/${inspectionId}/answers`, {
+      cookie: scrutineer,
+      body: { itemKey: i.key, result, value, unit },
+    })
+    expect(r.status, JSON.stringify(r.body)).toBe(200)
+  }
+}
+
+/** A new entry inspected, passed and signed off by the demo scrutineer: cleared to run. */
+export async function clearedEntry(eventId: number, machineName: string, rider: { licenceExpires?: string } = {}) {
+  const entryId = await newEntry(eventId, machineName, rider)
+  const scrutineer = await login(demoEmail('scrutineer'))
+  const started = await call('POST', `/api/events/${eventId}/inspections`, {
+    cookie: scrutineer,
+    body: { entryId, baseId: 'electric-motorcycle' },
+  })
+  expect(started.status).toBe(201)
+  const id = started.body.id as number
+  await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+  await answerAll(id)
+  const signed = await call('POST', `/api/inspections/${id}/signatures`, {
+    cookie: scrutineer,
+    body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' },
+  })
+  expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+  return entryId
+}
