@@ -107,3 +107,33 @@ export function compareWithRecord(
   }
   return { required, beatsRecord, returnTargetS, findings }
 }
+
+/**
+ * Where the profile has a qualifying run that must itself beat the standing record (club procedure),
+ * a failing finding when it does not: no record run may follow it, and the entry qualifies again.
+ */
+export function qualifierFindings(
+  profile: RuleProfile,
+  record: StandingRecord | undefined,
+  qualifier: RunFigures,
+): Finding[] {
+  const rule = profile.qualifying?.value
+  if (!rule?.mustBeatRecord || !record) return []
+  const t = thresholdSpeed(profile, record)
+  const fig = publishedFigure(profile, qualifier.speedMs, record.unit)
+  if (cmp(fig, t.figure) >= 0) return []
+  const { decimals } = profile.figures.value
+  return [{
+    code: 'qualifier.not-over-record',
+    severity: 'fail',
+    message: `The qualifying run at ${toFixed(fig, decimals)} ${record.unit} does not beat the standing record of `
+      + `${toFixed(record.value, decimals)} ${record.unit} (at least ${toFixed(t.figure, decimals, 'truncate')} `
+      + `${record.unit} needed): no record run may follow it; the entry qualifies again.`,
+    rule: {
+      name: 'Qualifying run',
+      value: 'the qualifying run must itself beat the standing record',
+      source: profile.qualifying.source,
+      certainty: profile.qualifying.certainty,
+    },
+  }]
+}

@@ -29,6 +29,11 @@ export interface AttemptInput {
   timeZone?: string
   /** Decimals of the return-run target time (the timing resolution); 3 unless told. */
   timeDecimals?: number
+  /**
+   * Where the profile has a qualifying run: the instant the machine checked into the impound after
+   * it, epoch ms; null when none is recorded; left out where it is not tracked (the public calculator).
+   */
+  impoundCheckInMs?: number | null
 }
 
 export interface RunFigures {
@@ -65,6 +70,8 @@ export interface AttemptResult {
   beatsRecord: boolean | null
   /** Whether the figure meets the improvement rule, valid or not (null without a record or a result). */
   meetsImprovement: boolean | null
+  /** Latest impound check-in after the qualifying run, epoch ms, where it is tracked. */
+  impoundDeadlineMs: number | null
   /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
   returnTargetS: Q | null
   findings: Finding[]

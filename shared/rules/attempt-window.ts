@@ -2,7 +2,7 @@ import { add, cmp, div, mul, q, sub, toFixed, toNumber, type Q } from './exact'
 import type { Finding } from './findings'
 import { describeWindow, type RuleProfile, type WindowAnchor } from './profile'
 import { ruleOf, type RunInput, type WindowState } from './attempt-types'
-import { addDays, localDate, localMidnight } from './zoned'
+import { addDays, localDate, localMidnight, localToInstant } from './zoned'
 
 /** A run's finish: the instant it left the measured distance, or at least its start plus the time over it. */
 export function finishMs(run: RunInput): Q {
@@ -16,12 +16,16 @@ function anchorMs(anchor: WindowAnchor, runs: RunInput[]): Q | null {
   return anchor.startsWith('start') ? q(BigInt(run.startedAtMs)) : finishMs(run)
 }
 
-/** Next-day rules: the record run starts on the calendar day after the qualifying run, in the event's zone. */
-function nextDayWindow(rule: string, runs: RunInput[], timeZone: string): WindowState {
+/**
+ * Next-day rules: the record run starts on the calendar day after the qualifying run, in the event's
+ * zone, and before the profile's local time of day where it names one (the next morning).
+ */
+function nextDayWindow(rule: string, runs: RunInput[], timeZone: string, before?: string): WindowState {
   const first = runs[0]!
   const day = addDays(localDate(first.startedAtMs, timeZone), 1)
   const opensMs = localMidnight(day, timeZone)
-  const deadlineMs = localMidnight(addDays(day, 1), timeZone) - 1
+  const closesMs = before ? localToInstant(`${day}T${before}`, timeZone) : localMidnight(addDays(day, 1), timeZone)
+  const deadlineMs = closesMs - 1
   const second = runs[1]
   const ok = !second || (second.startedAtMs >= opensMs && second.startedAtMs <= deadlineMs)
   return { ok, rule, usedS: null, deadlineMs, opensMs, closingAnchor: 'start-second' }
@@ -30,7 +34,7 @@ function nextDayWindow(rule: string, runs: RunInput[], timeZone: string): Window
 export function evaluateWindow(profile: RuleProfile, runs: RunInput[], timeZone: string): WindowState {
   const w = profile.window.value
   const rule = describeWindow(w)
-  if (w.kind === 'next-day') return nextDayWindow(rule, runs, timeZone)
+  if (w.kind === 'next-day') return nextDayWindow(rule, runs, timeZone, w.before)
   const from = anchorMs(w.from, runs)
   const limitMs = q(BigInt(w.minutes * 60_000))
   const to = anchorMs(w.to, runs)
@@ -68,7 +72,7 @@ export function windowFindings(profile: RuleProfile, window: WindowState, runs: 
     code: 'window.exceeded',
     severity: 'fail',
     message: profile.window.value.kind === 'next-day'
-      ? 'The record run is not on the calendar day after the qualifying run.'
+      ? `The record run is not within the window: ${window.rule}.`
       : `The runs took ${minutes} min between the anchors; the window is ${window.rule}.`,
     rule: ruleOf(profile, 'window', 'Time window', window.rule),
   }, ...estimated]

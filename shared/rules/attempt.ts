@@ -2,7 +2,7 @@ import { add, div, q, toNumber, type Q } from './exact'
 import type { Finding } from './findings'
 import type { RuleProfile } from './profile'
 import { speed } from './timing'
-import { compareWithRecord } from './attempt-record'
+import { compareWithRecord, qualifierFindings } from './attempt-record'
 import {
   publish,
   ruleOf,
@@ -12,6 +12,7 @@ import {
   type RunInput,
 } from './attempt-types'
 import { evaluateWindow, finishMs, windowFindings } from './attempt-window'
+import { impoundFindings } from './attempt-impound'
 
 export type * from './attempt-types'
 export { returnTarget } from './attempt-record'
@@ -28,7 +29,16 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
   const window = evaluateWindow(profile, runs, input.timeZone ?? 'UTC')
   const pair = pairResult(profile, input.distanceM, figures)
   const record = input.record ? compareWithRecord({ ...input, record: input.record }, figures[0]!, pair.result) : null
-  const profileFindings = [...pairFindings(profile, runs), ...windowFindings(profile, window, runs), ...pair.findings]
+  const qualifierFinishMs = Math.round(toNumber(finishMs(runs[0]!)))
+  const zone = input.timeZone ?? 'UTC'
+  const impound = impoundFindings(profile, qualifierFinishMs, input.impoundCheckInMs, runs.length > 1, zone)
+  const profileFindings = [
+    ...pairFindings(profile, runs),
+    ...windowFindings(profile, window, runs),
+    ...qualifierFindings(profile, input.record, figures[0]!),
+    ...impound.findings,
+    ...pair.findings,
+  ]
   // A pair that fails its profile is not a record, whatever its speed; not beating the record is no such failure.
   const valid = !profileFindings.some(f => f.severity === 'fail')
   const findings = [...profileFindings, ...(record?.findings ?? [])]
@@ -42,6 +52,7 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     beatsRecord: record?.beatsRecord == null ? null : record.beatsRecord && valid,
     meetsImprovement: record?.beatsRecord ?? null,
     returnTargetS: record?.returnTargetS ?? null,
+    impoundDeadlineMs: impound.deadlineMs,
     findings,
   }
 }

@@ -15,8 +15,11 @@ export type WindowAnchor = 'start-first' | 'finish-first' | 'start-second' | 'fi
 
 export type RunWindow
   = | { kind: 'elapsed', minutes: number, from: WindowAnchor, to: WindowAnchor }
-  /** The record run on the calendar day after the qualifying run, in the event's time zone. */
-    | { kind: 'next-day' }
+  /**
+   * The record run on the calendar day after the qualifying run, in the event's time zone; with
+   * `before`, it must leave the line before that local time of day ("hh:mm").
+   */
+    | { kind: 'next-day', before?: string }
 
 export interface MeasuredDistanceSpec {
   label: string
@@ -50,6 +53,11 @@ export interface RuleProfile {
   bestPerDayOnly: Sourced<boolean | null>
   massClasses: Sourced<MassClass[] | null>
   witnessStatements: Sourced<number>
+  /**
+   * A qualifying run before the record run (club procedures): it must itself beat the standing record,
+   * and an aborted record run means qualifying again. Null where the profile has no qualifying run.
+   */
+  qualifying: Sourced<{ mustBeatRecord: boolean, requalifyAfterAbort: boolean } | null>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -65,10 +73,13 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   bestPerDayOnly: 'Best result per day',
   massClasses: 'Mass classes',
   witnessStatements: 'Witness statements',
+  qualifying: 'Qualifying run',
 }
 
 export function describeWindow(w: RunWindow): string {
-  if (w.kind === 'next-day') return 'record run on the calendar day after the qualifying run'
+  if (w.kind === 'next-day') {
+    return `record run on the calendar day after the qualifying run${w.before ? `, leaving before ${w.before}` : ''}`
+  }
   const name: Record<WindowAnchor, string> = {
     'start-first': 'start of the first run',
     'finish-first': 'finish of the first run',
@@ -108,6 +119,13 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       return `at most ${value} m/s`
     case 'bestPerDayOnly':
       return value ? 'only the best result per class each day goes forward' : 'every result goes forward'
+    case 'qualifying': {
+      const q = value as { mustBeatRecord: boolean, requalifyAfterAbort: boolean }
+      return [
+        q.mustBeatRecord ? 'the qualifying run must itself beat the standing record' : 'any qualifying run',
+        q.requalifyAfterAbort ? 'an aborted record run means qualifying again' : '',
+      ].filter(Boolean).join('; ')
+    }
     case 'massClasses':
       return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')
     default:

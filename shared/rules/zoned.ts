@@ -46,6 +46,13 @@ function parts(ms: number, timeZone: string) {
   }
 }
 
+/** The local date and time, "YYYY-MM-DD hh:mm:ss", as a clock in the zone shows it. */
+export function localDateTime(ms: number, timeZone: string): string {
+  const { y, m, d, h, mi, s } = parts(ms, timeZone)
+  const two = (n: number) => String(n).padStart(2, '0')
+  return `${y}-${two(m)}-${two(d)} ${two(h)}:${two(mi)}:${two(s)}`
+}
+
 /** The local calendar date, YYYY-MM-DD. */
 export function localDate(ms: number, timeZone: string): string {
   const { y, m, d } = parts(ms, timeZone)

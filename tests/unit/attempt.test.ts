@@ -172,11 +172,14 @@ describe('time windows, a minute inside and a minute outside', () => {
     expect(two('intl-automobile', '2026-08-14T10:00:30Z').windowOk).toBe(false) // finishes 10:01:00
   })
 
-  it('club: the record run on the next calendar day in the event time zone', () => {
-    // Source: club record procedure pages (seen): record run the next morning.
+  it('club: the record run on the next morning in the event time zone', () => {
+    // Source: club record procedure pages (seen): record run the next morning; "morning" read as before noon
+    // (our reading, held in the profile with its source).
     const same = ['out', 'out'] as ['out', 'out']
     expect(two('club-same-direction', '2026-08-15T00:01:00Z', '30', same).windowOk).toBe(true)
-    expect(two('club-same-direction', '2026-08-15T23:59:00Z', '30', same).windowOk).toBe(true)
+    expect(two('club-same-direction', '2026-08-15T11:59:00Z', '30', same).windowOk).toBe(true)
+    expect(two('club-same-direction', '2026-08-15T12:00:00Z', '30', same).windowOk).toBe(false)
+    expect(two('club-same-direction', '2026-08-15T23:59:00Z', '30', same).windowOk).toBe(false)
     expect(two('club-same-direction', '2026-08-14T23:59:00Z', '30', same).windowOk).toBe(false)
     expect(two('club-same-direction', '2026-08-16T00:01:00Z', '30', same).windowOk).toBe(false)
     // In a time zone 6 h behind UTC (America/Denver in August, UTC−6), the first run is on 14 August
@@ -318,5 +321,57 @@ describe('the public calculator takes the entry-trap instant and exact decimals'
     const bad = calculatorRequestSchema.safeParse({ profile: 'intl-automobile', distanceM: '1 mile', runs })
     expect(bad.success).toBe(false)
     expect(bad.error!.issues[0]!.path).toEqual(['distanceM'])
+  })
+})
+
+describe('the club procedure', () => {
+  // Source: club record procedure pages (seen): the qualifying run must itself exceed the standing record; the
+  // machine goes into impound within 1 h of its time slip; the record run is the next morning.
+  const profile = profiles['club-same-direction']
+  const qualifier = (elapsedS: string) => ({ direction: 'out' as const, startedAtMs: at('2026-08-14T09:00:00Z'), elapsedS: fromDecimal(elapsedS), finishedAtMs: at('2026-08-14T09:01:00Z') })
+  const recordRun = { direction: 'out' as const, startedAtMs: at('2026-08-15T08:00:00Z'), elapsedS: fromDecimal('8.9') }
+  const record = { value: fromDecimal('400.000'), unit: 'km/h' as const }
+
+  it('fails a qualifying run that does not beat the standing record, and the pair with it', () => {
+    // Hand computation: 1000 m in 9.000 s is 400.000 km/h exactly (1 km/h = 1/3.6 m/s), equal to the record:
+    // not beaten. In 8.999 s it is 400.044… km/h → 400.044, over it.
+    const equal = evaluateAttempt({ profile, distanceM: fromDecimal('1000'), runs: [qualifier('9.000')], record })
+    expect(equal.findings.map(f => [f.code, f.severity])).toContainEqual(['qualifier.not-over-record', 'fail'])
+    expect(equal.findings.find(f => f.code === 'qualifier.not-over-record')!.rule!.source).toMatch(/club record procedure/)
+    const pair = evaluateAttempt({ profile, distanceM: fromDecimal('1000'), runs: [qualifier('9.000'), recordRun], record })
+    expect(pair.valid).toBe(false)
+    expect(pair.beatsRecord).toBe(false)
+    const over = evaluateAttempt({ profile, distanceM: fromDecimal('1000'), runs: [qualifier('8.999'), recordRun], record })
+    expect(over.findings.map(f => f.code)).not.toContain('qualifier.not-over-record')
+    expect(over.valid).toBe(true)
+    expect(over.beatsRecord).toBe(true)
+  })
+
+  it('checks the impound check-in against 1 h from the qualifying run\'s time slip', () => {
+    const run = (impoundCheckInMs: number | null | undefined, runs = [qualifier('8.999'), recordRun]) =>
+      evaluateAttempt({ profile, distanceM: fromDecimal('1000'), runs, record, impoundCheckInMs, timeZone: 'UTC' })
+    // The qualifying run left the distance at 09:01:00; the limit is 10:01:00.
+    expect(run(at('2026-08-14T10:01:00Z')).findings.map(f => f.code).filter(c => c.startsWith('impound'))).toEqual([])
+    const late = run(at('2026-08-14T10:02:00Z'))
+    expect(late.findings.map(f => [f.code, f.severity])).toContainEqual(['impound.late', 'fail'])
+    expect(late.valid).toBe(false)
+    expect(run(null).findings.map(f => [f.code, f.severity])).toContainEqual(['impound.missing', 'fail'])
+    const waiting = run(null, [qualifier('8.999')])
+    expect(waiting.impoundDeadlineMs).toBe(at('2026-08-14T10:01:00Z'))
+    expect(waiting.findings.find(f => f.code === 'impound.awaiting')!.message).toContain('2026-08-14 10:01:00 (UTC)')
+    // Not tracked (the public calculator): nothing said.
+    expect(run(undefined).findings.map(f => f.code).filter(c => c.startsWith('impound'))).toEqual([])
+  })
+
+  it('the public calculator checks the qualifier against the record and the next morning', () => {
+    const res = calculate({
+      profile: 'club-same-direction', distanceM: '1000', recordKmh: '400',
+      runs: [
+        { direction: 'out', startedAt: '2026-08-14T09:00:00Z', elapsedS: '9.000' },
+        { direction: 'out', startedAt: '2026-08-15T13:00:00Z', elapsedS: '8.9' },
+      ],
+    })
+    expect(res.findings.map(f => f.code)).toEqual(expect.arrayContaining(['qualifier.not-over-record', 'window.exceeded']))
+    expect(res.valid).toBe(false)
   })
 })

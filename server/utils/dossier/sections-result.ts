@@ -144,7 +144,8 @@ function renderFinding(L: PdfLayout, f: Manifest['result']['findings'][number]) 
 
 function renderProfileInForce(L: PdfLayout, m: Manifest) {
   L.heading('Rule profile in force', 12)
-  const keys = Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]
+  // A profile frozen before a rule value existed prints the values it holds.
+  const keys = (Object.keys(ruleLabels) as (keyof typeof ruleLabels)[]).filter(k => m.profile[k] !== undefined)
   L.table(
     [
       { title: 'Rule', width: 110 },

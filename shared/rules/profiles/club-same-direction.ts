@@ -13,8 +13,9 @@ export const clubSameDirection: RuleProfile = {
     certainty: 'seen',
   },
   window: {
-    value: { kind: 'next-day' },
-    source: `${CLUB_PAGES}: record run the next morning`,
+    value: { kind: 'next-day', before: '12:00' },
+    source: `${CLUB_PAGES}: record run the next morning (seen); "morning" read as before noon in the event's `
+      + 'zone (our reading; confirm in the club rulebook)',
     certainty: 'seen',
   },
   impoundMinutes: {
@@ -55,4 +56,10 @@ export const clubSameDirection: RuleProfile = {
     certainty: 'not known',
   },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
+  qualifying: {
+    value: { mustBeatRecord: true, requalifyAfterAbort: true },
+    source: `${CLUB_PAGES}: the qualifying run must itself exceed the standing record; an interrupted record run `
+      + 'means qualifying again',
+    certainty: 'seen',
+  },
 }

@@ -57,4 +57,5 @@ export const intlMotorcycle: RuleProfile = {
     certainty: 'not known',
   },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
+  qualifying: { value: null, source: 'two runs in opposite directions, no qualifying run', certainty: 'seen' },
 }
