@@ -174,6 +174,12 @@ export const abortSchema = z.object({
   reason: z.string().trim().min(3, { error: 'say why the run is aborted' }).max(300),
 })
 export type AbortInput = z.infer<typeof abortSchema>
+/** The machine into impound after its qualifying run: now by the server's clock, or the instant given. */
+export const impoundSchema = z.object({
+  checkedInAt: isoDateTime.optional(),
+  note: z.string().trim().max(300).default(''),
+})
+export type ImpoundInput = z.infer<typeof impoundSchema>
 export const weatherSchema = z.object({
   windSpeedMs: decimalText(2, { min: 0, max: 60 }),
   windFromDeg: decimalText(2, { min: 0, max: 360 }),

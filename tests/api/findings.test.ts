@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
+import { kilometreRun as runOver, minutesAgo, type RunPlace } from '../support/runs'
 
 await useTestServer()
 
@@ -16,36 +17,16 @@ beforeAll(async () => {
   cookie.team2 = await login('team2@trapline.test')
   eventId = await demoEventId(cookie.organiser)
   setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
+  place = {
+    eventId, timeZone: setup.event.timeZone, timekeeper: cookie.timekeeper,
+    traps: { 'K-in': trapId('K-in'), 'K-out': trapId('K-out') },
+    systems: { primary: system('primary'), backup: system('backup') },
+  }
 })
 
-/** hh:mm:ss.ffff of an instant on the event's clock. */
-const clock = (ms: number) =>
-  `${new Date(ms).toLocaleTimeString('sv-SE', { timeZone: setup.event.timeZone })}.${String(ms % 1000).padStart(3, '0')}0`
-
-/**
- * A run over the flying kilometre started `minutesAgo`, reaching its first trap a minute later; each
- * system's two traps at the given offsets (seconds) from that moment.
- */
-async function kilometreRun(entryId: number, direction: 'out' | 'back', minutesAgo: number, offsets: Record<'primary' | 'backup', [number, number]>) {
-  const start = Math.floor((Date.now() - minutesAgo * 60_000) / 1000) * 1000
-  const run = await call('POST', `/api/events/${eventId}/runs`, {
-    cookie: cookie.timekeeper,
-    body: { entryId, direction, startedAt: new Date(start).toISOString() },
-  })
-  expect(run.status, JSON.stringify(run.body)).toBe(201)
-  const order = direction === 'out' ? ['K-in', 'K-out'] : ['K-out', 'K-in']
-  for (const role of ['primary', 'backup'] as const) {
-    for (const [i, label] of order.entries()) {
-      const time = clock(start + 60_000 + Math.round(offsets[role][i]! * 1000))
-      const r = await call('POST', `/api/runs/${run.body.id}/readings`, {
-        cookie: cookie.timekeeper,
-        body: { trapId: trapId(label), systemId: system(role), time },
-      })
-      expect(r.status, JSON.stringify(r.body)).toBe(201)
-    }
-  }
-  return run.body as { id: number, attemptId: number }
-}
+let place: RunPlace
+const kilometreRun = (entryId: number, direction: 'out' | 'back', ago: number, offsets: Record<'primary' | 'backup', [number, number]>) =>
+  runOver(place, entryId, direction, minutesAgo(ago), offsets)
 
 const attemptLive = async (attemptId: number) =>
   (await call('GET', `/api/events/${eventId}/live`, { cookie: cookie.team2 })).body.find((a: any) => a.id === attemptId)

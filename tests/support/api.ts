@@ -84,17 +84,28 @@ export async function demoMileRecord() {
 }
 
 /**
- * A fresh person invited to the demo event by its organiser, with a password set through the link:
- * a record of the test's own (an official's statements, say, touch no other test's).
+ * A fresh person invited to an event (the demo's unless told) by its organiser, with a password set
+ * through the link: a record of the test's own (an official's statements, say, touch no other test's).
  */
-export async function invitedPerson(role = 'official', password = 'first-password-1', name = 'Test Person') {
-  const organiser = await login(demoEmail('organiser'))
-  const eventId = await demoEventId(organiser)
+export async function invitedPerson(
+  role = 'official',
+  password = 'first-password-1',
+  name = 'Test Person',
+  at: { eventId?: number, organiser?: string, teamName?: string } = {},
+) {
+  const organiser = at.organiser ?? await login(demoEmail('organiser'))
+  const eventId = at.eventId ?? await demoEventId(organiser)
   const email = unique(role)
-  const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email, name, role } })
+  const body = { email, name, role, ...(at.teamName ? { teamName: at.teamName } : {}) }
+  const r = await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body })
   if (r.status !== 201) throw new Error(`invitation refused: ${JSON.stringify(r.body)}`)
+  return { email, password, name, ...await setPasswordByLink(email, password) }
+}
+
+/** Sets a password through the link of the invitation e-mail just sent, and signs in. */
+export async function setPasswordByLink(email: string, password: string) {
   const token = linkToken((await mailTo(email, 'invited')).text)
   const set = await call('POST', '/api/auth/token', { body: { token, password } })
   if (set.status !== 200) throw new Error(`password not set: ${JSON.stringify(set.body)}`)
-  return { email, password, token, name, cookie: await login(email, password) }
+  return { token, cookie: await login(email, password) }
 }

@@ -7,8 +7,13 @@ import { call, DEMO_PASSWORD, demoEmail, login } from './api'
  * A new entry of the second demo team over the flying kilometre, owned by the test that makes it:
  * its runs and attempts touch no other test's.
  */
-export async function newEntry(eventId: number, machineName: string, rider: { licenceExpires?: string } = {}) {
-  const team2 = await login('team2@trapline.test')
+export async function newEntry(
+  eventId: number,
+  machineName: string,
+  rider: { licenceExpires?: string } = {},
+  who: { team?: string } = {},
+) {
+  const team2 = who.team ?? await login('team2@trapline.test')
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
   const kilometre = setup.distances.find((d: { label: string }) => d.label === 'Flying kilometre').id
   const entry = await call('POST', `/api/events/${eventId}/entries`, {
@@ -25,8 +30,8 @@ export async function newEntry(eventId: number, machineName: string, rider: { li
 }
 
 /** Answers every item of the electric motorcycle checklist: pass, or fail for the one named. */
-export async function answerAll(inspectionId: number, failing?: string) {
-  const scrutineer = await login(demoEmail('scrutineer'))
+export async function answerAll(inspectionId: number, failing?: string, who: { scrutineer?: string } = {}) {
+  const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))
   for (const i of allItems(electricMotorcycle)) {
     const result = i.key === failing ? 'fail' : 'pass'
     const measured: Record<string, [number, string]> = {
@@ -44,10 +49,15 @@ export async function answerAll(inspectionId: number, failing?: string) {
   }
 }
 
-/** A new entry inspected, passed and signed off by the demo scrutineer: cleared to run. */
-export async function clearedEntry(eventId: number, machineName: string, rider: { licenceExpires?: string } = {}) {
-  const entryId = await newEntry(eventId, machineName, rider)
-  const scrutineer = await login(demoEmail('scrutineer'))
+/** A new entry inspected, passed and signed off by the scrutineer (the demo's unless told): cleared to run. */
+export async function clearedEntry(
+  eventId: number,
+  machineName: string,
+  rider: { licenceExpires?: string } = {},
+  who: { team?: string, scrutineer?: string, scrutineerPassword?: string } = {},
+) {
+  const entryId = await newEntry(eventId, machineName, rider, who)
+  const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))
   const started = await call('POST', `/api/events/${eventId}/inspections`, {
     cookie: scrutineer,
     body: { entryId, baseId: 'electric-motorcycle' },
@@ -55,10 +65,10 @@ export async function clearedEntry(eventId: number, machineName: string, rider: 
   expect(started.status).toBe(201)
   const id = started.body.id as number
   await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
-  await answerAll(id)
+  await answerAll(id, undefined, { scrutineer })
   const signed = await call('POST', `/api/inspections/${id}/signatures`, {
     cookie: scrutineer,
-    body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' },
+    body: { password: who.scrutineerPassword ?? DEMO_PASSWORD, typedName: 'Selma Scrute' },
   })
   expect(signed.status, JSON.stringify(signed.body)).toBe(201)
   return entryId

@@ -124,6 +124,12 @@ function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Setting['distanc
   return sameDay >= startMs - 3_600_000 ? sameDay : localMidnight(addDays(day, 1), zone) + ofDay
 }
 
+/** Where the profile has a qualifying run: the impound check-in after it, null if none is recorded. */
+function impoundCheckIn(ix: DayIndex, attempt: Attempt) {
+  if (!attempt.profile.qualifying?.value) return undefined
+  return ix.day.impounds.find(i => i.attemptId === attempt.id)?.checkedInAt.getTime() ?? null
+}
+
 /** The pair by the profile, from the first two runs that finished with an official time. */
 function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: Setting, counted: ComputedRun[]) {
   if (!counted.length) return null
@@ -140,6 +146,7 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
     record: record ? { value: fromDecimal(record.speed), unit: record.unit } : undefined,
     timeZone: ix.day.event.timeZone,
     timeDecimals: ix.timeDecimals,
+    impoundCheckInMs: impoundCheckIn(ix, attempt),
   })
 }
 
@@ -239,6 +246,7 @@ function liveResult(ix: DayIndex, evaluation: AttemptResult | null, findings: Fi
       : null,
     beatsRecord: evaluation?.meetsImprovement == null ? null : evaluation.meetsImprovement && valid,
     required: evaluation?.required ? { figure: evaluation.required.text, unit: evaluation.required.unit } : null,
+    impoundDeadline: iso(evaluation?.impoundDeadlineMs ?? null),
     returnTargetS: evaluation?.runs.length === 1 && evaluation.returnTargetS
       ? toFixed(evaluation.returnTargetS, timeDecimals)
       : null,
@@ -282,6 +290,7 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
     runs: liveRuns,
     ...liveResult(ix, evaluation, findings, valid),
     sheet: sheetState(ix.day, attempt.id),
+    impoundCheckedInAt: ix.day.impounds.find(i => i.attemptId === attempt.id)?.checkedInAt.toISOString() ?? null,
   }
 }
 

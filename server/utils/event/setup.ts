@@ -138,10 +138,30 @@ async function lockClearedEntry(tx: Tx, eventId: number, entryId: number) {
 }
 
 /**
- * The entry's open attempt: the latest with fewer than two runs that were not aborted and no
- * signed timing sheet. Null when every attempt is complete.
+ * Under a profile with a qualifying run (club procedure), whether the attempt is over and the entry
+ * must qualify again: its record run was aborted, or its qualifying run did not beat the record.
  */
-async function openAttempt(tx: Tx, entryId: number) {
+async function mustQualifyAgain(eventId: number, attempt: typeof tables.attempts.$inferSelect, runs: RunRow[]) {
+  const rule = attempt.profile.qualifying?.value
+  if (!rule) return false
+  const mine = runs.filter(r => r.attemptId === attempt.id).sort((a, b) => +a.startedAt - +b.startedAt)
+  const qualifier = mine.find(r => r.status !== 'aborted')
+  if (!qualifier) return false
+  const abortedAfter = mine.some(r => r.status === 'aborted' && r.startedAt > qualifier.startedAt)
+  if (rule.requalifyAfterAbort && abortedAfter) return true
+  if (!rule.mustBeatRecord) return false
+  const day = await loadEventDay(eventId)
+  const live = computeLive({ ...day, attempts: day.attempts.filter(a => a.id === attempt.id) })[0]
+  return !!live?.findings.some(f => f.code === 'qualifier.not-over-record')
+}
+type RunRow = typeof tables.runs.$inferSelect
+
+/**
+ * The entry's open attempt: the latest with fewer than two runs that were not aborted and no
+ * signed timing sheet, unless the profile's procedure makes the entry qualify again. Null when
+ * every attempt is complete.
+ */
+async function openAttempt(tx: Tx, eventId: number, entryId: number) {
   const { attempts, runs, signatures } = tables
   const mine = await tx.select().from(attempts).where(eq(attempts.entryId, entryId))
   if (!mine.length) return null
@@ -152,7 +172,9 @@ async function openAttempt(tx: Tx, entryId: number) {
     .from(signatures)
     .where(and(eq(signatures.kind, 'timing-sheet'), inArray(signatures.subjectId, ids)))
   const liveRuns = (id: number) => runRows.filter(r => r.attemptId === id && r.status !== 'aborted').length
-  return mine.findLast(a => liveRuns(a.id) < 2 && !signed.some(s => s.subjectId === a.id)) ?? null
+  const open = mine.findLast(a => liveRuns(a.id) < 2 && !signed.some(s => s.subjectId === a.id))
+  if (!open || (await mustQualifyAgain(eventId, open, runRows))) return null
+  return open
 }
 
 /** A new attempt with a frozen copy of the event's profile. */
@@ -172,7 +194,7 @@ async function newAttempt(tx: Tx, eventId: number, entryId: number) {
 export async function startRun(eventId: number, input: StartRunInput, userId: number) {
   return useDb().transaction(async (tx) => {
     const entry = await lockClearedEntry(tx, eventId, input.entryId)
-    const attempt = (await openAttempt(tx, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
+    const attempt = (await openAttempt(tx, eventId, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
     const [run] = await tx
       .insert(tables.runs)
       .values({
