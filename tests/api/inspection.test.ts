@@ -96,6 +96,26 @@ describe('an inspection from start to clearance', { shuffle: false }, () => {
   })
 })
 
+describe('signing an inspection while an answer changes', () => {
+  it('signs exactly what is stored: the answer lands before the signature, or is refused after it', async () => {
+    const fresh = await newEntry(eventId, 'Cinder Race')
+    const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId: fresh, baseId: 'electric-motorcycle' } })
+    const id = started.body.id
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await answerAll(id)
+    const [signed, answered] = await Promise.all([
+      call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } }),
+      answer(id, { itemKey: 'mass', result: 'pass', value: 190.5, unit: 'kg' }),
+    ])
+    expect(signed.status).toBe(201)
+    expect([200, 409]).toContain(answered.status)
+    const report = (await call('GET', `/api/signatures/${signed.body.id}`, { cookie: cookie.official })).body
+    expect(report.recordStillMatches).toBe(true)
+    const mass = report.content.answers.find((x: any) => x.item === 'mass')
+    expect(Number(mass.value) === 190.5).toBe(answered.status === 200)
+  })
+})
+
 describe('checklists', () => {
   it('the organiser adapts a template; the copy has a new version and keeps the sources', async () => {
     const r = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['lenses-taped'], addItems: [{ section: 'Machine', label: 'Fairing fasteners wired' }], note: 'local rulebook, article 12' } })

@@ -21,15 +21,26 @@ import type { BusKind } from '#shared/constants'
 
 const fieldError = fieldInvalid
 
-async function loadInspection(id: number) {
-  const [row] = await useDb().select().from(tables.inspections).where(eq(tables.inspections.id, id))
+async function loadInspection(id: number, db: Tx | Db = useDb()) {
+  const [row] = await db.select().from(tables.inspections).where(eq(tables.inspections.id, id))
   if (!row) throw notFound('No such inspection')
   return row
 }
 
-const answersOf = async (ids: number[]) =>
+/**
+ * The inspection locked for a change in this transaction: answers, bus and signature are written
+ * one at a time, so a signature covers exactly the content it read. A signed one is refused.
+ */
+async function lockUnsigned(tx: Tx, id: number) {
+  const [row] = await tx.select().from(tables.inspections).where(eq(tables.inspections.id, id)).for('update')
+  if (!row) throw notFound('No such inspection')
+  if (row.signatureId) throw conflict('This inspection is signed; a re-inspection is a new inspection')
+  return row
+}
+
+const answersOf = async (ids: number[], db: Tx | Db = useDb()) =>
   ids.length
-    ? useDb().select().from(tables.inspectionAnswers).where(inArray(tables.inspectionAnswers.inspectionId, ids))
+    ? db.select().from(tables.inspectionAnswers).where(inArray(tables.inspectionAnswers.inspectionId, ids))
     : []
 
 const asAnswers = (rows: (typeof tables.inspectionAnswers.$inferSelect)[]): Answer[] =>
@@ -133,12 +144,19 @@ export async function answerItem(
   input: AnswerInput,
   userId: number,
 ) {
-  const inspection = await loadInspection(inspectionId)
-  if (inspection.signatureId)
-    throw createError({
-      statusCode: 409,
-      statusMessage: 'This inspection is signed; a re-inspection is a new inspection',
-    })
+  return useDb().transaction(async (tx) => {
+    const inspection = await lockUnsigned(tx, inspectionId)
+    return writeAnswer(tx, inspection, input, userId)
+  })
+}
+
+async function writeAnswer(
+  tx: Tx,
+  inspection: typeof tables.inspections.$inferSelect,
+  input: AnswerInput,
+  userId: number,
+) {
+  const inspectionId = inspection.id
   const item = allItems(inspection.checklist).find(i => i.key === input.itemKey)
   if (!item) throw fieldError('itemKey', 'is not an item of this checklist')
   if (input.result === 'na' && !item.allowNotApplicable)
@@ -167,7 +185,7 @@ export async function answerItem(
     updatedBy: userId,
     updatedAt: new Date(),
   }
-  const [row] = await useDb()
+  const [row] = await tx
     .insert(tables.inspectionAnswers)
     .values(values)
     .onConflictDoUpdate({
@@ -179,31 +197,28 @@ export async function answerItem(
 }
 
 export async function setBus(inspectionId: number, bus: BusInput) {
-  const inspection = await loadInspection(inspectionId)
-  if (inspection.signatureId)
-    throw createError({
-      statusCode: 409,
-      statusMessage: 'This inspection is signed; a re-inspection is a new inspection',
-    })
-  const [row] = await useDb()
-    .update(tables.inspections)
-    .set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind })
-    .where(eq(tables.inspections.id, inspectionId))
-    .returning()
-  return row!
+  return useDb().transaction(async (tx) => {
+    await lockUnsigned(tx, inspectionId)
+    const [row] = await tx
+      .update(tables.inspections)
+      .set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind })
+      .where(eq(tables.inspections.id, inspectionId))
+      .returning()
+    return row!
+  })
 }
 
 /** The canonical content an inspection signature covers. */
-export async function inspectionContent(inspectionId: number) {
-  const inspection = await loadInspection(inspectionId)
-  const [entry] = await useDb()
+export async function inspectionContent(inspectionId: number, db: Tx | Db = useDb()) {
+  const inspection = await loadInspection(inspectionId, db)
+  const [entry] = await db
     .select({ entry: tables.entries, machine: tables.machines, rider: tables.riders, team: tables.teams.name })
     .from(tables.entries)
     .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
     .innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
     .innerJoin(tables.teams, eq(tables.teams.id, tables.entries.teamId))
     .where(eq(tables.entries.id, inspection.entryId))
-  const answers = (await answersOf([inspectionId])).sort((a, b) => a.itemKey.localeCompare(b.itemKey))
+  const answers = (await answersOf([inspectionId], db)).sort((a, b) => a.itemKey.localeCompare(b.itemKey))
   return {
     inspection: inspection.id,
     previous: inspection.previousId,
@@ -234,26 +249,22 @@ export async function signInspection(
   user: { id: number },
 ) {
   await assertPassword(user.id, input.password)
-  const inspection = await loadInspection(inspectionId)
-  const missing = missingItems(inspection.checklist, asAnswers(await answersOf([inspectionId])))
-  if (missing.length) {
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'Invalid input',
-      message: `items: not answered: ${missing.map(m => m.label).join('; ')}`,
-      data: {
-        issues: [{ path: 'items', message: `not answered: ${missing.map(m => m.label).join('; ')}` }],
-        missing: missing.map(m => m.key),
-      },
-    })
-  }
-  const content = await inspectionContent(inspectionId)
   return useDb().transaction(async (tx) => {
-    const locked = await tx.execute<{ signature_id: number | null }>(
-      sql`select signature_id from inspections where id = ${inspectionId} for update`,
-    )
-    if (locked.rows[0]?.signature_id)
-      throw conflict('This inspection is already signed')
+    // The content is read under the same row lock as the signature: what is signed is what is stored.
+    const inspection = await lockUnsigned(tx, inspectionId)
+    const missing = missingItems(inspection.checklist, asAnswers(await answersOf([inspectionId], tx)))
+    if (missing.length) {
+      throw createError({
+        statusCode: 422,
+        statusMessage: 'Invalid input',
+        message: `items: not answered: ${missing.map(m => m.label).join('; ')}`,
+        data: {
+          issues: [{ path: 'items', message: `not answered: ${missing.map(m => m.label).join('; ')}` }],
+          missing: missing.map(m => m.key),
+        },
+      })
+    }
+    const content = await inspectionContent(inspectionId, tx)
     const sig = await insertSignature(tx, {
       kind: 'inspection',
       subjectId: inspectionId,
