@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { readAttachments } from '../../server/utils/dossier/pdf-attachments'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, login, mailTo, url, useTestServer } from '../support/api'
 import { sha256 } from '../support/files'
-import { pairSpeed, timesOver } from '../support/hand'
+import { pairSpeed, speedOver, timesOver } from '../support/hand'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -72,6 +72,41 @@ describe('the demo\'s ratified dossier', () => {
     const byHand = pairSpeed('1609.344', t1!, t2!)
     expect(record).toMatchObject({ speedKmh: byHand.kmh, speedMph: byHand.mph })
     expect(Buffer.from(pdf.subarray(0, 5)).toString()).toBe('%PDF-')
+  })
+
+  it('prints every figure of the pair as the database gives it, read back with poppler\'s pdftotext', async () => {
+    // The text of the sealed PDF (Debian's poppler-utils, a reader independent of the product), whitespace folded.
+    const file = resolve(inject('dataDir'), `dossier-${dossierId}.pdf`)
+    writeFileSync(file, pdf)
+    const text = await new Promise<string>((done, fail) => {
+      const p = spawn('pdftotext', ['-enc', 'UTF-8', file, '-'])
+      let out = ''
+      p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
+      p.on('error', fail)
+      p.on('close', code => (code === 0 ? done(out.replace(/\s+/g, ' ')) : fail(new Error(`pdftotext exited ${code}`))))
+    })
+    const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
+    const sheet = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.organiser })).body
+    const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
+    const trap = (label: string) => setup.courses.flatMap((c: any) => c.traps).find((t: any) => t.label === label).id
+    const primary = setup.systems.find((x: any) => x.role === 'primary').id
+    const runs = sheet.attempts.find((a: any) => a.id === attemptId).runs
+    const [t1, t2] = timesOver(runs, trap('M-in'), trap('M-out'), primary)
+    // Each run: its time over the mile and its speed, d / t, by hand (mathjs), truncated (common practice).
+    for (const t of [t1!, t2!]) {
+      const v = speedOver('1609.344', t)
+      expect(text).toContain(`= 1609.344 m / ${t.toFixed(4)} s = ${v.kmh} km/h = ${v.mph} mph`)
+    }
+    // The pair by the profile's averaging (mean of times): the mean time, and the distance over it.
+    const mean = t1!.add(t2!).div(2)
+    const pair = pairSpeed('1609.344', t1!, t2!)
+    expect(text).toContain(`Mean time = (t1 + t2) / 2 = ${mean.toFixed(5).replace(/0$/, '')} s`)
+    expect(text).toContain(`= ${pair.kmh} km/h = ${pair.mph} mph`)
+    expect(text).toContain(`${pair.kmh} km/h`)
+    // The record it was measured against, in the unit it was published in (the demo book's invented 239.227 mph).
+    expect(text).toContain('239.227 mph; beaten')
+    const [{ name }] = (await db.query('select name from events where id = $1', [eventId])).rows
+    expect(text).toContain(name)
   })
 
   it('became the standing record from its ratification on; the pair before it is measured against the old one', async () => {

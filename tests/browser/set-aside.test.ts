@@ -68,7 +68,7 @@ it('a run started by the server clock, a failing cross-check that blocks the dos
   // The official finds the failing cross-check blocking the dossier, and sets it aside in writing.
   const official = await signIn(stand, demoEmail('official'), `/attempts/${run.attemptId}/dossier`)
   const item = official.locator(`[data-test="ready-finding-timing.cross-check-${run.id}"]`)
-  await expect.poll(() => item.innerText()).toContain('To do')
+  await expect.poll(() => item.innerText()).toMatch(/to do/i)
   expect(await item.innerText()).toContain('blocks the dossier')
   const form = item.locator(`[data-test="set-aside-timing.cross-check-${run.id}"]`)
   const reason = 'Backup beam knocked by a gust at the exit trap; primary confirmed against the photo finish.'
@@ -76,7 +76,7 @@ it('a run started by the server clock, a failing cross-check that blocks the dos
   await form.locator('input:not([type="password"])').fill('Oswin Oakes')
   await form.locator('input[type="password"]').fill(DEMO_PASSWORD)
   await form.locator('button:has-text("Sign the set-aside")').click()
-  await expect.poll(() => item.innerText()).toContain('Done')
+  await expect.poll(() => item.innerText()).toMatch(/done/i)
   expect(await item.innerText()).toContain(reason)
 
   // The team's live results now read the pair as valid, with the decision beside the finding.
