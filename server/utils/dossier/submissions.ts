@@ -118,6 +118,20 @@ export async function submitDossier(dossierId: number, userId: number) {
   }
 }
 
+/** What an official signs in deciding on a dossier: the sealed file by its hashes, and the decision. */
+export const decisionContent = (
+  d: typeof tables.dossiers.$inferSelect,
+  x: { decision: string, reasons: string },
+) => ({
+  dossier: d.id,
+  attempt: d.attemptId,
+  version: d.version,
+  pdfSha256: d.pdfSha256,
+  manifestSha256: d.manifestSha256,
+  decision: x.decision,
+  reasons: x.reasons,
+})
+
 /** An official ratifies or refuses a submitted dossier, with reasons, signed; the team is e-mailed. */
 export async function decideDossier(
   dossierId: number,
@@ -135,15 +149,7 @@ export async function decideDossier(
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
       throw conflict(`This dossier was already ${existing.decision}`)
-    const content = {
-      dossier: d.id,
-      attempt: d.attemptId,
-      version: d.version,
-      pdfSha256: d.pdfSha256,
-      manifestSha256: d.manifestSha256,
-      decision: input.decision,
-      reasons: input.reasons,
-    }
+    const content = decisionContent(d, input)
     const sig = await insertSignature(tx, {
       kind: 'ratification',
       subjectId: d.id,

@@ -44,6 +44,16 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x!.s.attemptId)
     title = `Set-aside of finding ${x!.s.code} on attempt #${x!.s.attemptId}`
   }
+  else if (s.kind === 'ratification') {
+    const [x] = await useDb()
+      .select({ d: tables.dossiers, decision: tables.decisions })
+      .from(tables.dossiers)
+      .innerJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
+      .where(eq(tables.dossiers.id, s.subjectId))
+    current = x ? decisionContent(x.d, x.decision) : null
+    teamId = await teamOfAttempt(x?.d.attemptId ?? 0)
+    title = `Decision on dossier #${s.subjectId}`
+  }
   else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
     teamId = await teamOfAttempt(s.subjectId)
