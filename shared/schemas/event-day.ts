@@ -22,8 +22,9 @@ export const decimalText = (maxDecimals: number, opts: { min?: number, max?: num
       try {
         v = fromDecimal(s)
       }
-      catch {
-        ctx.addIssue({ code: 'custom', message: 'must be a decimal number' })
+      catch (e) {
+        const message = e instanceof RangeError ? `must be ${e.message}` : 'must be a decimal number'
+        ctx.addIssue({ code: 'custom', message })
         return
       }
       if (decimalsOf(s) > maxDecimals) ctx.addIssue({ code: 'custom', message: `at most ${maxDecimals} decimals` })

@@ -1,9 +1,13 @@
 import { z } from 'zod'
-import { fromInput } from '../rules/exact'
+import { fromInput, MAX_DECIMAL_CHARS } from '../rules/exact'
 import { isTimeZone } from '../rules/zoned'
 
 /** A positive, finite amount given as a JSON number or an exact decimal string ("5.767"). */
 export const positiveDecimal = z.union([z.number(), z.string()]).superRefine((x, ctx) => {
+  if (typeof x === 'string' && x.length > MAX_DECIMAL_CHARS) {
+    ctx.addIssue({ code: 'custom', message: `must be at most ${MAX_DECIMAL_CHARS} characters` })
+    return
+  }
   try {
     if (fromInput(x).n <= 0n) ctx.addIssue({ code: 'custom', message: 'must be greater than zero' })
   }

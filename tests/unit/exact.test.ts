@@ -29,3 +29,13 @@ describe('exact figures', () => {
     expect(toFixed(msToKmh(div(q(1000n), fromDecimal('2.5'))), 3)).toBe('1440.000')
   })
 })
+
+describe('bounded decimals', () => {
+  it('refuses a decimal longer than 40 characters, or an exponent beyond 30, before any arithmetic', () => {
+    // Common practice of input validation: a time of day at 1 µs needs 15 characters.
+    expect(() => fromDecimal(`1.${'7'.repeat(39)}`)).toThrow(/at most 40 characters/)
+    expect(fromDecimal(`1.${'7'.repeat(38)}`).d).toBe(10n ** 38n)
+    expect(() => fromDecimal('1e31')).toThrow(/exponent/)
+    expect(() => fromDecimal(`${' '.repeat(100)}1`)).toThrow(/at most 40 characters/)
+  })
+})
