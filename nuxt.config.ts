@@ -38,7 +38,9 @@ export default defineNuxtConfig({
     },
     /** Size limits per evidence kind in bytes; 0 keeps the default of shared/evidence/kinds.ts. */
     evidenceLimits: { survey: 0, calibration: 0, scale: 0, licence: 0, photo: 0, video: 0, dataLog: 0, other: 0 },
-    mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>' },
+    // tls: 'none' (the local catcher), 'starttls' (upgrade, required) or 'implicit' (port 465); user and
+    // password when the server asks for them.
+    mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>', tls: 'none', user: '', password: '' },
     mailRetrySeconds: 30,
     /** Evidence files up to this total are attached inside a dossier PDF; larger ones are referenced by hash. */
     dossierAttachBytes: 20 * 1024 * 1024,

@@ -592,6 +592,8 @@ export const mailOutbox = pgTable('mail_outbox', {
   attachmentName: text('attachment_name'),
   tries: integer('tries').notNull().default(0),
   lastError: text('last_error'),
+  /** Leased by the process sending it until then; another takes it only after. */
+  claimedUntil: timestamp('claimed_until', { withTimezone: true }),
   sentAt: timestamp('sent_at', { withTimezone: true }),
   createdAt: createdAt(),
 })

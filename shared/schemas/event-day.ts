@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { decimalsOf, fromDecimal } from '../rules/exact'
 import { PROFILE_IDS } from '../rules/profiles'
-import { isoDateTime } from './fields'
+import { isoDateTime, recordId } from './fields'
 import {
   AVERAGINGS,
   DIRECTIONS,
@@ -35,7 +35,7 @@ export const decimalText = (maxDecimals: number, opts: { min?: number, max?: num
         ctx.addIssue({ code: 'custom', message: `must be at most ${opts.max}` })
     })
 
-const id = z.coerce.number({ error: 'must be a number' }).int().positive()
+const id = recordId
 const label = z.string().trim().min(1, { error: 'is required' }).max(40)
 const day = z.iso.date({ error: 'must be a date, YYYY-MM-DD' })
 /** A time of day read at a trap: HH:MM:SS with a fraction, e.g. 10:15:02.123. */
@@ -168,7 +168,7 @@ export type ReadingInput = z.infer<typeof readingSchema>
 export const correctionSchema = z.object({
   time: timeOfDay,
   reason: z.string().trim().min(3, { error: 'say why the time is corrected' }).max(300),
-  expectedCurrentId: z.number().int().positive(),
+  expectedCurrentId: recordId,
 })
 export type CorrectionInput = z.infer<typeof correctionSchema>
 export const abortSchema = z.object({
@@ -200,12 +200,12 @@ export const reopenSheetSchema = signSheetSchema.extend({
 export type ReopenSheetInput = z.infer<typeof reopenSheetSchema>
 
 export const csvImportSchema = z.object({
-  csv: z.string().min(1, { error: 'the file is empty' }).max(2_000_000, { error: 'the file is over 2 MB' }),
+  csv: z.string().min(1, { error: 'the file is empty' }).max(1_000_000, { error: 'the file is over 1 MB' }),
   columns: z.object({
-    run: z.string().min(1),
-    trap: z.string().min(1),
-    time: z.string().min(1),
-    system: z.string().min(1).optional(),
+    run: z.string().min(1).max(80),
+    trap: z.string().min(1).max(80),
+    time: z.string().min(1).max(80),
+    system: z.string().min(1).max(80).optional(),
   }),
   systemId: id.optional(),
   commit: z.boolean().default(false),

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { PROFILE_IDS } from '../rules/profiles'
-import { email, timeZoneName } from './fields'
+import { email, recordId, timeZoneName } from './fields'
 import { EVENT_ROLES, type EventRole } from '../constants'
 
 export { EVENT_ROLES }
@@ -43,7 +43,7 @@ export const inviteSchema = z
   })
 export type InviteInput = z.infer<typeof inviteSchema>
 
-export const eventIdParams = z.object({ id: z.coerce.number({ error: 'must be a number' }).int().positive() })
+export const eventIdParams = z.object({ id: recordId })
 
 export const updateEventSchema = z
   .object({

@@ -1,7 +1,8 @@
 import { z } from 'zod'
 import { EVIDENCE_KINDS } from '../evidence/kinds'
+import { recordId } from './fields'
 
-const optionalId = z.coerce.number({ error: 'must be a number' }).int().positive().optional()
+const optionalId = recordId.optional()
 
 /** The form fields sent before the file in a multipart upload. */
 export const evidenceFieldsSchema = z.object({
@@ -25,6 +26,6 @@ export const evidenceQuerySchema = z.object({
 export type EvidenceQuery = z.infer<typeof evidenceQuerySchema>
 
 export const hashParams = z.object({
-  id: z.coerce.number().int().positive(),
+  id: recordId,
   sha: z.string().regex(/^[0-9a-f]{64}$/, { error: 'must be a SHA-256 in hex' }),
 })

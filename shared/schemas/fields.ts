@@ -21,6 +21,16 @@ export const positiveNumber = z
   .finite()
   .positive({ error: 'must be greater than zero' })
 
+/** The largest id PostgreSQL's integer (serial) columns hold. */
+export const MAX_RECORD_ID = 2_147_483_647
+
+/** The id of a stored record: a positive integer within the database's range, from a number or text. */
+export const recordId = z.coerce
+  .number({ error: 'must be a number' })
+  .int({ error: 'must be a whole number' })
+  .positive({ error: 'must be a positive number' })
+  .max(MAX_RECORD_ID, { error: 'is not the id of any record' })
+
 /** ISO-8601 date and time with Z or an offset, e.g. 2026-08-14T07:05:00Z. */
 export const isoDateTime = z.iso.datetime({
   offset: true,

@@ -1,15 +1,17 @@
 import { z } from 'zod'
 import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
+import { recordId } from './fields'
 import { BUS_KINDS, DECISIONS, ITEM_RESULTS } from '../constants'
 
-const id = z.coerce.number({ error: 'must be a number' }).int().positive()
+const id = recordId
 
 export const checklistAdaptSchema = z.object({
   baseId: z.enum(CHECKLIST_IDS as [string, ...string[]], { error: `must be one of ${CHECKLIST_IDS.join(', ')}` }),
-  removeItems: z.array(z.string()).default([]),
+  removeItems: z.array(z.string().max(80)).max(200).default([]),
   addItems: z
-    .array(z.object({ section: z.string().trim().min(1), label: z.string().trim().min(3).max(300) }))
+    .array(z.object({ section: z.string().trim().min(1).max(80), label: z.string().trim().min(3).max(300) }))
+    .max(50)
     .default([]),
   note: z.string().trim().min(3, { error: 'say which rulebook the adaptation follows' }).max(300),
 })

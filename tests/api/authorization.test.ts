@@ -35,6 +35,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/home': { expect: signedIn(200) },
   'GET /api/events': { expect: signedIn(200) },
   'POST /api/events': { expect: adminOnly(422), body: {} },
+  'GET /api/admin/outbox': { expect: adminOnly(200) },
   'GET /api/events/[id]': { expect: { ...eventMembers(200), admin: 200 } },
   'PATCH /api/events/[id]': { expect: organiserOnly(200), body: {} },
   'GET /api/events/[id]/people': { expect: organiserOnly(200) },

@@ -20,12 +20,19 @@ class RowRefused extends Error {
   }
 }
 
+/** The most rows one import takes: a long day of two systems at four traps is a few thousand. */
+export const MAX_IMPORT_ROWS = 10_000
+
 /**
  * A timing system's CSV export: one row per trap passing (run, trap label, time of day, optional
  * system). Checked whole first; written only when every row is valid, in one transaction.
  */
 export async function importReadings(eventId: number, input: CsvImportInput, userId: number) {
   const parsed = parseCsv(input.csv)
+  if (parsed.data.length > MAX_IMPORT_ROWS) {
+    throw fieldInvalid('csv', `has ${parsed.data.length} rows; one import takes at most ${MAX_IMPORT_ROWS} `
+      + '(split the file by run or by hour)')
+  }
   const missing = missingColumns(parsed.meta.fields ?? [], input.columns)
   if (missing.length) return { ok: false, rows: [], errors: missing, written: 0 }
   const ctx = await loadImportContext(eventId)

@@ -15,8 +15,10 @@ export async function sendMail(mail: OutgoingMail) {
   transport ??= nodemailer.createTransport({
     host: cfg.host,
     port: Number(cfg.port),
-    secure: false,
-    ignoreTLS: true,
+    secure: cfg.tls === 'implicit',
+    requireTLS: cfg.tls === 'starttls',
+    ignoreTLS: cfg.tls === 'none',
+    auth: cfg.user ? { user: cfg.user, pass: cfg.password } : undefined,
   })
   await transport.sendMail({ from: cfg.from, ...mail })
 }

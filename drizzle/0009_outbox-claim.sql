@@ -1,0 +1,1 @@
+ALTER TABLE "mail_outbox" ADD COLUMN "claimed_until" timestamp with time zone;
