@@ -59,6 +59,8 @@ export const users = pgTable('users', {
   isAdmin: boolean('is_admin').notNull().default(false),
   createdAt: createdAt(),
   passwordChangedAt: timestamp('password_changed_at', { withTimezone: true }),
+  /** Raised to end every session of the person (a new password, "sign out everywhere"). */
+  sessionVersion: integer('session_version').notNull().default(0),
 })
 
 export const events = pgTable('events', {

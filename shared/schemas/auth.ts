@@ -30,3 +30,7 @@ export const changePasswordSchema = z
     path: ['newPassword'],
   })
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>
+
+/** Signing out; `everywhere` ends every session of the person, on every device. */
+export const logoutSchema = z.object({ everywhere: z.boolean().default(false) })
+export type LogoutInput = z.infer<typeof logoutSchema>

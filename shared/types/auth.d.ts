@@ -7,6 +7,8 @@ declare module '#auth-utils' {
   }
   interface UserSession {
     loggedInAt: string
+    /** The person's session version when it began; a session of an older version has ended. */
+    version: number
   }
 }
 

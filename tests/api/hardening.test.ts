@@ -1,5 +1,6 @@
-import { describe, expect, it } from 'vitest'
-import { call, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
+import pg from 'pg'
+import { describe, expect, inject, it } from 'vitest'
+import { call, demoEmail, demoEventId, invitedPerson, linkToken, login, mailTo, url, useTestServer } from '../support/api'
 
 await useTestServer()
 
@@ -65,5 +66,86 @@ describe('bounded bodies, ids and text', () => {
     expect(r.status).toBe(422)
     expect(r.body.data.issues[0]).toMatchObject({ path: 'csv' })
     expect(r.body.data.issues[0].message).toContain('at most 10000')
+  })
+})
+
+describe('sessions that end', () => {
+  const me = (cookie: string) => call('GET', '/api/me', { cookie })
+
+  it('a new password ends every other session of the person; this one goes on', async () => {
+    const person = await invitedPerson('official', 'first-password-1')
+    const other = await login(person.email, 'first-password-1')
+    expect((await me(other)).status).toBe(200)
+    const changed = await fetch(url('/api/auth/password'), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'cookie': person.cookie },
+      body: JSON.stringify({ currentPassword: 'first-password-1', newPassword: 'second-password-2' }),
+    })
+    expect(changed.status).toBe(200)
+    const renewed = changed.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    expect((await me(renewed)).status).toBe(200)
+    expect((await me(other)).status).toBe(401)
+    expect((await me(person.cookie)).status).toBe(401) // the cookie before the change was replaced
+  })
+
+  it('a reset through a link ends every session and spends the person\'s other open links', async () => {
+    const person = await invitedPerson('official', 'first-password-1')
+    for (let i = 0; i < 2; i++) expect((await call('POST', '/api/auth/forgot', { body: { email: person.email } })).status).toBe(202)
+    const first = linkToken((await mailTo(person.email, 'new password')).text)
+    // Both mails went out; the other one is the second link.
+    await expect.poll(async () => (await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as { to: string[], subject: string }[])
+      .filter(m => m.to.includes(person.email) && m.subject.includes('new password')).length).toBe(2)
+    const links = (await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as { to: string[], text: string }[])
+      .filter(m => m.to.includes(person.email) && m.text.includes('set-password')).map(m => linkToken(m.text))
+    const second = links.find(l => l !== first && l !== person.token)!
+    expect(second).toBeTruthy()
+    expect((await call('POST', '/api/auth/token', { body: { token: first, password: 'third-password-3' } })).status).toBe(200)
+    expect((await me(person.cookie)).status).toBe(401)
+    expect((await call('POST', '/api/auth/token', { body: { token: second, password: 'fourth-password-4' } })).status).toBe(410)
+  })
+
+  it('signing out everywhere ends the sessions on other devices', async () => {
+    const person = await invitedPerson('official', 'first-password-1')
+    const other = await login(person.email, 'first-password-1')
+    expect((await call('POST', '/api/auth/logout', { cookie: person.cookie, body: { everywhere: true } })).status).toBe(204)
+    expect((await me(other)).status).toBe(401)
+    const plain = await login(person.email, 'first-password-1')
+    const third = await login(person.email, 'first-password-1')
+    expect((await call('POST', '/api/auth/logout', { cookie: plain })).status).toBe(204)
+    expect((await me(third)).status).toBe(200) // an ordinary sign-out ends this session only
+  })
+
+  it('reads administrator rights from the database on every request, not from the cookie', async () => {
+    const person = await invitedPerson('official', 'first-password-1')
+    const db = new pg.Client({ connectionString: inject('databaseUrl') })
+    await db.connect()
+    try {
+      expect((await call('GET', '/api/admin/outbox', { cookie: person.cookie })).status).toBe(403)
+      await db.query('update users set is_admin = true where email = $1', [person.email])
+      expect((await call('GET', '/api/admin/outbox', { cookie: person.cookie })).status).toBe(200)
+      await db.query('update users set is_admin = false where email = $1', [person.email])
+      expect((await call('GET', '/api/admin/outbox', { cookie: person.cookie })).status).toBe(403)
+    }
+    finally {
+      await db.end()
+    }
+  })
+})
+
+describe('answers that tell nothing', () => {
+  it('a password reset answers the same for an address with an account and one without', async () => {
+    const known = await call('POST', '/api/auth/forgot', { body: { email: demoEmail('official') } })
+    const unknown = await call('POST', '/api/auth/forgot', { body: { email: `nobody-${Date.now()}@example.test` } })
+    expect([known.status, unknown.status]).toEqual([202, 202])
+    expect(known.body).toEqual(unknown.body)
+  })
+
+  it('an invitation answers the same whether or not the address already has an account', async () => {
+    const cookie = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(cookie)
+    const fresh = await call('POST', `/api/events/${eventId}/people`, { cookie, body: { email: `fresh-${Date.now()}@example.test`, name: 'Fresh Person', role: 'official' } })
+    const existing = await call('POST', `/api/events/${eventId}/people`, { cookie, body: { email: demoEmail('scrutineer'), name: 'Someone', role: 'official' } })
+    expect([fresh.status, existing.status]).toEqual([201, 201])
+    expect(Object.keys(fresh.body).sort()).toEqual(Object.keys(existing.body).sort())
   })
 })

@@ -12,5 +12,7 @@ export default defineEventHandler(async (event) => {
     .update(tables.users)
     .set({ passwordHash: await hashPassword(newPassword), passwordChangedAt: new Date() })
     .where(eq(tables.users.id, me.id))
+  // Every other session ends; this one goes on under the new version.
+  await signIn(event, await endSessions(me.id))
   return { ok: true }
 })

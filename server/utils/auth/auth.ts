@@ -4,9 +4,10 @@ import type { EventRole } from '#shared/constants'
 import { eventIdParams } from '#shared/schemas/events'
 import { idParams } from '#shared/schemas/event-day'
 
-/** Signed in, else 401. */
+/** Signed in with a session that has not ended, else 401. */
 export async function requireUser(event: H3Event) {
-  const { user } = await requireUserSession(event, { statusCode: 401, message: 'Sign in first' })
+  const user = await sessionUser(event)
+  if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in first' })
   return user
 }
 

@@ -44,12 +44,16 @@ export async function spendToken(token: string, passwordHash: string, name?: str
       .where(and(eq(tables.authTokens.id, row.token.id), isNull(tables.authTokens.usedAt)))
       .returning({ id: tables.authTokens.id })
     if (!spent.length) throw createError({ statusCode: 410, statusMessage: 'This link has already been used' })
-    const [user] = await tx
+    // A new password spends the person's other open links and ends every session they had.
+    await tx
+      .update(tables.authTokens)
+      .set({ usedAt: new Date() })
+      .where(and(eq(tables.authTokens.userId, row.user.id), isNull(tables.authTokens.usedAt)))
+    await tx
       .update(tables.users)
       .set({ passwordHash, passwordChangedAt: new Date(), ...(name ? { name } : {}) })
       .where(eq(tables.users.id, row.user.id))
-      .returning()
-    return user!
+    return endSessions(row.user.id, tx)
   })
 }
 

@@ -15,7 +15,15 @@ export function useDb(): Db {
   if (!db) {
     const { databaseUrl } = useRuntimeConfig()
     if (!databaseUrl) throw new Error('NUXT_DATABASE_URL is not set')
-    pool = new pg.Pool({ connectionString: databaseUrl, max: 10 })
+    pool = new pg.Pool({
+      connectionString: databaseUrl,
+      max: 10,
+      // A request waits at most 10 s for a connection (then fails, rather than queueing for ever), and no
+      // statement runs longer than 30 s; an idle client is returned after 30 s.
+      connectionTimeoutMillis: 10_000,
+      idleTimeoutMillis: 30_000,
+      statement_timeout: 30_000,
+    })
     db = drizzle(pool, { schema })
   }
   return db

@@ -49,21 +49,22 @@ export async function invitePerson(inv: Invitation) {
   const role = roleLabels[inv.role].toLowerCase()
   if (!result.user.passwordHash) {
     const token = await issueToken(result.user.id, 'invite')
-    await sendMail({
+    await queueMail([{
       to: inv.email,
       subject: `Trapline: you are invited as ${role} at ${result.eventName}`,
       text:
         `Hello ${result.user.name},\n\nYou have been invited to ${result.eventName} on Trapline as ${role}.\n`
         + `Set your password with this link (valid for 7 days, usable once):\n\n${linkFor(token)}\n`,
-    })
+    }], { wait: false })
   }
   else {
-    await sendMail({
+    await queueMail([{
       to: inv.email,
       subject: `Trapline: you are now ${role} at ${result.eventName}`,
       text: `Hello ${result.user.name},\n\nYou now hold the role of ${role} at ${result.eventName} on Trapline. Sign `
         + `in as usual to see what is next.\n`,
-    })
+    }], { wait: false })
   }
-  return { userId: result.user.id, membershipId: result.membershipId, invited: !result.user.passwordHash }
+  // The same answer whether or not the address already had an account.
+  return { userId: result.user.id, membershipId: result.membershipId }
 }

@@ -1,12 +1,21 @@
 import { and, asc, desc, eq, gt, inArray, isNull, sql } from 'drizzle-orm'
 
-/** Writes mail to the outbox, then tries to send it; what fails is retried by the outbox plugin. */
+/**
+ * Writes mail to the outbox, then tries to send it; what fails is retried by the outbox plugin. With
+ * `wait: false` the answer does not wait for the mail server (its speed or failure tells nothing).
+ */
 export async function queueMail(
   mails: { to: string, subject: string, text: string, attachmentSha256?: string, attachmentName?: string }[],
+  options: { wait?: boolean } = {},
 ) {
   if (!mails.length) return { queued: 0, sent: 0 }
   const rows = await useDb().insert(tables.mailOutbox).values(mails).returning({ id: tables.mailOutbox.id })
-  const sent = await deliver(rows.map(r => r.id))
+  const ids = rows.map(r => r.id)
+  if (options.wait === false) {
+    deliver(ids).catch(() => {})
+    return { queued: rows.length, sent: 0 }
+  }
+  const sent = await deliver(ids)
   return { queued: rows.length, sent }
 }
 
