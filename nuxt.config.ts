@@ -37,6 +37,8 @@ export default defineNuxtConfig({
       s3: { endpoint: '', region: 'us-east-1', bucket: 'trapline-evidence', accessKeyId: '', secretAccessKey: '' },
     },
     /** Size limits per evidence kind in bytes; 0 keeps the default of shared/evidence/kinds.ts. */
+    /** Bytes of evidence a team may store at one event (its entries, attempts, runs, inspections). */
+    teamQuotaBytes: 20 * 1024 ** 3,
     evidenceLimits: { survey: 0, calibration: 0, scale: 0, licence: 0, photo: 0, video: 0, dataLog: 0, other: 0 },
     // tls: 'none' (the local catcher), 'starttls' (upgrade, required) or 'implicit' (port 465); user and
     // password when the server asks for them.

@@ -130,8 +130,11 @@ describe('invitations and passwords', () => {
     expect(expired.status).toBe(410)
 
     await call('POST', '/api/auth/forgot', { body: { email: person.email } })
-    const mails = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as { to: string, subject: string, text: string }[]
-    const fresh = linkToken(mails.find(m => m.to.includes(person.email) && m.subject.includes('new password') && linkToken(m.text) !== token)!.text)
+    // The answer does not wait for the mail server: the mail arrives through the outbox just after.
+    const freshMail = async () => ((await (await fetch(`${inject('inboxUrl')}/api/messages`)).json()) as { to: string, subject: string, text: string }[])
+      .find(m => m.to.includes(person.email) && m.subject.includes('new password') && linkToken(m.text) !== token)
+    await expect.poll(freshMail, { timeout: 10_000 }).toBeTruthy()
+    const fresh = linkToken((await freshMail())!.text)
     const ok = await call('POST', '/api/auth/token', { body: { token: fresh, password: 'reset-password-3' } })
     expect(ok.status).toBe(200)
     expect((await call('POST', '/api/auth/login', { body: { email: person.email, password: person.password } })).status).toBe(401)

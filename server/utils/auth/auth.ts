@@ -23,6 +23,8 @@ export interface EventAccess {
   roles: EventRole[]
   teamIds: number[]
   asAdmin: boolean
+  /** The roles held here that the action allows: what the person acts as. */
+  actsAs: EventRole[]
 }
 
 /**
@@ -48,12 +50,16 @@ export async function requireEventRole(
       .select({ id: tables.events.id })
       .from(tables.events)
       .where(eq(tables.events.id, eventId))
-    if (found.length) return { user, eventId, roles, teamIds, asAdmin: true }
+    if (found.length) return { user, eventId, roles, teamIds, asAdmin: true, actsAs: roles }
   }
   return gate({ user, eventId, roles, teamIds, asAdmin: false }, allowed, 'No such event')
 }
 
-function gate(access: EventAccess, allowed: readonly EventRole[] | 'any', notFound: string): EventAccess {
+function gate(
+  access: Omit<EventAccess, 'actsAs'>,
+  allowed: readonly EventRole[] | 'any',
+  notFound: string,
+): EventAccess {
   if (!access.roles.length) throw createError({ statusCode: 404, statusMessage: notFound })
   if (allowed !== 'any' && !access.roles.some(r => allowed.includes(r))) {
     throw createError({
@@ -61,8 +67,15 @@ function gate(access: EventAccess, allowed: readonly EventRole[] | 'any', notFou
       statusMessage: `This needs the role of ${allowed.join(' or ')} at this event`,
     })
   }
-  return access
+  return { ...access, actsAs: allowed === 'any' ? access.roles : access.roles.filter(r => allowed.includes(r)) }
 }
+
+/**
+ * Whether the person acts here only as a team: every role they hold that the action allows is the
+ * team role. Such a person reaches their own team's records only, whatever other roles they hold.
+ */
+export const actsAsTeamOnly = (access: EventAccess) =>
+  !access.asAdmin && access.actsAs.every(r => r === 'team')
 
 const OWNER = {
   run: sql`select event_id from runs where id = `,

@@ -130,6 +130,7 @@ function accessAs(facts: DemoFacts, u: DemoUser, roles: ('organiser' | 'team')[]
     roles,
     teamIds,
     asAdmin: false,
+    actsAs: roles,
   }
 }
 

@@ -15,8 +15,7 @@ export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, access.eventId)))
   if (!row) throw notFound('No such attempt')
-  const teamOnly = !access.asAdmin && access.roles.every(r => r === 'team')
-  if (teamOnly && !access.teamIds.includes(row.teamId))
+  if (actsAsTeamOnly(access) && !access.teamIds.includes(row.teamId))
     throw notFound('No such attempt')
   return row.teamId
 }

@@ -59,10 +59,10 @@ async function targetTeams(eventId: number, f: Fields): Promise<number[] | null>
   return teams.length ? teams : null
 }
 
-const teamOnly = (access: EventAccess) => !access.asAdmin && access.roles.every(r => r === 'team')
+const teamOnly = actsAsTeamOnly
 
 /** Checks the form fields before any byte of the file is stored; returns the kind's size limit. */
-export function evidenceGate(access: EventAccess) {
+export function evidenceGate(access: EventAccess, checked: GateRecord = {}) {
   return async (raw: Record<string, unknown>) => {
     const r = evidenceFieldsSchema.safeParse(raw)
     if (!r.success) {
@@ -70,13 +70,78 @@ export function evidenceGate(access: EventAccess) {
       if (fieldsMissing) throw field('kind', 'send the kind (and what the file belongs to) before the file')
       throw invalidInput(r.error)
     }
+    assertCertificateRole(access, r.data)
     const teams = await targetTeams(access.eventId, r.data)
-    if (teamOnly(access) && teams && !teams.every(t => access.teamIds.includes(t))) throw noSuchEvidence()
+    // A person who holds a team role attaches to their own team's records only, unless also the organiser.
+    const asTeam = teamOnly(access) || (access.roles.includes('team') && !access.roles.includes('organiser'))
+    if (asTeam && teams && !teams.every(t => access.teamIds.includes(t))) throw noSuchEvidence()
     if (teamOnly(access) && !teams)
       throw field('entryId', 'a team attaches evidence to its own entry, attempt or run')
-    return limitFor(r.data.kind)
+    checked.fields = r.data
+    checked.raw = { ...raw }
+    const room = await quotaLeft(access, teams)
+    return Math.min(limitFor(r.data.kind), room)
   }
 }
+
+/** What the gate checked before the file: the fields as sent, and as parsed. */
+export interface GateRecord {
+  fields?: Fields
+  raw?: Record<string, unknown>
+}
+
+/**
+ * The fields the gate checked, refusing any sent after the file (they were never checked): the staged
+ * file is removed with the refusal.
+ */
+export async function checkedFields(file: StagedFile, after: Record<string, unknown>, checked: GateRecord) {
+  const late = Object.keys(after).find(k => JSON.stringify(after[k]) !== JSON.stringify(checked.raw?.[k]))
+  if (late || !checked.fields) {
+    await rmStaged(file.path)
+    throw field(late ?? 'kind', 'was sent after the file; send every field before the file')
+  }
+  return checked.fields
+}
+
+/**
+ * Certificates of the course and of the timing equipment are the event's, attached to what they
+ * certify: a survey by the organiser to a course, a calibration by the organiser or a timekeeper to
+ * a timing system.
+ */
+function assertCertificateRole(access: EventAccess, f: Fields) {
+  const may = (...roles: string[]) => access.asAdmin || access.roles.some(r => roles.includes(r))
+  if (f.kind === 'survey-certificate' || f.courseId) {
+    if (!may('organiser')) throw forbidden('Only the organiser attaches course certificates')
+    if (f.kind === 'survey-certificate' && !f.courseId) throw field('courseId', 'name the course the survey certifies')
+  }
+  if (f.kind === 'calibration-certificate' || f.timingSystemId) {
+    if (!may('organiser', 'timekeeper')) {
+      throw forbidden('Only the organiser or a timekeeper attaches timing-system certificates')
+    }
+    if (f.kind === 'calibration-certificate' && !f.timingSystemId) {
+      throw field('timingSystemId', 'name the timing system the calibration certifies')
+    }
+  }
+}
+
+const forbidden = (statusMessage: string) => createError({ statusCode: 403, statusMessage })
+
+/** Bytes a team may still store at this event (its files on its entries, attempts, runs, inspections). */
+async function quotaLeft(access: EventAccess, teams: number[] | null) {
+  if (!teams?.length) return Number.POSITIVE_INFINITY
+  const quota = Number(useRuntimeConfig().teamQuotaBytes)
+  const team = teams[0]!
+  const { rows } = await useDb().execute<{ used: string }>(sql`
+    select coalesce(sum(x.size), 0)::text as used from evidence x
+    where x.event_id = ${access.eventId} and ${teamSql} = ${team}`)
+  const used = Number(rows[0]!.used)
+  if (used >= quota) {
+    throw field('file', `the team's storage at this event is full: ${mb(used)} of ${mb(quota)} used; `
+      + 'ask the organiser for room')
+  }
+  return quota - used
+}
+const mb = (bytes: number) => `${(bytes / 1_048_576).toFixed(1)} MB`
 
 /** What the content is by its magic bytes: a media type, or "text" for content with none that reads as text. */
 export async function sniff(head: Buffer): Promise<string | null> {

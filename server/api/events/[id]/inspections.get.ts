@@ -2,8 +2,9 @@ import { eq } from 'drizzle-orm'
 
 // Entries with their clearance; a team sees its own entries only.
 export default defineEventHandler(async (event) => {
-  const { eventId, roles, teamIds, asAdmin } = await requireEventRole(event, 'any', { admin: true })
-  const teamOnly = !asAdmin && roles.every(r => r === 'team')
+  const access = await requireEventRole(event, 'any', { admin: true })
+  const { eventId, teamIds } = access
+  const teamOnly = actsAsTeamOnly(access)
   const rows = await useDb()
     .select({
       entry: tables.entries,

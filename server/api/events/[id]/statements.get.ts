@@ -1,5 +1,6 @@
 export default defineEventHandler(async (event) => {
-  const { eventId, roles, teamIds, asAdmin } = await requireEventRole(event, 'any', { admin: true })
-  const teamOnly = !asAdmin && roles.every(r => r === 'team')
+  const access = await requireEventRole(event, 'any', { admin: true })
+  const { eventId, teamIds } = access
+  const teamOnly = actsAsTeamOnly(access)
   return statementsAt(eventId, teamOnly ? teamIds : null)
 })
