@@ -1,6 +1,8 @@
 import pg from 'pg'
 import { describe, expect, inject, it } from 'vitest'
 import { call, demoEmail, demoEventId, invitedPerson, linkToken, login, mailTo, url, useTestServer } from '../support/api'
+import { newEntry } from '../support/entries'
+import { form, pdf, png } from '../support/files'
 
 await useTestServer()
 
@@ -149,5 +151,62 @@ describe('answers that tell nothing', () => {
     const existing = await call('POST', `/api/events/${eventId}/people`, { cookie, body: { email: person.email, name: 'Someone', role: 'timekeeper' } })
     expect([fresh.status, existing.status]).toEqual([201, 201])
     expect(Object.keys(fresh.body).sort()).toEqual(Object.keys(existing.body).sort())
+  })
+})
+
+describe('evidence that cannot be planted', () => {
+  const upload = (cookie: string, eventId: number, body: FormData) =>
+    fetch(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { cookie }, body })
+      .then(async r => ({ status: r.status, body: await r.json() as any }))
+  const setupOf = async (cookie: string, eventId: number) => (await call('GET', `/api/events/${eventId}/setup`, { cookie })).body
+
+  it('a course certificate only by the organiser, a calibration by the organiser or a timekeeper, each on its target', async () => {
+    const timekeeper = await login(demoEmail('timekeeper'))
+    const eventId = await demoEventId(timekeeper)
+    const setup = await setupOf(timekeeper, eventId)
+    const courseId = setup.courses[0].id
+    const systemId = setup.systems[0].id
+    expect((await upload(timekeeper, eventId, form({ kind: 'survey-certificate', courseId }, { name: 's.pdf', bytes: pdf('planted') }))).status).toBe(403)
+    const official = await login(demoEmail('official'))
+    expect((await upload(official, eventId, form({ kind: 'calibration-certificate', timingSystemId: systemId }, { name: 'c.pdf', bytes: pdf('planted') }))).status).toBe(403)
+    const bare = await upload(timekeeper, eventId, form({ kind: 'calibration-certificate' }, { name: 'c.pdf', bytes: pdf('no target') }))
+    expect(bare.status).toBe(422)
+    expect(bare.body.data.issues[0].path).toBe('timingSystemId')
+    expect((await upload(timekeeper, eventId, form({ kind: 'calibration-certificate', timingSystemId: systemId }, { name: 'c.pdf', bytes: pdf(`calibration ${Date.now()}`) }))).status).toBe(201)
+  })
+
+  it('refuses a field sent after the file, storing nothing', async () => {
+    const organiser = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(organiser)
+    const setup = await setupOf(organiser, eventId)
+    const body = form({ kind: 'other-document' }, { name: 'late.pdf', bytes: pdf(`late ${Date.now()}`) })
+    body.append('courseId', String(setup.courses[0].id))
+    const r = await upload(organiser, eventId, body)
+    expect(r.status).toBe(422)
+    expect(r.body.data.issues[0]).toMatchObject({ path: 'courseId', message: expect.stringContaining('after the file') })
+  })
+
+  it('a person who is both team and official attaches only to their own team\'s records', async () => {
+    const organiser = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(organiser)
+    const person = await invitedPerson('team', 'first-password-1', 'Two Hats', { teamName: 'Cinder Hollow Engineering' })
+    expect((await call('POST', `/api/events/${eventId}/people`, { cookie: organiser, body: { email: person.email, name: 'Two Hats', role: 'official' } })).status).toBe(201)
+    const setup = await setupOf(organiser, eventId)
+    const rival = setup.entries.find((e: any) => e.machineName === 'Larkspur Fennwick streamliner').id
+    const r = await upload(person.cookie, eventId, form({ kind: 'photo', entryId: rival }, { name: 'p.png', bytes: png }))
+    expect(r.status).toBe(404)
+  })
+
+  it('stops a team at its storage quota with a clear message, keeping nothing of the refused file', async () => {
+    const organiser = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(organiser)
+    const team = await invitedPerson('team', 'first-password-1', 'Quota Keeper', { teamName: `Quota Team ${Date.now()}` })
+    const entryId = await newEntry(eventId, 'Quota Runner', {}, { team: team.cookie })
+    // The test server's quota is 3 MB per team; 2 MB photos: the first fits, the second does not.
+    const photo = (n: number) => Buffer.concat([png, Buffer.alloc(2 * 1024 * 1024, n)])
+    expect((await upload(team.cookie, eventId, form({ kind: 'photo', entryId }, { name: 'a.png', bytes: photo(1) }))).status).toBe(201)
+    const over = await upload(team.cookie, eventId, form({ kind: 'photo', entryId }, { name: 'b.png', bytes: photo(2) }))
+    expect(over.status).toBe(413)
+    expect(over.body.data.issues[0].message).toContain('the room left in the team\'s storage')
   })
 })

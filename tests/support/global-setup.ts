@@ -34,6 +34,8 @@ export default async function setup(project: TestProject) {
       NUXT_MAIL_RETRY_SECONDS: '1',
       // A small limit for one kind, so that the size check can be tested without gigabytes.
       NUXT_EVIDENCE_LIMITS_OTHER: String(100 * 1024),
+      // A small storage quota per team, so that it can be reached in a test.
+      NUXT_TEAM_QUOTA_BYTES: String(3 * 1024 * 1024),
     })
   }
   catch (e) {

@@ -80,7 +80,10 @@ export function evidenceGate(access: EventAccess, checked: GateRecord = {}) {
     checked.fields = r.data
     checked.raw = { ...raw }
     const room = await quotaLeft(access, teams)
-    return Math.min(limitFor(r.data.kind), room)
+    const kindLimit = limitFor(r.data.kind)
+    return room < kindLimit
+      ? { bytes: room, what: 'the room left in the team\'s storage at this event' }
+      : { bytes: kindLimit, what: 'the limit for this kind' }
   }
 }
 

@@ -36,6 +36,12 @@ export function limitFor(kind: EvidenceKind): number {
   return configured > 0 ? configured : evidenceKinds[kind].maxBytes
 }
 
+/** The most bytes an upload may have, and what sets that limit (said when it is passed). */
+export interface UploadLimit {
+  bytes: number
+  what: string
+}
+
 export class UploadError extends Error {
   constructor(
     public statusCode: number,
@@ -52,7 +58,7 @@ export class UploadError extends Error {
  * form fields before the file are checked first by `beforeFile`.
  */
 class HashingStagingStorage implements multer.StorageEngine {
-  constructor(private beforeFile: (fields: Record<string, unknown>) => Promise<number>) {}
+  constructor(private beforeFile: (fields: Record<string, unknown>) => Promise<UploadLimit>) {}
 
   _handleFile(
     req: IncomingMessage & { body?: Record<string, unknown> },
@@ -63,7 +69,7 @@ class HashingStagingStorage implements multer.StorageEngine {
     ;(async () => {
       const problem = fileNameProblem(file.originalname)
       if (problem) throw new UploadError(422, 'file', problem)
-      const limit = await this.beforeFile(req.body ?? {})
+      const { bytes: limit, what } = await this.beforeFile(req.body ?? {})
       await mkdir(uploadTmpDir(), { recursive: true })
       const hash = createHash('sha256')
       let size = 0
@@ -74,7 +80,7 @@ class HashingStagingStorage implements multer.StorageEngine {
         transform(chunk: Buffer, _enc, done) {
           size += chunk.length
           if (size > limit)
-            return done(new UploadError(413, 'file', `is over the limit of ${limit} bytes for this kind`))
+            return done(new UploadError(413, 'file', `is over ${what}: ${limit} bytes`))
           hash.update(chunk)
           if (headLength < HEAD_BYTES) {
             head.push(chunk.subarray(0, HEAD_BYTES - headLength))
@@ -111,7 +117,7 @@ class HashingStagingStorage implements multer.StorageEngine {
 }
 
 /** Runs multer on the raw request; resolves with the staged file and the form fields. */
-export function receiveUpload(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<number>) {
+export function receiveUpload(event: H3Event, beforeFile: (fields: Record<string, unknown>) => Promise<UploadLimit>) {
   return receiveUploadWith(
     event,
     beforeFile,
@@ -121,7 +127,7 @@ export function receiveUpload(event: H3Event, beforeFile: (fields: Record<string
 
 function receiveUploadWith(
   event: H3Event,
-  beforeFile: (fields: Record<string, unknown>) => Promise<number>,
+  beforeFile: (fields: Record<string, unknown>) => Promise<UploadLimit>,
   maxBytes = 6 * 1024 * 1024 * 1024,
 ) {
   const handler = multer({
@@ -156,5 +162,5 @@ function toHttpError(err: unknown) {
 
 /** The verification page's upload: a PDF up to 200 MB, staged to disk, no form fields needed. */
 export function receiveVerifyUpload(event: H3Event) {
-  return receiveUploadWith(event, async () => 200 * 1024 * 1024)
+  return receiveUploadWith(event, async () => ({ bytes: 200 * 1024 * 1024, what: 'the limit of a dossier' }))
 }
