@@ -48,7 +48,8 @@ export NUXT_SITE_URL="${NUXT_SITE_URL:-http://localhost:$APP_PORT}"
 export NUXT_PUBLIC_INBOX_URL="http://127.0.0.1:$INBOX_PORT"
 export NUXT_SEED_DEMO=true
 export NUXT_DATA_DIR="$DATA"
-export PORT="$APP_PORT" HOST="${HOST:-0.0.0.0}"
+# Only this machine unless told otherwise (HOST=0.0.0.0): the demo's passwords are public.
+export PORT="$APP_PORT" HOST="${HOST:-127.0.0.1}"
 
 node .output/server/index.mjs &
 pids+=($!)

@@ -135,6 +135,7 @@ describe('a server killed during an upload', () => {
       NUXT_DATABASE_URL: env.databaseUrl,
       NUXT_DATA_DIR: env.dataDir,
       NUXT_MAIL_PORT: String(env.smtpPort),
+      NUXT_SEED_DEMO: 'true', // the database holds the demo already: nothing is added
     })
     let server = await start()
     const port = server.port

@@ -1,8 +1,10 @@
+import { resolve } from 'node:path'
 import pg from 'pg'
 import { describe, expect, inject, it } from 'vitest'
 import { call, demoEmail, demoEventId, invitedPerson, linkToken, login, mailTo, url, useTestServer } from '../support/api'
 import { newEntry } from '../support/entries'
 import { form, pdf, png } from '../support/files'
+import { startApp } from '../support/processes'
 
 await useTestServer()
 
@@ -208,5 +210,37 @@ describe('evidence that cannot be planted', () => {
     const over = await upload(team.cookie, eventId, form({ kind: 'photo', entryId }, { name: 'b.png', bytes: photo(2) }))
     expect(over.status).toBe(413)
     expect(over.body.data.issues[0].message).toContain('the room left in the team\'s storage')
+  })
+})
+
+describe('a safe start', () => {
+  it('sends security headers with every page and answer', async () => {
+    for (const path of ['/login', '/api/health']) {
+      const r = await fetch(url(path))
+      const csp = r.headers.get('content-security-policy') ?? ''
+      expect(csp).toContain('default-src \'self\'')
+      expect(csp).toContain('frame-ancestors \'self\'')
+      expect(csp).toContain('object-src \'none\'')
+      expect(r.headers.get('x-content-type-options')).toBe('nosniff')
+      expect(r.headers.get('referrer-policy')).toBe('strict-origin-when-cross-origin')
+    }
+  })
+
+  it('a start without the demo seed refuses to run while a demo account opens with the demo password', async () => {
+    const env = JSON.parse(inject('serverEnv'))
+    const start = startApp(env.output, {
+      NUXT_DATABASE_URL: env.databaseUrl,
+      NUXT_DATA_DIR: resolve(env.runDir, 'production-start'),
+      NUXT_MAIL_PORT: String(env.smtpPort),
+      NUXT_SEED_DEMO: 'false',
+    })
+    const outcome = await start.then(
+      async (server) => {
+        await expect.poll(() => server.child.exitCode, { timeout: 15_000 }).toBe(1)
+        return server.log()
+      },
+      (e: Error) => e.message,
+    )
+    expect(outcome).toContain('refusing to start')
   })
 })

@@ -18,6 +18,7 @@ beforeAll(async () => {
       NUXT_DATA_DIR: resolve(env.runDir, `outbox-server-${n}`),
       NUXT_MAIL_PORT: String(env.smtpPort),
       NUXT_MAIL_RETRY_SECONDS: '1',
+      NUXT_SEED_DEMO: 'true', // the database holds the demo: already seeded, so nothing is added
     }))
   }
 })
