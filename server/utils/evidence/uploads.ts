@@ -69,7 +69,8 @@ class HashingStagingStorage implements multer.StorageEngine {
     ;(async () => {
       const problem = fileNameProblem(file.originalname)
       if (problem) throw new UploadError(422, 'file', problem)
-      const { bytes: limit, what } = await this.beforeFile(req.body ?? {})
+      // The fields as they stand when the file begins: any field parsed later is not among them.
+      const { bytes: limit, what } = await this.beforeFile({ ...(req.body ?? {}) })
       await mkdir(uploadTmpDir(), { recursive: true })
       const hash = createHash('sha256')
       let size = 0
