@@ -39,6 +39,8 @@ export default defineNuxtConfig({
     /** Size limits per evidence kind in bytes; 0 keeps the default of shared/evidence/kinds.ts. */
     /** Bytes of evidence a team may store at one event (its entries, attempts, runs, inspections). */
     teamQuotaBytes: 20 * 1024 ** 3,
+    /** Behind a proxy the operator runs: take the client's address from X-Forwarded-For. */
+    trustProxy: false,
     evidenceLimits: { survey: 0, calibration: 0, scale: 0, licence: 0, photo: 0, video: 0, dataLog: 0, other: 0 },
     // tls: 'none' (the local catcher), 'starttls' (upgrade, required) or 'implicit' (port 465); user and
     // password when the server asks for them.

@@ -14,6 +14,7 @@ import {
   text,
   timestamp,
   uniqueIndex,
+  varchar,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { ChecklistTemplate } from '#shared/inspection/template'
@@ -643,4 +644,11 @@ export const impoundCheckIns = pgTable('impound_check_ins', {
     .notNull()
     .references(() => users.id),
   createdAt: createdAt(),
+})
+
+/** Rate-limit counters of rate-limiter-flexible's PostgreSQL store (its own columns and types). */
+export const rateLimits = pgTable('rate_limits', {
+  key: varchar('key', { length: 255 }).primaryKey(),
+  points: integer('points').notNull().default(0),
+  expire: bigint('expire', { mode: 'number' }),
 })

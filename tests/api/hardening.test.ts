@@ -244,3 +244,28 @@ describe('a safe start', () => {
     expect(outcome).toContain('refusing to start')
   })
 })
+
+describe('rate limits that count every guess', () => {
+  it('counts a burst of parallel wrong passwords as that many, and a forged forwarded address changes nothing', async () => {
+    const person = await invitedPerson('official', 'first-password-1')
+    const guess = (i: number, headers: Record<string, string> = {}) => fetch(url('/api/auth/login'), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', ...headers },
+      body: JSON.stringify({ email: person.email, password: `wrong-${i}` }),
+    }).then(r => r.status)
+    // 20 at once from one client: the limit is 10 per address and client (counted atomically, before the
+    // password is checked), so exactly 10 are judged and 10 refused.
+    const statuses = await Promise.all(Array.from({ length: 20 }, (_, i) => guess(i)))
+    expect(statuses.filter(s => s === 401).length).toBe(10)
+    expect(statuses.filter(s => s === 429).length).toBe(10)
+    // A made-up X-Forwarded-For is not trusted (no proxy declared): still the same client.
+    expect(await guess(99, { 'x-forwarded-for': '203.0.113.7' })).toBe(429)
+    const right = await call('POST', '/api/auth/login', { body: { email: person.email, password: 'first-password-1' } })
+    expect(right.status).toBe(429)
+  })
+
+  it('checks a link before hashing the new password, and counts links that do not work', async () => {
+    const bad = await call('POST', '/api/auth/token', { body: { token: 'x'.repeat(43), password: 'whatever-password-1' } })
+    expect(bad.status).toBe(404)
+  })
+})

@@ -4,6 +4,7 @@ import { forgotSchema } from '#shared/schemas/auth'
 // public route: always the same answer, so it does not tell which addresses have accounts.
 export default defineEventHandler(async (event) => {
   const { email } = await validBody(event, forgotSchema)
+  await spend(['resetByClient', clientAddress(event)], ['resetByAddress', email])
   const [user] = await useDb().select().from(tables.users).where(eq(tables.users.email, email))
   if (user) {
     const token = await issueToken(user.id, 'reset')

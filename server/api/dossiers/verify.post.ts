@@ -2,6 +2,7 @@ import { readFile, rm } from 'node:fs/promises'
 
 // public route: anyone may check a dossier. The PDF is the multipart field "file".
 export default defineEventHandler(async (event) => {
+  await spend(['verifyByClient', clientAddress(event)])
   const { file } = await receiveVerifyUpload(event)
   if (!file) throw fieldInvalid('file', 'no file was sent')
   try {

@@ -29,6 +29,12 @@ export function useDb(): Db {
   return db
 }
 
+/** The pool under the database, for libraries that speak to PostgreSQL themselves (rate limits). */
+export function usePool(): pg.Pool {
+  useDb()
+  return pool!
+}
+
 export async function closeDb() {
   await pool?.end()
   pool = undefined
