@@ -1,7 +1,9 @@
 import { resolve } from 'node:path'
+import { deflateSync } from 'node:zlib'
+import { PDFArray, PDFDict, PDFDocument, PDFName, type PDFHexString, type PDFString } from 'pdf-lib'
 import pg from 'pg'
 import { describe, expect, inject, it } from 'vitest'
-import { call, demoEmail, demoEventId, invitedPerson, linkToken, login, mailTo, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, demoMileRecord, invitedPerson, linkToken, login, mailTo, url, useTestServer } from '../support/api'
 import { newEntry } from '../support/entries'
 import { form, pdf, png } from '../support/files'
 import { startApp } from '../support/processes'
@@ -267,5 +269,48 @@ describe('rate limits that count every guess', () => {
   it('checks a link before hashing the new password, and counts links that do not work', async () => {
     const bad = await call('POST', '/api/auth/token', { body: { token: 'x'.repeat(43), password: 'whatever-password-1' } })
     expect(bad.status).toBe(404)
+  })
+})
+
+describe('a bounded verification page', () => {
+  const verify = async (bytes: Uint8Array) => {
+    const body = new FormData()
+    body.append('file', new Blob([bytes], { type: 'application/pdf' }), 'dossier.pdf')
+    const r = await fetch(url('/api/dossiers/verify'), { method: 'POST', body })
+    return { status: r.status, body: await r.json() as any }
+  }
+  const sealedPdf = async () => new Uint8Array(await (await fetch((await demoMileRecord()).dossierUrl)).arrayBuffer())
+
+  it('refuses a file over 50 MB, saying a dossier is a few MB', async () => {
+    const r = await verify(Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(51 * 1024 * 1024, 32)]))
+    expect(r.status).toBe(413)
+    expect(r.body.data.issues[0].message).toContain('a few MB')
+  })
+
+  it('refuses an attachment that inflates beyond what a dossier holds, without unpacking it', async () => {
+    // 100 MB of zeros deflate to about 100 kB (zlib, RFC 1950/1951): put in place of the manifest.
+    const doc = await PDFDocument.load(await sealedPdf(), { updateMetadata: false })
+    const names = doc.catalog.lookup(PDFName.of('Names'), PDFDict).lookup(PDFName.of('EmbeddedFiles'), PDFDict).lookup(PDFName.of('Names'), PDFArray)
+    const bomb = doc.context.stream(deflateSync(Buffer.alloc(100 * 1024 * 1024)), { Type: 'EmbeddedFile', Filter: 'FlateDecode' })
+    for (let i = 1; i < names.size(); i += 2) names.lookup(i, PDFDict).lookup(PDFName.of('EF'), PDFDict).set(PDFName.of('F'), doc.context.register(bomb))
+    const r = await verify(await doc.save({ useObjectStreams: false }))
+    expect(r.status).toBe(422)
+    expect(r.body.message).toContain('unpacks to more than a dossier ever holds')
+  })
+
+  it('does not read a manifest whose seal does not hold', async () => {
+    const doc = await PDFDocument.load(await sealedPdf(), { updateMetadata: false })
+    const names = doc.catalog.lookup(PDFName.of('Names'), PDFDict).lookup(PDFName.of('EmbeddedFiles'), PDFDict).lookup(PDFName.of('Names'), PDFArray)
+    for (let i = 0; i < names.size(); i += 2) {
+      if ((names.lookup(i) as PDFString | PDFHexString).decodeText() !== 'manifest.json') continue
+      const forged = JSON.stringify({ evidence: Array.from({ length: 50_000 }, (_, n) => ({ name: `f${n}`, sha256: '0'.repeat(64) })) })
+      names.lookup(i + 1, PDFDict).lookup(PDFName.of('EF'), PDFDict).set(PDFName.of('F'), doc.context.register(doc.context.flateStream(forged, { Type: 'EmbeddedFile' })))
+    }
+    const r = await verify(await doc.save({ useObjectStreams: false }))
+    expect(r.body.sealValid).toBe(false)
+    expect(r.body.keyFingerprint).toBeNull()
+    // The forged manifest named 50 000 files: none was looked for, as the seal failed first.
+    expect(r.body.items.length).toBeLessThan(50)
+    expect(r.body.items.find((i: any) => i.name === 'manifest.json').ok).toBe(false)
   })
 })

@@ -16,7 +16,7 @@ const LIMITS = {
   resetByAddress: { points: 5, duration: 3600, block: 0 },
   resetByClient: { points: 30, duration: 3600, block: 0 },
   tokenByClient: { points: 30, duration: 15 * 60, block: 15 * 60 },
-  verifyByClient: { points: 30, duration: 60, block: 60 },
+  verifyByClient: { points: 60, duration: 60, block: 60 },
 } as const
 export type LimitName = keyof typeof LIMITS
 

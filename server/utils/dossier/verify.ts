@@ -2,9 +2,23 @@ import { createHash } from 'node:crypto'
 import { eq } from 'drizzle-orm'
 import { attachmentName } from './render'
 import type { Verification } from '#shared/types/verification'
-import { readAttachments } from './pdf-attachments'
+import { AttachmentTooLarge, readAttachments } from './pdf-attachments'
 
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
+
+/** The largest manifest a dossier carries: far over any real one (a few hundred kB with every reading). */
+const MANIFEST_LIMIT = 5 * 1024 * 1024
+
+/** A sealed manifest, read only if it is the canonical form of itself (what was sealed). */
+function parseManifest(text: string): { evidence?: { name: string, sha256: string }[] } | null {
+  try {
+    const m = JSON.parse(text)
+    return canonicalJson(m) === text ? m : null
+  }
+  catch {
+    return null
+  }
+}
 
 /**
  * Checks a dossier PDF: the Ed25519 seal over its manifest, every attached file against the
@@ -18,26 +32,27 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   try {
     files = await readAttachments(bytes)
   }
-  catch {
+  catch (e) {
+    if (e instanceof AttachmentTooLarge) {
+      return fail('An attached file unpacks to more than a dossier ever holds (64 MB each, 128 MB in all): '
+        + 'this is not a Trapline dossier.')
+    }
     return fail('This PDF cannot be read whole: it is truncated or damaged.')
   }
   const manifestFile = files.find(f => f.name === 'manifest.json')
   const sigFile = files.find(f => f.name === 'manifest.sig')
   if (!manifestFile || !sigFile)
     return fail('This PDF carries no Trapline seal (no manifest.json and manifest.sig attached).')
+  if (manifestFile.data.length > MANIFEST_LIMIT) {
+    return fail('The attached manifest is larger than any dossier\'s (5 MB): it is not a Trapline manifest.')
+  }
   const key = useSealKey()
   const items: { name: string, ok: boolean }[] = []
   const manifestText = new TextDecoder().decode(manifestFile.data)
-  const digest = sha(manifestText)
-  let manifest: { evidence?: { name: string, sha256: string }[] } | null = null
-  try {
-    manifest = JSON.parse(manifestText)
-  }
-  catch {
-    /* reported below */
-  }
-  const canonical = manifest !== null && canonicalJson(manifest) === manifestText
-  const sealOk = canonical && sealHolds(digest, new TextDecoder().decode(sigFile.data).trim())
+  // The seal is checked first; only a sealed manifest is read and walked.
+  const sealed = sealHolds(sha(manifestText), new TextDecoder().decode(sigFile.data.subarray(0, 1024)).trim())
+  const manifest = sealed ? parseManifest(manifestText) : null
+  const sealOk = manifest !== null
   items.push({ name: 'manifest.json', ok: sealOk })
   for (const e of manifest?.evidence ?? []) {
     const f = files.find(x => x.name === attachmentName(e.sha256, e.name))

@@ -161,7 +161,14 @@ function toHttpError(err: unknown) {
   return issue(400, 'file', `the upload did not arrive whole: ${(err as Error).message}`)
 }
 
-/** The verification page's upload: a PDF up to 200 MB, staged to disk, no form fields needed. */
+/** The largest PDF the verification page takes: a dossier is a few MB (its evidence travels by hash). */
+export const VERIFY_LIMIT = 50 * 1024 * 1024
+
+/** The verification page's upload: a PDF up to 50 MB, streamed to disk, no form fields needed. */
 export function receiveVerifyUpload(event: H3Event) {
-  return receiveUploadWith(event, async () => ({ bytes: 200 * 1024 * 1024, what: 'the limit of a dossier' }))
+  return receiveUploadWith(
+    event,
+    async () => ({ bytes: VERIFY_LIMIT, what: 'the 50 MB a dossier never reaches (they are a few MB)' }),
+    VERIFY_LIMIT + 1, // the meter speaks first, with the reason
+  )
 }
