@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { drizzle } from 'drizzle-orm/node-postgres'
 import { migrate } from 'drizzle-orm/node-postgres/migrator'
@@ -23,10 +24,13 @@ beforeAll(async () => {
   url.pathname = `/${database}`
   const pool = new pg.Pool({ connectionString: url.toString(), max: 1 })
   await migrate(drizzle(pool), { migrationsFolder: resolve(root, 'drizzle') })
+  await pool.query(readFileSync(resolve(root, 'scripts/db-grants.sql'), 'utf8')) // as scripts/lib.sh does
   await pool.end()
   const env = JSON.parse(inject('serverEnv'))
+  const appUrl = new URL(env.databaseUrl)
+  appUrl.pathname = `/${database}`
   app = await startApp(env.output, {
-    NUXT_DATABASE_URL: url.toString(),
+    NUXT_DATABASE_URL: appUrl.toString(),
     NUXT_DATA_DIR: resolve(env.runDir, 'clock-storage'),
     NUXT_MAIL_PORT: String(env.smtpPort),
     NUXT_SEED_DEMO: 'true',

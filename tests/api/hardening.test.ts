@@ -314,3 +314,44 @@ describe('a bounded verification page', () => {
     expect(r.body.items.find((i: any) => i.name === 'manifest.json').ok).toBe(false)
   })
 })
+
+describe('a least-privilege database', () => {
+  it('the app\'s role owns nothing and can neither disable a trigger, truncate nor change the schema', async () => {
+    const app = new pg.Client({ connectionString: JSON.parse(inject('serverEnv')).databaseUrl })
+    await app.connect()
+    try {
+      expect((await app.query('select current_user')).rows[0].current_user).toBe('trapline_app')
+      const owned = await app.query('select count(*)::int as n from pg_tables where tableowner = current_user')
+      expect(owned.rows[0].n).toBe(0)
+      await expect(app.query('alter table readings disable trigger readings_append_only')).rejects.toThrow(/owner|permission/)
+      await expect(app.query('truncate readings')).rejects.toThrow(/permission denied/)
+      await expect(app.query('create table planted (x int)')).rejects.toThrow(/permission denied/)
+      await expect(app.query('drop table readings')).rejects.toThrow(/owner|permission/)
+      await expect(app.query('update readings set ticks = ticks + 1')).rejects.toThrow(/append-only/)
+    }
+    finally {
+      await app.end()
+    }
+  })
+
+  it('even the owner cannot truncate a record that is never deleted', async () => {
+    const owner = new pg.Client({ connectionString: inject('databaseUrl') })
+    await owner.connect()
+    try {
+      await owner.query('begin')
+      await expect(owner.query('truncate signatures cascade')).rejects.toThrow(/never deleted/)
+      await owner.query('rollback')
+    }
+    finally {
+      await owner.end()
+    }
+  })
+
+  it('asks for a password even on the loopback interface', async () => {
+    const url = new URL(inject('databaseUrl'))
+    url.password = ''
+    const bare = new pg.Client({ connectionString: url.toString(), password: '' })
+    await expect(bare.connect()).rejects.toThrow(/password/)
+    await bare.end().catch(() => {})
+  })
+})

@@ -7,10 +7,12 @@ import { expectedServerErrors, root, startApp, startCatcher, unexpectedErrors, t
 // they are bound, with folders of this run's own (scripts/test.sh gives each run one), against the
 // test database that scripts/test.sh created. Nothing here touches a running npm start or another run.
 export default async function setup(project: TestProject) {
+  // The tests' own connection is the database owner's; the app connects as trapline_app.
   const databaseUrl = process.env.TEST_DATABASE_URL
+  const appDatabaseUrl = process.env.TEST_APP_DATABASE_URL
   const output = process.env.TRAPLINE_OUTPUT_DIR ?? resolve(root, '.output-test')
   const runDir = process.env.TRAPLINE_TEST_DIR ?? resolve(root, `.data/test-run.${process.pid}`)
-  if (!databaseUrl) throw new Error('TEST_DATABASE_URL is not set: run the tests with npm test')
+  if (!databaseUrl || !appDatabaseUrl) throw new Error('TEST_DATABASE_URL is not set: run the tests with npm test')
 
   const mailDir = resolve(runDir, 'mail')
   const dataDir = resolve(runDir, 'storage')
@@ -26,7 +28,7 @@ export default async function setup(project: TestProject) {
   let app: Started
   try {
     app = await startApp(output, {
-      NUXT_DATABASE_URL: databaseUrl,
+      NUXT_DATABASE_URL: appDatabaseUrl,
       NUXT_MAIL_PORT: String(catcher.smtpPort),
       NUXT_PUBLIC_INBOX_URL: catcher.inboxUrl,
       NUXT_SEED_DEMO: 'true',
@@ -49,7 +51,7 @@ export default async function setup(project: TestProject) {
   project.provide('inboxUrl', catcher.inboxUrl)
   project.provide('databaseUrl', databaseUrl)
   project.provide('dataDir', dataDir)
-  project.provide('serverEnv', JSON.stringify({ databaseUrl, dataDir, smtpPort: catcher.smtpPort, inboxPort: catcher.port, output, mailDir, runDir, catcherPidFile }))
+  project.provide('serverEnv', JSON.stringify({ databaseUrl: appDatabaseUrl, dataDir, smtpPort: catcher.smtpPort, inboxPort: catcher.port, output, mailDir, runDir, catcherPidFile }))
 
   return async () => {
     await app.stop()

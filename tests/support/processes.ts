@@ -67,10 +67,12 @@ export const SESSION_PASSWORD = 'test-session-password-at-least-32-characters-lo
 
 /** The built app on a port of its own, against the given database and data folder. */
 export function startApp(output: string, env: Record<string, string>) {
+  // The app never sees the owner's connection or password: only what it is given.
+  const { TEST_DATABASE_URL: _owner, PGPASSWORD: _password, ...inherited } = process.env
   return startListening(port => ({
     args: [resolve(output, 'server/index.mjs')],
     env: {
-      ...process.env,
+      ...inherited,
       PORT: String(port),
       HOST: '127.0.0.1',
       NUXT_SESSION_PASSWORD: SESSION_PASSWORD,
