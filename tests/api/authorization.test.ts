@@ -1,8 +1,7 @@
-import { readdirSync } from 'node:fs'
-import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { call, demoEmail, demoEventId, demoMileRecord, invitedPerson, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 import { form, pdf } from '../support/files'
+import { routeFiles } from '../support/routes'
 
 await useTestServer()
 
@@ -89,18 +88,6 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/dossiers/verify': { expect: all(422), body: {} },
   'GET /api/record-book': { expect: all(200) },
   'GET /api/seal': { expect: all(200) },
-}
-
-function routeFiles(): string[] {
-  const dir = resolve(import.meta.dirname, '../../server/api')
-  const walk = (d: string): string[] => readdirSync(d, { withFileTypes: true })
-    .flatMap(e => (e.isDirectory() ? walk(join(d, e.name)) : [join(d, e.name)]))
-  return walk(dir).map((f) => {
-    const m = /^(.*?)\.(get|post|patch|put|delete)\.ts$/.exec(relative(dir, f))
-    if (!m) throw new Error(`route file without a method in its name: ${f}`)
-    const path = `/api/${m[1]!.replace(/(^|\/)index$/, '')}`.replace(/\/$/, '')
-    return `${m[2]!.toUpperCase()} ${path}`
-  })
 }
 
 describe('authorization table', () => {

@@ -43,6 +43,7 @@ export async function newTestEvent(profileId: string, timeZone: string) {
   await post('records', {
     className: 'Electric, partially streamlined', distanceLabel: 'Flying kilometre', speed: '400.000', unit: 'km/h',
   })
-  return { eventId, timeZone, cookie, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }
+  const organiserLogin: [string, string] = [organiserEmail, 'organiser-password-1']
+  return { eventId, timeZone, cookie, organiserLogin, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }
 }
 export type TestEvent = Awaited<ReturnType<typeof newTestEvent>>

@@ -169,6 +169,6 @@ export function receiveVerifyUpload(event: H3Event) {
   return receiveUploadWith(
     event,
     async () => ({ bytes: VERIFY_LIMIT, what: 'the 50 MB a dossier never reaches (they are a few MB)' }),
-    VERIFY_LIMIT + 1, // the meter speaks first, with the reason
+    VERIFY_LIMIT * 2, // the meter stops the file first, with the reason
   )
 }
