@@ -38,6 +38,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/events/[id]': { expect: { ...eventMembers(200), admin: 200 } },
   'PATCH /api/events/[id]': { expect: organiserOnly(200), body: {} },
   'GET /api/events/[id]/people': { expect: organiserOnly(200) },
+  'DELETE /api/events/[id]/people/[membershipId]': { expect: organiserOnly(422) },
   'POST /api/events/[id]/people': { expect: organiserOnly(422), body: {} },
   'POST /api/events/[id]/courses': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/traps': { expect: rolesOnly(422, 'organiser'), body: {} },

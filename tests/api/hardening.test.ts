@@ -355,3 +355,22 @@ describe('a least-privilege database', () => {
     await bare.end().catch(() => {})
   })
 })
+
+describe('removing a role', () => {
+  it('the organiser removes a person\'s role, which ends what it gave at once; never the last organiser', async () => {
+    const organiser = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(organiser)
+    const person = await invitedPerson('official')
+    expect((await call('GET', `/api/events/${eventId}/statements`, { cookie: person.cookie })).status).toBe(200)
+    const people = (await call('GET', `/api/events/${eventId}/people`, { cookie: organiser })).body as any[]
+    const mine = people.find(p => p.email === person.email)
+    expect((await call('DELETE', `/api/events/${eventId}/people/${mine.membershipId}`, { cookie: person.cookie })).status).toBe(403)
+    expect((await call('DELETE', `/api/events/${eventId}/people/${mine.membershipId}`, { cookie: organiser })).status).toBe(204)
+    expect((await call('GET', `/api/events/${eventId}/statements`, { cookie: person.cookie })).status).toBe(404)
+    const only = people.filter(p => p.role === 'organiser')
+    if (only.length === 1) {
+      const last = await call('DELETE', `/api/events/${eventId}/people/${only[0].membershipId}`, { cookie: organiser })
+      expect(last.status).toBe(409)
+    }
+  })
+})

@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import type { EventRole } from '#shared/constants'
 import { roleLabels } from '#shared/schemas/events'
 
@@ -67,4 +67,27 @@ export async function invitePerson(inv: Invitation) {
   }
   // The same answer whether or not the address already had an account.
   return { userId: result.user.id, membershipId: result.membershipId }
+}
+
+/**
+ * Removes one role of a person at an event: they lose what it gave at once (rights are read on every
+ * request). The last organiser is never removed; what the person signed stays signed.
+ */
+export function removeRole(eventId: number, membershipId: number, byUserId: number) {
+  return useDb().transaction(async (tx) => {
+    const { memberships } = tables
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`memberships:${eventId}`}, 0))`)
+    const [m] = await tx.select().from(memberships)
+      .where(and(eq(memberships.id, membershipId), eq(memberships.eventId, eventId)))
+    if (!m) throw notFound('No such role at this event')
+    if (m.role === 'organiser') {
+      const organisers = await tx.select({ id: memberships.id }).from(memberships)
+        .where(and(eq(memberships.eventId, eventId), eq(memberships.role, 'organiser')))
+      if (organisers.length <= 1) {
+        throw conflict('The event needs an organiser: invite another before removing this one')
+      }
+    }
+    await tx.delete(memberships).where(eq(memberships.id, membershipId))
+    return { removed: membershipId, by: byUserId }
+  })
 }
