@@ -154,8 +154,10 @@ export async function sniff(head: Buffer): Promise<string | null> {
 }
 
 /**
- * Stores a staged upload under its hash and writes its row, in one transaction holding a lock on
- * the hash: the row exists only with its file, and a file stored for a failed row is removed.
+ * Stores a staged upload under its hash, then writes its row in a short transaction holding a lock on
+ * the hash: no database connection is held while the bytes move to the store. The row exists only
+ * with its file (checked again under the lock), and a file stored for a failed row is removed unless
+ * another row uses it.
  */
 export async function commitEvidence(access: EventAccess, fields: Fields, file: StagedFile) {
   const store = useBlobStore()
@@ -173,10 +175,12 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
     const mismatch = extensionMismatch(file.originalname, detected)
     if (mismatch) throw field('file', mismatch)
     const mediaType = detected === TEXT ? 'text/plain' : detected
+    const existed = await store.has(file.sha256)
+    if (!existed) await store.put(file.sha256, file.path, file.size, mediaType)
     return await useDb().transaction(async (tx) => {
       await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${file.sha256}, 0))`)
-      const existed = await store.has(file.sha256)
-      if (!existed) await store.put(file.sha256, file.path, file.size, mediaType)
+      // Removed meanwhile by a failed upload of the same bytes: stored again (rare; the lock is short otherwise).
+      if (!(await store.has(file.sha256))) await store.put(file.sha256, file.path, file.size, mediaType)
       try {
         const [row] = await tx
           .insert(tables.evidence)
@@ -200,7 +204,8 @@ export async function commitEvidence(access: EventAccess, fields: Fields, file: 
         return { ...row!, storedBefore: existed }
       }
       catch (e) {
-        if (!existed) await store.remove(file.sha256)
+        const used = await useDb().execute(sql`select 1 from evidence where sha256 = ${file.sha256} limit 1`)
+        if (!existed && !used.rows.length) await store.remove(file.sha256)
         throw e
       }
     })

@@ -20,5 +20,5 @@ export default defineEventHandler(async (event) => {
     'content-disposition': `attachment; filename="trapline-dossier-attempt-${d.attemptId}-v${d.version}.pdf"`,
     'x-content-type-options': 'nosniff',
   })
-  return sendStream(event, await useBlobStore().open(d.pdfSha256))
+  return sendStored(event, await useBlobStore().open(d.pdfSha256))
 })

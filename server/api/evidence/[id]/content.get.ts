@@ -20,5 +20,5 @@ export default defineEventHandler(async (event) => {
     'cache-control': 'private, max-age=31536000, immutable',
     'etag': `"${row.sha256}"`,
   })
-  return sendStream(event, await useBlobStore().open(row.sha256))
+  return sendStored(event, await useBlobStore().open(row.sha256))
 })
