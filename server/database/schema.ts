@@ -543,6 +543,10 @@ export const dossiers = pgTable(
     keyFingerprint: text('key_fingerprint').notNull(),
     pdfSha256: text('pdf_sha256').notNull(),
     pdfSize: bigint('pdf_size', { mode: 'number' }).notNull(),
+    /** The public copy: the same figures and seals without personal data (licence number and scan). */
+    publicPdfSha256: text('public_pdf_sha256'),
+    publicPdfSize: bigint('public_pdf_size', { mode: 'number' }),
+    publicManifestSha256: text('public_manifest_sha256'),
     supersedesId: integer('supersedes_id'),
     createdBy: integer('created_by')
       .notNull()

@@ -52,7 +52,8 @@ beforeAll(async () => {
   cookie.team2 = await login('team2@trapline.test')
   eventId = await demoEventId(cookie.organiser)
   const record = await demoMileRecord()
-  const r = await fetch(record.dossierUrl) // the site address of the test server, so it is reachable
+  // The officials' copy, as a person of the event reads it (the site address of the test server).
+  const r = await fetch(record.dossierUrl, { headers: { cookie: cookie.organiser } })
   pdf = new Uint8Array(await r.arrayBuffer())
   dossierId = Number(/dossiers\/(\d+)\/pdf/.exec(record.dossierUrl)![1])
 })
@@ -156,6 +157,24 @@ describe('the demo\'s ratified dossier', () => {
       expect(attached && sha256(attached.data)).toBe(e.sha256)
     }
     expect(manifest.statements.filter((s: any) => !s.withdraws)).toHaveLength(2)
+  })
+
+  it('has a public copy for everyone, sealed the same way, without the licence number or its scan', async () => {
+    const record = await demoMileRecord()
+    const open = new Uint8Array(await (await fetch(record.dossierUrl)).arrayBuffer()) // no sign-in
+    const [row] = (await db.query('select * from dossiers where id = $1', [dossierId])).rows
+    expect(sha256(open)).toBe(row.public_pdf_sha256)
+    expect(sha256(open)).not.toBe(row.pdf_sha256)
+    const files = await readAttachments(open)
+    expect(files.some(f => f.name.endsWith('rider-licence.pdf'))).toBe(false)
+    const manifest = JSON.parse(new TextDecoder().decode(files.find(f => f.name === 'manifest.json')!.data))
+    expect(manifest.dossier.copy).toBe('public')
+    expect(manifest.entry.rider.licenceNo).toBe('withheld in the public copy')
+    expect(JSON.stringify(manifest)).not.toContain(row.manifest.entry.rider.licenceNo)
+    expect(manifest.result).toEqual(row.manifest.result)
+    const r = await verify(open)
+    expect(r.body.sealValid).toBe(true)
+    expect(r.body.items.every(i => i.ok)).toBe(true)
   })
 
   it('verifies as issued', async () => {

@@ -1,8 +1,8 @@
 import { createHash, randomUUID } from 'node:crypto'
-import { mkdir, writeFile } from 'node:fs/promises'
+import { mkdir, rm, writeFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import { desc, eq, sql } from 'drizzle-orm'
-import { buildManifest, type Manifest } from './manifest'
+import { desc, eq } from 'drizzle-orm'
+import { buildManifest, PERSONAL_EVIDENCE, publicManifest, type Manifest } from './manifest'
 import type { Readiness } from './readiness'
 import { renderDossier, type Attachment } from './render'
 
@@ -16,6 +16,30 @@ export async function issueDossier(eventId: number, attemptId: number, userId: n
   const previous = await latestDossier(attemptId)
   const version = (previous?.version ?? 0) + 1
   const manifest = await buildManifest(r, version, new Date())
+  const attach = await evidenceToAttach(manifest)
+  const officials = await sealAndRender(manifest, attach)
+  // The public copy (the record book's): sealed the same way, over a manifest without personal data.
+  const notPersonal = attach.filter(a => !PERSONAL_EVIDENCE.has(a.kind ?? ''))
+  const open = await sealAndRender(publicManifest(manifest), notPersonal)
+  await storeBlob(open.pdf)
+  return storeDossier(officials.pdf, {
+    publicPdfSha256: sha256Hex(open.pdf),
+    publicPdfSize: open.pdf.length,
+    publicManifestSha256: open.manifestSha,
+    eventId,
+    attemptId,
+    version,
+    manifest,
+    manifestSha256: officials.manifestSha,
+    seal: officials.seal,
+    keyFingerprint: useSealKey().fingerprint,
+    supersedesId: previous?.id ?? null,
+    createdBy: userId,
+  })
+}
+
+/** Seals a manifest (Ed25519 over its SHA-256) and renders its PDF with the files to attach. */
+async function sealAndRender(manifest: Manifest, attach: Attachment[]) {
   const manifestSha = sha256Hex(canonicalJson(manifest))
   const key = useSealKey()
   const seal = sealDigest(manifestSha)
@@ -23,19 +47,9 @@ export async function issueDossier(eventId: number, attemptId: number, userId: n
   const pdf = await renderDossier(
     manifest,
     { sha256: manifestSha, signature: seal, fingerprint: key.fingerprint, verifyUrl },
-    await evidenceToAttach(manifest),
+    attach,
   )
-  return storeDossier(pdf, {
-    eventId,
-    attemptId,
-    version,
-    manifest,
-    manifestSha256: manifestSha,
-    seal,
-    keyFingerprint: key.fingerprint,
-    supersedesId: previous?.id ?? null,
-    createdBy: userId,
-  })
+  return { manifestSha, seal, pdf }
 }
 
 function refuseUnlessReady(r: Readiness) {
@@ -63,7 +77,7 @@ async function evidenceToAttach(manifest: Manifest) {
     seen.add(e.sha256)
     const chunks: Buffer[] = []
     for await (const c of await useBlobStore().open(e.sha256)) chunks.push(c as Buffer)
-    attach.push({ name: e.name, bytes: Buffer.concat(chunks), mediaType: e.mediaType, sha256: e.sha256 })
+    attach.push({ name: e.name, bytes: Buffer.concat(chunks), mediaType: e.mediaType, sha256: e.sha256, kind: e.kind })
     used += Number(e.size)
   }
   return attach
@@ -71,15 +85,25 @@ async function evidenceToAttach(manifest: Manifest) {
 
 type NewDossier = Omit<typeof tables.dossiers.$inferInsert, 'pdfSha256' | 'pdfSize'>
 
-/** Stores the PDF in the blob store and its row, under a lock on its hash. */
-async function storeDossier(pdf: Uint8Array, values: NewDossier) {
+/** Puts a PDF in the blob store under its hash (content-addressed: storing it twice is harmless). */
+async function storeBlob(pdf: Uint8Array) {
   const pdfSha = sha256Hex(pdf)
   await mkdir(uploadTmpDir(), { recursive: true })
   const tmp = join(uploadTmpDir(), `${randomUUID()}.pdf`)
   await writeFile(tmp, pdf)
+  try {
+    if (!(await useBlobStore().has(pdfSha))) await useBlobStore().put(pdfSha, tmp, pdf.length, 'application/pdf')
+  }
+  finally {
+    await rm(tmp, { force: true })
+  }
+  return pdfSha
+}
+
+/** Stores the PDF in the blob store, then its row (no connection is held while the bytes move). */
+async function storeDossier(pdf: Uint8Array, values: NewDossier) {
+  const pdfSha = await storeBlob(pdf)
   return useDb().transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${pdfSha}, 0))`)
-    await useBlobStore().put(pdfSha, tmp, pdf.length, 'application/pdf')
     const [row] = await tx
       .insert(tables.dossiers)
       .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })

@@ -12,7 +12,12 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
   const attempt = day.attempts.find(a => a.id === r.attemptId)!
   return {
     format: DOSSIER_FORMAT,
-    dossier: { attempt: r.attemptId, version, issuedAt: issuedAt.toISOString() },
+    dossier: {
+      attempt: r.attemptId,
+      version,
+      issuedAt: issuedAt.toISOString(),
+      copy: 'officials' as 'officials' | 'public',
+    },
     event: { id: day.event.id, name: day.event.name, venue: day.event.venue, timeZone: day.event.timeZone },
     entry: manifestEntry(r),
     profile: attempt.profile,
@@ -192,4 +197,18 @@ function isForAttempt(e: Evidence, r: Readiness) {
     || e.timingSystemId !== null
     || (e.inspectionId !== null && e.inspectionId === r.clearance.inspectionId)
   )
+}
+
+/** Evidence kinds that are personal: attached to the officials' copy only. */
+export const PERSONAL_EVIDENCE = new Set(['rider-licence'])
+
+/**
+ * The public copy's manifest: every figure, signature and hash as in the officials' copy, without the
+ * rider's licence number; personal files are listed by hash but not attached.
+ */
+export function publicManifest(m: Manifest): Manifest {
+  const copy = structuredClone(m)
+  copy.dossier.copy = 'public'
+  copy.entry.rider = { ...copy.entry.rider, licenceNo: 'withheld in the public copy' }
+  return copy
 }

@@ -16,7 +16,7 @@ import {
 } from './sections-record'
 
 /** An evidence file that travels inside the dossier PDF. */
-export interface Attachment { name: string, bytes: Uint8Array, mediaType: string, sha256: string }
+export interface Attachment { name: string, bytes: Uint8Array, mediaType: string, sha256: string, kind?: string }
 
 /** The name of an evidence file attached inside a dossier: unique by its hash, readable by its name. */
 export const attachmentName = (sha: string, name: string) => `${sha.slice(0, 12)}-${name}`

@@ -32,7 +32,15 @@ function standingRecordLine(m: Manifest) {
 export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
   const d = m.course.distance
   L.y -= 60
-  L.text('SPEED RECORD DOSSIER', { size: 10, bold: true, color: 'grey' })
+  L.text(m.dossier.copy === 'public' ? 'SPEED RECORD DOSSIER · PUBLIC COPY' : 'SPEED RECORD DOSSIER', {
+    size: 10,
+    bold: true,
+    color: 'grey',
+  })
+  if (m.dossier.copy === 'public') {
+    L.text('The rider\'s licence number and personal files are withheld here; the officials\' copy holds them, '
+      + 'sealed the same way.', { size: 9, color: 'grey' })
+  }
   L.heading(m.entry.machine.name, 26)
   L.text(`Rider ${m.entry.rider.name} · ${m.entry.teamName}`, { size: 13 })
   L.text(`${m.entry.className} · ${d.label} (${d.nominalM} m)`, { size: 13, gap: 20 })

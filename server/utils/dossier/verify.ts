@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { eq } from 'drizzle-orm'
+import { eq, or } from 'drizzle-orm'
 import { attachmentName } from './render'
 import type { Verification } from '#shared/types/verification'
 import { AttachmentTooLarge, readAttachments } from './pdf-attachments'
@@ -64,10 +64,11 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
     ...(manifest?.evidence ?? []).map(e => attachmentName(e.sha256, e.name)),
   ])
   for (const f of files.filter(x => !known.has(x.name))) items.push({ name: f.name, ok: false })
+  const pdfSha = sha(bytes)
   const [issued] = await useDb()
     .select()
     .from(tables.dossiers)
-    .where(eq(tables.dossiers.pdfSha256, sha(bytes)))
+    .where(or(eq(tables.dossiers.pdfSha256, pdfSha), eq(tables.dossiers.publicPdfSha256, pdfSha)))
   items.push({ name: 'PDF file as issued', ok: !!issued })
   const failing = items.filter(i => !i.ok).map(i => i.name)
   const sealValid = failing.length === 0
