@@ -87,7 +87,12 @@ pg_up() {
   if [ ! -f "$dir/PG_VERSION" ]; then
     say "creating a private PostgreSQL cluster in $dir…"
     mkdir -p "$dir"
-    [ "$(id -u)" -eq 0 ] && chown -R postgres:postgres "$(dirname "$dir")"
+    # Only the cluster's own folder goes to the database's user: the secrets beside it (session secret,
+    # seal key, passwords) stay the app's, mode 0600.
+    if [ "$(id -u)" -eq 0 ]; then
+      chown postgres:postgres "$dir"
+      [ "$(dirname "$dir")" = "$DATA" ] || chown postgres:postgres "$(dirname "$dir")"
+    fi
     # initdb runs as the database's user: it reads a copy of the password, removed at once.
     local copy
     copy="$(mktemp)"
