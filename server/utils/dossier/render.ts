@@ -18,8 +18,6 @@ import {
 
 const deflateAsync = promisify(deflate)
 
-const deflateAsync = promisify(deflate)
-
 /** An evidence file that travels inside the dossier PDF. */
 export interface Attachment { name: string, bytes: Uint8Array, mediaType: string, sha256: string, kind?: string }
 
