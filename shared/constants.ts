@@ -54,8 +54,11 @@ export type Decision = (typeof DECISIONS)[number]
 export const ITEM_RESULTS = ['pass', 'fail', 'na'] as const
 export type ItemResult = (typeof ITEM_RESULTS)[number]
 
-/** The kind of an electric machine's traction bus. */
-export const BUS_KINDS = ['dc', 'ac'] as const
+/**
+ * The kind of an electric machine's traction bus: DC, AC, or DC and AC buses conductively connected,
+ * with or without the additional protection on the AC side that UN ECE Regulation 100, 5.1.3 names.
+ */
+export const BUS_KINDS = ['dc', 'ac', 'dc-ac', 'dc-ac-protected'] as const
 export type BusKind = (typeof BUS_KINDS)[number]
 
 export const EVIDENCE_KINDS = [

@@ -47,7 +47,7 @@ export const busSchema = z.object({
     .number({ error: 'must be a number' })
     .positive({ error: 'must be greater than zero' })
     .max(2000, { error: 'must be at most 2000 V' }),
-  busKind: z.enum(BUS_KINDS, { error: 'must be DC or AC' }),
+  busKind: z.enum(BUS_KINDS, { error: 'must be DC, AC, or DC and AC connected (with or without the AC protection)' }),
 })
 export type BusInput = z.infer<typeof busSchema>
 

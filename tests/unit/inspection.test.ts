@@ -38,12 +38,46 @@ describe('measurements', () => {
 })
 
 describe('clearance', () => {
-  const all = allItems(electricMotorcycle).map(i => ({ itemKey: i.key, result: 'pass' as const, value: i.kind === 'measure' ? 1e6 : null }))
+  // Values within every limit: isolation 80 kΩ on a 400 V DC bus is 200 Ω/V (≥ 100 Ω/V, UN ECE R100 5.1.3);
+  // bonding 0.05 Ω (< 0.1 Ω); rider out in 12 s (≤ 30 s reported); mass measured.
+  const values: Record<string, number> = { 'isolation': 80_000, 'bonding': 0.05, 'canopy-exit': 12, 'mass': 181.5 }
+  const all = allItems(electricMotorcycle).map(i => ({ itemKey: i.key, result: 'pass' as const, value: i.kind === 'measure' ? values[i.key] ?? 1 : null }))
+  const bus = { busVoltageV: 400, busKind: 'dc' as const }
   it('needs a signature, every item answered and none failed', () => {
-    expect(clears(electricMotorcycle, all, false).cleared).toBe(false)
-    expect(clears(electricMotorcycle, all, true)).toEqual({ cleared: true, why: 'signed inspection, no failed item' })
+    expect(clears(electricMotorcycle, all, false, bus).cleared).toBe(false)
+    expect(clears(electricMotorcycle, all, true, bus).cleared).toBe(true)
     const failed = all.map(a => (a.itemKey === 'helmet' ? { ...a, result: 'fail' as const } : a))
-    expect(clears(electricMotorcycle, failed, true).why).toBe('failed: Helmet to the current approved standard')
+    expect(clears(electricMotorcycle, failed, true, bus).why).toBe('failed: Helmet to the current approved standard')
     expect(missingItems(electricMotorcycle, all.slice(1)).map(i => i.key)).toEqual(['cutoff-lanyard'])
+  })
+
+  it('a measured value outside its limit fails, whatever was ticked', () => {
+    // 20 kΩ on 400 V DC is 50 Ω/V, under the 100 Ω/V of UN ECE R100 5.1.3: ticked "pass", it still fails.
+    const low = all.map(a => (a.itemKey === 'isolation' ? { ...a, value: 20_000 } : a))
+    const c = clears(electricMotorcycle, low, true, bus)
+    expect(c.cleared).toBe(false)
+    expect(c.why).toContain('50.0 Ω/V at 400 V DC is under the 100 Ω/V needed')
+  })
+
+  it('an electric machine is not cleared without its working voltage and bus kind', () => {
+    const c = clears(electricMotorcycle, all, true, {})
+    expect(c.cleared).toBe(false)
+    expect(c.why).toContain('no working voltage and bus kind')
+  })
+})
+
+describe('connected DC and AC buses', () => {
+  // Source: UN ECE Regulation 100, 5.1.3 (from memory for the connected case; confirm the wording): DC and
+  // AC buses conductively connected need 500 Ω/V of the maximum working voltage, unless the AC side has the
+  // additional protection the paragraph names (then 100 Ω/V). 100 kΩ at 400 V is 250 Ω/V.
+  const at = (busKind: 'dc' | 'dc-ac' | 'dc-ac-protected') =>
+    checkMeasurement(item('isolation'), 100_000, { busVoltageV: 400, busKind }).withinLimit
+  it('needs 500 Ω/V when connected, 100 Ω/V with the AC side protected', () => {
+    expect(at('dc')).toBe(true)
+    expect(at('dc-ac')).toBe(false)
+    expect(at('dc-ac-protected')).toBe(true)
+    // A typical 400 V machine at a fifth of what connected buses need: 40 kΩ = 100 Ω/V < 500 Ω/V.
+    expect(checkMeasurement(item('isolation'), 40_000, { busVoltageV: 400, busKind: 'dc-ac' }).message)
+      .toBe('100.0 Ω/V at 400 V DC and AC connected is under the 500 Ω/V needed')
   })
 })

@@ -171,10 +171,7 @@ async function writeAnswer(
       throw fieldError('unit', (e as Error).message)
     }
   }
-  const verdict = checkMeasurement(item, value, {
-    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
-    busKind: inspection.busKind as BusKind | null,
-  })
+  const verdict = checkMeasurement(item, value, busOf(inspection))
   const values = {
     inspectionId,
     itemKey: item.key,
@@ -295,10 +292,8 @@ export async function clearanceOf(entryIds: number[]) {
       out.set(id, { cleared: false, why: 'no technical inspection yet', inspectionId: null })
       continue
     }
-    out.set(id, {
-      ...clears(ins.checklist, asAnswers(answers.filter(a => a.inspectionId === ins.id)), !!ins.signatureId),
-      inspectionId: ins.id,
-    })
+    const mine = asAnswers(answers.filter(a => a.inspectionId === ins.id))
+    out.set(id, { ...clears(ins.checklist, mine, !!ins.signatureId, busOf(ins)), inspectionId: ins.id })
   }
   return out
 }
@@ -307,10 +302,7 @@ export async function clearanceOf(entryIds: number[]) {
 export async function inspectionView(inspectionId: number) {
   const inspection = await loadInspection(inspectionId)
   const answers = await answersOf([inspectionId])
-  const bus = {
-    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
-    busKind: inspection.busKind as BusKind | null,
-  }
+  const bus = busOf(inspection)
   const [event] = await useDb()
     .select({ profile: tables.events.profile })
     .from(tables.events)
@@ -332,7 +324,7 @@ export async function inspectionView(inspectionId: number) {
           .where(eq(tables.signatures.id, inspection.signatureId))
       )[0]
     : null
-  const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId)
+  const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId, bus)
   return {
     inspection,
     answers: answers.map(a => ({
@@ -350,5 +342,13 @@ export async function inspectionView(inspectionId: number) {
       : `the profile in force defines no mass classes (${event!.profile.massClasses.source})`,
     signature,
     clearance,
+  }
+}
+
+/** The bus an inspection measured against: its working voltage and kind, as entered. */
+function busOf(inspection: Pick<typeof tables.inspections.$inferSelect, 'busVoltageV' | 'busKind'>) {
+  return {
+    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
+    busKind: inspection.busKind as BusKind | null,
   }
 }
