@@ -1,4 +1,5 @@
 import { formatTimeOfDay } from '#shared/rules/timing'
+import { allItems } from '#shared/inspection/evaluate'
 import type { Readiness } from './readiness'
 
 export const DOSSIER_FORMAT = 'trapline-dossier/1'
@@ -156,7 +157,19 @@ async function manifestInspection(inspectionId: number | null) {
     checklist: { id: checklist.id, name: checklist.name, version: checklist.version },
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
     clearance,
-    answers: answers.map(a => ({ item: a.itemKey, result: a.result, enteredAs: a.enteredAs, note: a.note })),
+    answers: answers.map((a) => {
+      const item = allItems(checklist).find(x => x.key === a.itemKey)
+      return {
+        item: a.itemKey,
+        result: a.result,
+        enteredAs: a.enteredAs,
+        note: a.note,
+        // The measured value's own verdict against its limit, with the limit's source.
+        withinLimit: a.verdict.withinLimit,
+        check: a.verdict.message,
+        limitSource: item?.kind === 'measure' ? item.source : null,
+      }
+    }),
     signature: signature && {
       typedName: signature.typedName,
       at: new Date(signature.at).toISOString(),

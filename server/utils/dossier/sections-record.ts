@@ -2,6 +2,8 @@ import QRCode from 'qrcode'
 import type { PDFDocument } from 'pdf-lib'
 import { formatBytes } from '#shared/evidence/kinds'
 import { CHECKLIST_CAUTION } from '#shared/inspection/template'
+import { BUS_WORDS } from '#shared/inspection/evaluate'
+import type { BusKind } from '#shared/constants'
 import type { PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 import { utcStamp, type SealFacts } from './sections-result'
@@ -46,17 +48,25 @@ export function renderInspection(L: PdfLayout, m: Manifest) {
   L.text(CHECKLIST_CAUTION, { color: 'grey' })
   const i = m.inspection
   if (!i) return
-  const bus = `${i.bus.voltageV ?? '—'} V ${i.bus.kind?.toUpperCase() ?? ''}`
+  const bus = `${i.bus.voltageV ?? '—'} V ${i.bus.kind ? BUS_WORDS[i.bus.kind as BusKind] : ''}`
   const clearance = i.clearance.cleared ? 'cleared to run' : `not cleared: ${i.clearance.why}`
   L.text(`Inspection #${i.id}, checklist ${i.checklist.name} v${i.checklist.version}; bus ${bus}; ${clearance}.`)
   L.table(
     [
-      { title: 'Item', width: 230 },
-      { title: 'Result', width: 80 },
-      { title: 'Measured', width: 90 },
-      { title: 'Note', width: 95 },
+      { title: 'Item', width: 150 },
+      { title: 'Result', width: 50 },
+      { title: 'Measured', width: 75 },
+      { title: 'Against the limit (source)', width: 220 },
     ],
-    i.answers.map(a => [a.item, a.result, a.enteredAs ?? '', a.note ?? '']),
+    i.answers.map(a => [
+      a.item,
+      a.withinLimit === false ? 'FAIL (measured)' : a.result,
+      a.enteredAs ?? '',
+      a.limitSource
+        ? `${a.withinLimit === false ? 'outside' : a.withinLimit ? 'within' : 'not judged'}`
+        + `${a.check ? `: ${a.check}` : ''} (${a.limitSource})`
+        : (a.note ?? ''),
+    ]),
   )
   if (i.signature) {
     L.text(`Signed by ${i.signature.typedName}, ${utcStamp(i.signature.at)} UTC; SHA-256 ${i.signature.sha256}`)
