@@ -39,6 +39,7 @@ export const SIGNED_KINDS = [
   'statement',
   'ratification',
   'set-aside',
+  'suspension',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

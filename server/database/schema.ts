@@ -656,3 +656,23 @@ export const rateLimits = pgTable('rate_limits', {
   points: integer('points').notNull().default(0),
   expire: bigint('expire', { mode: 'number' }),
 })
+
+/**
+ * A scrutineer's signed suspension of a machine after an incident or a modification: it stops the
+ * machine's runs until an inspection signed after it clears the machine again. Append-only.
+ */
+export const machineSuspensions = pgTable('machine_suspensions', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  machineId: integer('machine_id')
+    .notNull()
+    .references(() => machines.id),
+  reason: text('reason').notNull(),
+  scrutineerId: integer('scrutineer_id')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+})

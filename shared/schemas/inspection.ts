@@ -89,3 +89,9 @@ export const setAsideSchema = signSheetSchema.extend({
   reason: z.string().trim().min(10, { error: 'give the reason in writing (at least 10 characters)' }).max(2000),
 })
 export type SetAsideInput = z.infer<typeof setAsideSchema>
+
+/** A scrutineer suspends a machine after an incident or a modification: signed, with the reason. */
+export const suspensionSchema = signSheetSchema.extend({
+  reason: z.string().trim().min(5, { error: 'say what happened (at least 5 characters)' }).max(1000),
+})
+export type SuspensionInput = z.infer<typeof suspensionSchema>

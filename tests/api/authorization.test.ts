@@ -60,6 +60,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/attempts/[id]/reopen': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/attempts/[id]/set-asides': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/attempts/[id]/impound': { expect: rolesOnly(409, 'scrutineer'), body: {} },
+  'POST /api/machines/[id]/suspensions': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'GET /api/attempts/[id]/timing-sheet': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/events/[id]/checklists': { expect: { ...eventMembers(200), admin: 200 } },
   'POST /api/events/[id]/checklists': { expect: rolesOnly(422, 'organiser'), body: {} },
@@ -94,7 +95,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, unreadyAttempt: 0 }
+  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, machines: 0, unreadyAttempt: 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -108,6 +109,8 @@ describe('authorization table', () => {
     // A ratified dossier, from the public record book (other test files may add newer versions).
     ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await demoMileRecord()).dossierUrl)![1])
     ids.runs = streamliner.runs[0].id
+    const overview = await call('GET', `/api/events/${eventId}`, { cookie: cookies.organiser })
+    ids.machines = overview.body.teams.find((t: { name: string }) => t.name === 'Larkspur Works').machines[0].id
     ids.readings = sheet.body.history[0].id
     // The demo's first entry is the demo team's; its inspection is signed.
     const inspections = await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookies.organiser })
@@ -149,7 +152,7 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
         const r = await call(method, path.replace('[id]', String(id)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])

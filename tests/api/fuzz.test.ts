@@ -33,6 +33,7 @@ beforeAll(async () => {
     reading: await one('select x.id from readings x join runs r on r.id = x.run_id where r.event_id = $1 limit 1'),
     inspection: await one('select id from inspections where event_id = $1 limit 1'),
     signature: await one('select id from signatures where event_id = $1 limit 1'),
+    machine: await one('select machine_id as id from entries where event_id = $1 limit 1'),
   }
   await owner.end()
   Object.assign(cookies, event.cookie, { anonymous: '', admin: await login(demoEmail('admin')) })
@@ -54,7 +55,7 @@ const body = fc.oneof(
   fc.array(leaf, { maxLength: 4 }),
   leaf,
 )
-const OWNER: Record<string, string> = { runs: 'run', readings: 'reading', attempts: 'attempt', inspections: 'inspection', signatures: 'signature', statements: 'signature', evidence: 'reading', dossiers: 'attempt' }
+const OWNER: Record<string, string> = { runs: 'run', readings: 'reading', attempts: 'attempt', inspections: 'inspection', signatures: 'signature', statements: 'signature', evidence: 'reading', dossiers: 'attempt', machines: 'machine' }
 
 it('answers every route, as anyone, with anything, and never with a 500', { timeout: 240_000 }, async () => {
   const seen: string[] = []

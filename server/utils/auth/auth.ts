@@ -86,6 +86,7 @@ const OWNER = {
   signature: sql`select event_id from signatures where id = `,
   evidence: sql`select event_id from evidence where id = `,
   dossier: sql`select event_id from dossiers where id = `,
+  machine: sql`select t.event_id from machines m join teams t on t.id = m.team_id where m.id = `,
 } as const
 
 /**

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, sql } from 'drizzle-orm'
+import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
 import {
   checkMeasurement,
   clears,
@@ -117,17 +117,19 @@ export async function startInspection(
     checklist = checklistLibrary[input.baseId as ChecklistId]
   }
   return db.transaction(async (tx) => {
+    // A machine is inspected once for every entry it makes: the previous inspection is the machine's.
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`machine:${entry.machineId}`}, 0))`)
     const [previous] = await tx
-      .select()
+      .select(getTableColumns(tables.inspections))
       .from(tables.inspections)
-      .where(eq(tables.inspections.entryId, entry.id))
+      .innerJoin(tables.entries, eq(tables.entries.id, tables.inspections.entryId))
+      .where(eq(tables.entries.machineId, entry.machineId))
       .orderBy(desc(tables.inspections.id))
       .limit(1)
-      .for('update')
     if (previous && !previous.signatureId)
       throw createError({
         statusCode: 409,
-        statusMessage: 'This entry already has an inspection in progress',
+        statusMessage: 'This machine already has an inspection in progress',
         data: { inspectionId: previous.id },
       })
     const [row] = await tx
@@ -277,25 +279,56 @@ export async function signInspection(
 }
 
 /** Whether each entry is cleared to run: its latest inspection signed, with no failed item. */
+/**
+ * Whether each entry may run: its machine's latest inspection (one clears the machine for every entry it
+ * makes at the event), signed, with every item passed and every measurement within its limit, and no
+ * suspension of the machine since that inspection was signed.
+ */
 export async function clearanceOf(entryIds: number[]) {
   const out = new Map<number, { cleared: boolean, why: string, inspectionId: number | null }>()
   if (!entryIds.length) return out
+  const { entries, inspections, machineSuspensions } = tables
+  const mine = await useDb().select({ id: entries.id, machineId: entries.machineId }).from(entries)
+    .where(inArray(entries.id, entryIds))
+  const machineIds = [...new Set(mine.map(e => e.machineId))]
+  if (!machineIds.length) return out
   const latest = await useDb()
-    .selectDistinctOn([tables.inspections.entryId])
-    .from(tables.inspections)
-    .where(inArray(tables.inspections.entryId, entryIds))
-    .orderBy(tables.inspections.entryId, desc(tables.inspections.id))
-  const answers = await answersOf(latest.map(l => l.id))
-  for (const id of entryIds) {
-    const ins = latest.find(l => l.entryId === id)
+    .selectDistinctOn([entries.machineId], { machineId: entries.machineId, ins: getTableColumns(inspections) })
+    .from(inspections)
+    .innerJoin(entries, eq(entries.id, inspections.entryId))
+    .where(inArray(entries.machineId, machineIds))
+    .orderBy(entries.machineId, desc(inspections.id))
+  const suspensions = await useDb().select().from(machineSuspensions)
+    .where(inArray(machineSuspensions.machineId, machineIds))
+  const signedAt = await signedTimes(latest.map(l => l.ins.signatureId).filter((x): x is number => !!x))
+  const answers = await answersOf(latest.map(l => l.ins.id))
+  for (const e of mine) {
+    const ins = latest.find(l => l.machineId === e.machineId)?.ins
     if (!ins) {
-      out.set(id, { cleared: false, why: 'no technical inspection yet', inspectionId: null })
+      out.set(e.id, { cleared: false, why: 'no technical inspection yet', inspectionId: null })
       continue
     }
-    const mine = asAnswers(answers.filter(a => a.inspectionId === ins.id))
-    out.set(id, { ...clears(ins.checklist, mine, !!ins.signatureId, busOf(ins)), inspectionId: ins.id })
+    const since = signedAt.get(ins.signatureId ?? 0)
+    const suspended = suspensions.filter(s => !since || s.createdAt >= since).at(-1)
+    if (suspended) {
+      out.set(e.id, {
+        cleared: false,
+        why: `the machine is suspended: ${suspended.reason}; a new inspection clears it`,
+        inspectionId: ins.id,
+      })
+      continue
+    }
+    const theirs = asAnswers(answers.filter(a => a.inspectionId === ins.id))
+    out.set(e.id, { ...clears(ins.checklist, theirs, !!ins.signatureId, busOf(ins)), inspectionId: ins.id })
   }
   return out
+}
+
+async function signedTimes(ids: number[]) {
+  if (!ids.length) return new Map<number, Date>()
+  const rows = await useDb().select({ id: tables.signatures.id, at: tables.signatures.signedAt })
+    .from(tables.signatures).where(inArray(tables.signatures.id, ids))
+  return new Map(rows.map(r => [r.id, r.at]))
 }
 
 /** An inspection with its checklist, answers, the checks of every measurement and the clearance. */

@@ -44,6 +44,17 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x!.s.attemptId)
     title = `Set-aside of finding ${x!.s.code} on attempt #${x!.s.attemptId}`
   }
+  else if (s.kind === 'suspension') {
+    const [x] = await useDb()
+      .select({ s: tables.machineSuspensions, by: tables.users.name, teamId: tables.machines.teamId })
+      .from(tables.machineSuspensions)
+      .innerJoin(tables.users, eq(tables.users.id, tables.machineSuspensions.scrutineerId))
+      .innerJoin(tables.machines, eq(tables.machines.id, tables.machineSuspensions.machineId))
+      .where(eq(tables.machineSuspensions.id, s.subjectId))
+    current = suspensionContent(x!.s, x!.by)
+    teamId = x!.teamId
+    title = `Suspension of machine #${x!.s.machineId}`
+  }
   else if (s.kind === 'ratification') {
     const [x] = await useDb()
       .select({ d: tables.dossiers, decision: tables.decisions })
