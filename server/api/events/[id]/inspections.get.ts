@@ -24,6 +24,7 @@ export default defineEventHandler(async (event) => {
     id: r.entry.id,
     className: r.entry.className,
     machine: r.machine,
+    machineId: r.entry.machineId,
     power: r.power,
     rider: r.rider,
     team: r.team,
