@@ -77,6 +77,17 @@ export class S3BlobStore {
     await this.client.send(new DeleteObjectCommand({ Bucket: this.options.bucket, Key: this.key(sha) }))
   }
 
+  async storedAt(sha: string) {
+    try {
+      const head = await this.client.send(new HeadObjectCommand({ Bucket: this.options.bucket, Key: this.key(sha) }))
+      return head.LastModified ?? null
+    }
+    catch (e) {
+      if ((e as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode === 404) return null
+      throw e
+    }
+  }
+
   async* list() {
     let token: string | undefined
     do {

@@ -12,6 +12,8 @@ export interface BlobStore {
   open(sha256: string): Promise<Readable>
   remove(sha256: string): Promise<void>
   list(): AsyncIterable<string>
+  /** When the file was stored; null if it is not there. */
+  storedAt(sha256: string): Promise<Date | null>
 }
 
 export class LocalBlobStore implements BlobStore {
@@ -35,6 +37,10 @@ export class LocalBlobStore implements BlobStore {
 
   async open(sha: string) {
     return createReadStream(this.path(sha))
+  }
+
+  async storedAt(sha: string) {
+    return stat(this.path(sha)).then(s => s.mtime, () => null)
   }
 
   async remove(sha: string) {
