@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import demo from '../../server/database/demo-people.json'
-import { call, demoEventPath, invitedPerson, login, useTestServer } from '../support/api'
+import { call, demoEventId, demoEventPath, invitedPerson, login, useTestServer } from '../support/api'
+import { newEntry } from '../support/entries'
 import { launchBrowser, signIn } from '../support/browser'
 
 await useTestServer()
@@ -78,4 +79,35 @@ it('an official signs a witness statement, and it is listed with its signature',
   await article.getByRole('link', { name: 'check the signature' }).click()
   await page.waitForURL('**/signatures/*')
   await expect.poll(() => page.locator('[data-test="stored-matches"]').innerText()).toContain('still matches its hash')
+})
+
+it('a measured value under its limit fails, whatever is ticked, and the machine is not cleared', async () => {
+  const entryId = await newEntry(await demoEventId(await login('team2@trapline.test')), 'Cinder Leak')
+  const page = await signIn(ctx, 'scrutineer@trapline.test', await demoEventPath('/inspections'))
+  await page.locator(`[data-test="entry-${entryId}"] button:has-text("Inspect")`).click()
+  await page.waitForURL('**/inspections/*')
+  await page.waitForSelector('html[data-hydrated="true"]')
+  expect(await page.locator('[data-test="hv-note"]').innerText()).toContain('qualified person with the machine made safe')
+  await page.fill('#bus-v', '400')
+  await page.click('button:has-text("Save the bus")')
+  // UN ECE Regulation 100, 5.1.3: 20 kΩ on a 400 V DC bus is 50 Ω/V, under the 100 Ω/V needed.
+  const measured: Record<string, [string, string]> = { 'isolation': ['20', 'kΩ'], 'bonding': ['0.04', 'Ω'], 'mass': ['181.5', 'kg'], 'canopy-exit': ['12', 's'] }
+  const rows = page.locator('[data-test^="item-"]')
+  for (let i = 0; i < await rows.count(); i++) {
+    const row = rows.nth(i)
+    const key = (await row.getAttribute('data-test'))!.slice(5)
+    if (measured[key]) {
+      await row.locator('input[inputmode="decimal"]').fill(measured[key]![0])
+      await row.locator('select').selectOption(measured[key]![1])
+    }
+    await row.getByRole('button', { name: 'Pass' }).click()
+    await expect.poll(() => row.getByRole('button', { name: 'Pass' }).getAttribute('aria-pressed')).toBe('true')
+  }
+  await expect.poll(() => page.locator('[data-test="item-isolation"] [data-test="verdict"]').innerText())
+    .toContain('50.0 Ω/V at 400 V DC is under the 100 Ω/V needed')
+  await page.fill('#si-name', 'Selma Scrute')
+  await page.fill('#si-pass', demo.password)
+  await page.click('button:has-text("Sign the inspection")')
+  await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Not cleared')
+  expect(await page.locator('[data-test="clearance"]').innerText()).toContain('under the 100 Ω/V needed')
 })
