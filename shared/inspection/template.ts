@@ -18,6 +18,8 @@ export interface ChecklistItem {
   limit?: ItemLimit
   /** Items that may be marked not applicable (e.g. canopy exit on an unstreamlined machine). */
   allowNotApplicable?: boolean
+  /** A safety item: an organiser's adapted copy keeps it. */
+  safety?: boolean
   source: string
   certainty: Certainty
 }

@@ -1,18 +1,26 @@
 import type { ChecklistItem, ChecklistSection, ChecklistTemplate } from './template'
 
 const SEEN = { source: 'published rulebook and safety-standard extracts', certainty: 'seen' as const }
+const PRACTICE = { source: 'common practice of record scrutineering', certainty: 'common practice' as const }
 
 const riderControls: ChecklistSection = {
   title: 'Rider controls',
   items: [
     {
       key: 'cutoff-lanyard',
+      safety: true,
       label:
         'Emergency cut-off on the handlebar, tethered to the rider by a non-elastic lanyard, breaks the power supply',
       kind: 'check',
       ...SEEN,
     },
-    { key: 'cutoff-reach', label: 'Cut-off reachable without letting go of the bars', kind: 'check', ...SEEN },
+    {
+      key: 'cutoff-reach',
+      label: 'Cut-off reachable without letting go of the bars',
+      kind: 'check',
+      safety: true,
+      ...SEEN,
+    },
   ],
 }
 
@@ -21,19 +29,52 @@ const highVoltage: ChecklistSection = {
   items: [
     {
       key: 'live-dash-light',
+      safety: true,
       label: '"Live" indicator light on the dashboard, flashing when the system is live',
       kind: 'check',
       ...SEEN,
     },
     {
       key: 'live-rear-light',
+      safety: true,
       label: '"Live" indicator light at the rear, flashing when the system is live',
       kind: 'check',
       ...SEEN,
     },
-    { key: 'hv-cables-orange', label: 'High-voltage cables in orange covering', kind: 'check', ...SEEN },
+    { key: 'hv-cables-orange', label: 'High-voltage cables in orange covering', kind: 'check', safety: true, ...SEEN },
+    {
+      key: 'hv-warning-labels',
+      label: 'High-voltage warning symbol on every enclosure of live parts',
+      kind: 'check',
+      safety: true,
+      source: 'UN ECE Regulation 100, marking of high-voltage parts (from memory: confirm the paragraph)',
+      certainty: 'from memory',
+    },
+    {
+      key: 'hv-service-disconnect',
+      label: 'High-voltage service disconnect fitted, marked and reachable by the marshals',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'isolation-monitoring',
+      label: 'Isolation monitoring fitted and working (warns the rider of a fault)',
+      kind: 'check',
+      allowNotApplicable: true,
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'make-safe-procedure',
+      label: 'Written post-crash make-safe procedure, naming the qualified persons who may perform it',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
     {
       key: 'isolation',
+      safety: true,
       label: 'Isolation resistance of the high-voltage bus',
       kind: 'measure',
       unit: 'Ω',
@@ -43,6 +84,7 @@ const highVoltage: ChecklistSection = {
     },
     {
       key: 'bonding',
+      safety: true,
       label: 'Bonding of exposed conductive parts',
       kind: 'measure',
       unit: 'Ω',
@@ -66,7 +108,32 @@ const chassis: ChecklistSection = {
     { key: 'stands-removed', label: 'Stands, mirrors and passenger pegs removed', kind: 'check', ...SEEN },
     { key: 'lenses-taped', label: 'Lenses taped', kind: 'check', allowNotApplicable: true, ...SEEN },
     {
+      key: 'fire-extinguisher',
+      label: 'Fire extinguisher of a type for the machine at the start line, or fire suppression fitted',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'ballast-secured',
+      label: 'Ballast secured to the structure, none loose',
+      kind: 'check',
+      allowNotApplicable: true,
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'parachute',
+      label: 'Parachute(s) fitted and packed where the expected speed calls for them',
+      kind: 'check',
+      allowNotApplicable: true,
+      safety: true,
+      source: 'club rules require parachutes above a speed (from memory: the speed varies by rulebook)',
+      certainty: 'from memory',
+    },
+    {
       key: 'tyres-rated',
+      safety: true,
       label: 'Tyres rated for the speed (above 200 mph, tyres designated by the maker for that use)',
       kind: 'check',
       source: 'club rule',
@@ -80,6 +147,7 @@ const streamlining: ChecklistSection = {
   items: [
     {
       key: 'canopy-exit',
+      safety: true,
       label: 'Rider exits unaided with the canopy shut',
       kind: 'measure',
       unit: 's',
@@ -94,9 +162,9 @@ const streamlining: ChecklistSection = {
 const riderKit: ChecklistSection = {
   title: 'Rider kit',
   items: [
-    { key: 'helmet', label: 'Helmet to the current approved standard', kind: 'check', ...SEEN },
-    { key: 'leathers', label: 'Leathers, boots and gloves', kind: 'check', ...SEEN },
-    { key: 'back-protector', label: 'Back protector', kind: 'check', ...SEEN },
+    { key: 'helmet', label: 'Helmet to the current approved standard', kind: 'check', safety: true, ...SEEN },
+    { key: 'leathers', label: 'Leathers, boots and gloves', kind: 'check', safety: true, ...SEEN },
+    { key: 'back-protector', label: 'Back protector', kind: 'check', safety: true, ...SEEN },
   ],
 }
 

@@ -127,6 +127,14 @@ describe('checklists', () => {
     const unknown = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['nope'], note: 'x rule' } })
     expect(unknown.status).toBe(422)
   })
+
+  it('keeps every safety item in an adapted copy', async () => {
+    // UN ECE Regulation 100, 5.1.3 (isolation) and common practice (the make-safe procedure): safety items.
+    const r = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['isolation', 'make-safe-procedure'], note: 'local rulebook, article 3' } })
+    expect(r.status).toBe(422)
+    expect(r.body.data.issues[0].path).toBe('removeItems')
+    expect(r.body.data.issues[0].message).toContain('a safety item')
+  })
 })
 
 describe('witness statements', () => {

@@ -81,3 +81,15 @@ describe('connected DC and AC buses', () => {
       .toBe('100.0 Ω/V at 400 V DC and AC connected is under the 500 Ω/V needed')
   })
 })
+
+describe('the templates cover the safety items', () => {
+  it('each names its source or says it is common practice, and the safety items are marked', () => {
+    const keys = allItems(electricMotorcycle).map(i => i.key)
+    // Common practice of record scrutineering, and UN ECE Regulation 100 for the high-voltage items.
+    for (const k of ['cutoff-lanyard', 'isolation', 'hv-service-disconnect', 'hv-warning-labels', 'isolation-monitoring', 'make-safe-procedure', 'fire-extinguisher', 'parachute', 'tyres-rated', 'ballast-secured', 'helmet']) {
+      expect(keys).toContain(k)
+      expect(item(k).safety).toBe(true)
+    }
+    for (const i of allItems(electricMotorcycle)) expect(i.source.length).toBeGreaterThan(5)
+  })
+})

@@ -61,6 +61,11 @@ export async function adaptChecklist(
   const known = new Set(allItems(base).map(i => i.key))
   const unknown = input.removeItems.filter(k => !known.has(k))
   if (unknown.length) throw fieldError('removeItems', `no such item: ${unknown.join(', ')}`)
+  // Safety items stay in every adapted copy: the rulebook and the chief scrutineer decide on their removal.
+  const safety = allItems(base).filter(i => i.safety && input.removeItems.includes(i.key))
+  if (safety.length) {
+    throw fieldError('removeItems', `${safety.map(i => i.label).join('; ')}: a safety item, kept in every adapted copy`)
+  }
   const [{ n }] = (await useDb()
     .select({ n: sql<number>`count(*)::int` })
     .from(tables.checklists)
