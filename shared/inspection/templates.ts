@@ -215,9 +215,103 @@ export const combustionMotorcycle: ChecklistTemplate = {
   ],
 }
 
+const driverSafety: ChecklistSection = {
+  title: 'Driver safety',
+  items: [
+    {
+      key: 'roll-structure',
+      label: 'Roll structure around the driver, to the rulebook\'s dimensions, undamaged',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'restraints',
+      label: 'Driver restraints: harness within its date, mounted to the structure',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'head-neck-restraint',
+      label: 'Head and neck restraint worn with the helmet',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'fire-suppression',
+      label: 'Fire suppression fitted, charged, reachable by the driver and from outside',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+    {
+      key: 'driver-kit',
+      label: 'Helmet to the current approved standard, fire-resistant suit, gloves and boots',
+      kind: 'check',
+      safety: true,
+      ...SEEN,
+    },
+  ],
+}
+
+const enclosedCockpit: ChecklistSection = {
+  title: 'Enclosed cockpit',
+  items: [
+    {
+      key: 'cockpit-exit',
+      label: 'Driver exits unaided with the canopy shut',
+      kind: 'measure',
+      unit: 's',
+      limit: { kind: 'max', value: 30 },
+      safety: true,
+      source: 'reported: 30 s',
+      certainty: 'seen',
+    },
+    {
+      key: 'canopy-release-outside',
+      label: 'Canopy release operable from outside by the marshals, marked',
+      kind: 'check',
+      safety: true,
+      ...PRACTICE,
+    },
+  ],
+}
+
+const electricPowertrain: ChecklistSection = {
+  ...highVoltage,
+  items: highVoltage.items.filter(i => i.key !== 'live-rear-light'),
+}
+
+/** A four-wheeled electric record car: driver safety, the high-voltage system, the machine, mass. */
+export const electricAutomobile: ChecklistTemplate = {
+  id: 'electric-automobile',
+  version: 1,
+  name: 'Electric automobile',
+  power: 'electric',
+  sections: [
+    driverSafety,
+    electricPowertrain,
+    { ...chassis, items: chassis.items.filter(i => !['chain-guard', 'stands-removed'].includes(i.key)) },
+    mass,
+  ],
+}
+
+/** A fully enclosed electric streamliner (two or more wheels): escape, roll structure, parachutes. */
+export const electricStreamliner: ChecklistTemplate = {
+  id: 'electric-streamliner',
+  version: 1,
+  name: 'Electric streamliner',
+  power: 'electric',
+  sections: [driverSafety, enclosedCockpit, electricPowertrain, chassis, mass],
+}
+
 export const checklistLibrary = {
   'electric-motorcycle': electricMotorcycle,
   'combustion-motorcycle': combustionMotorcycle,
+  'electric-automobile': electricAutomobile,
+  'electric-streamliner': electricStreamliner,
 } as const
 export type ChecklistId = keyof typeof checklistLibrary
 export const CHECKLIST_IDS = Object.keys(checklistLibrary) as ChecklistId[]

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { checkMeasurement, clears, missingItems, toItemUnit, allItems } from '#shared/inspection/evaluate'
-import { electricMotorcycle } from '#shared/inspection/templates'
+import { electricAutomobile, electricMotorcycle, electricStreamliner } from '#shared/inspection/templates'
 
 const item = (key: string) => allItems(electricMotorcycle).find(i => i.key === key)!
 
@@ -91,5 +91,20 @@ describe('the templates cover the safety items', () => {
       expect(item(k).safety).toBe(true)
     }
     for (const i of allItems(electricMotorcycle)) expect(i.source.length).toBeGreaterThan(5)
+  })
+})
+
+describe('automobile and streamliner templates', () => {
+  it('carry the driver-safety items and, for the streamliner, the escape with the canopy shut', () => {
+    // Common practice of record scrutineering: roll structure, restraints, fire suppression; a streamliner's
+    // driver must get out unaided with the canopy shut (30 s reported).
+    for (const t of [electricAutomobile, electricStreamliner]) {
+      const keys = allItems(t).map(i => i.key)
+      expect(keys).toEqual(expect.arrayContaining(['roll-structure', 'restraints', 'fire-suppression', 'isolation']))
+      expect(new Set(keys).size).toBe(keys.length)
+    }
+    const exit = allItems(electricStreamliner).find(i => i.key === 'cockpit-exit')!
+    expect(checkMeasurement(exit, 31, {}).withinLimit).toBe(false)
+    expect(checkMeasurement(exit, 22, {}).withinLimit).toBe(true)
   })
 })
