@@ -40,6 +40,7 @@ export const SIGNED_KINDS = [
   'ratification',
   'set-aside',
   'suspension',
+  'post-run-check',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

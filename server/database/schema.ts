@@ -676,3 +676,19 @@ export const machineSuspensions = pgTable('machine_suspensions', {
   signatureId: integer('signature_id').references(() => signatures.id),
   createdAt: createdAt(),
 })
+
+/** The machine checked again after a record run, where the profile asks for it: mass re-measured, signed. */
+export const postRunChecks = pgTable('post_run_checks', {
+  id: serial('id').primaryKey(),
+  attemptId: integer('attempt_id')
+    .notNull()
+    .references(() => attempts.id)
+    .unique(),
+  massKg: numeric('mass_kg', { precision: 8, scale: 1 }),
+  note: text('note').notNull().default(''),
+  scrutineerId: integer('scrutineer_id')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+})

@@ -58,6 +58,8 @@ export interface RuleProfile {
    * and an aborted record run means qualifying again. Null where the profile has no qualifying run.
    */
   qualifying: Sourced<{ mustBeatRecord: boolean, requalifyAfterAbort: boolean } | null>
+  /** After a record run, the machine goes to a post-run check (mass re-measured, signed) before the dossier. */
+  postRunCheck: Sourced<boolean>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -74,6 +76,7 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   massClasses: 'Mass classes',
   witnessStatements: 'Witness statements',
   qualifying: 'Qualifying run',
+  postRunCheck: 'Post-run check',
 }
 
 export function describeWindow(w: RunWindow): string {
@@ -119,6 +122,8 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       return `at most ${value} m/s`
     case 'bestPerDayOnly':
       return value ? 'only the best result per class each day goes forward' : 'every result goes forward'
+    case 'postRunCheck':
+      return value ? 'the machine is checked again after the record run (mass re-measured), signed' : 'none'
     case 'qualifying': {
       const q = value as { mustBeatRecord: boolean, requalifyAfterAbort: boolean }
       return [

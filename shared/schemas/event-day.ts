@@ -116,6 +116,7 @@ export const profileAdaptSchema = z.object({
   tailWindLimitMs: z.coerce.number().min(0).max(20).nullable().optional(),
   witnessStatements: z.coerce.number().int().min(0).max(10).optional(),
   averaging: z.enum(AVERAGINGS).optional(),
+  postRunCheck: z.boolean().optional(),
   source: z
     .string()
     .trim()

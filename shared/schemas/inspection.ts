@@ -95,3 +95,10 @@ export const suspensionSchema = signSheetSchema.extend({
   reason: z.string().trim().min(5, { error: 'say what happened (at least 5 characters)' }).max(1000),
 })
 export type SuspensionInput = z.infer<typeof suspensionSchema>
+
+/** The post-run check after a record run: the mass re-measured (kg), what was seen, signed. */
+export const postRunCheckSchema = signSheetSchema.extend({
+  massKg: z.coerce.number({ error: 'must be a number' }).positive().max(100_000),
+  note: z.string().trim().max(1000).default(''),
+})
+export type PostRunCheckInput = z.infer<typeof postRunCheckSchema>

@@ -60,6 +60,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/attempts/[id]/reopen': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/attempts/[id]/set-asides': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/attempts/[id]/impound': { expect: rolesOnly(409, 'scrutineer'), body: {} },
+  'POST /api/attempts/[id]/post-run-check': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'POST /api/machines/[id]/suspensions': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'GET /api/attempts/[id]/timing-sheet': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/events/[id]/checklists': { expect: { ...eventMembers(200), admin: 200 } },

@@ -118,6 +118,20 @@ function findingItems({ at, live, counted, attemptId }: AttemptFile): ReadinessI
   }))
 }
 
+/** Where the profile asks for it, the machine's signed check after the record run. */
+async function postRunItems({ attempt, attemptId }: AttemptFile): Promise<ReadinessItem[]> {
+  if (!attempt.profile.postRunCheck?.value) return []
+  const [check] = await useDb().select().from(tables.postRunChecks)
+    .where(eq(tables.postRunChecks.attemptId, attemptId))
+  return [{
+    key: 'post-run-check',
+    label: 'The signed post-run check of the machine (mass re-measured)',
+    fix: `/attempts/${attemptId}/dossier`, // a scrutineer records it on this page
+    met: !!check?.signatureId,
+    detail: check ? `${check.massKg} kg; ${check.note || 'no remark'}` : 'not recorded',
+  }]
+}
+
 /** The course survey and each timing system's calibration, valid on the days of the runs. */
 function equipmentItems({ at, day, distance, evidence, runDays }: AttemptFile): ReadinessItem[] {
   const survey = evidence.find(e => e.kind === 'survey-certificate' && e.courseId === distance.courseId)
@@ -182,7 +196,13 @@ function runAndRiderItems({ at, counted, entry, evidence, runDays }: AttemptFile
  */
 export async function readinessOf(eventId: number, attemptId: number) {
   const file = await loadAttemptFile(eventId, attemptId)
-  const items = [...recordItems(file), ...findingItems(file), ...equipmentItems(file), ...runAndRiderItems(file)]
+  const items = [
+    ...recordItems(file),
+    ...findingItems(file),
+    ...equipmentItems(file),
+    ...runAndRiderItems(file),
+    ...(await postRunItems(file)),
+  ]
   const { live, day, entry, distance, evidence, statements, clearance } = file
   const ready = items.every(i => i.met)
   return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance }

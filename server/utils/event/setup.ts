@@ -63,6 +63,7 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   if (input.tailWindLimitMs !== undefined) p.tailWindLimitMs = { value: input.tailWindLimitMs, ...adapted }
   if (input.witnessStatements !== undefined) p.witnessStatements = { value: input.witnessStatements, ...adapted }
   if (input.averaging !== undefined) p.averaging = { value: input.averaging, ...adapted }
+  if (input.postRunCheck !== undefined) p.postRunCheck = { value: input.postRunCheck, ...adapted }
   p.id = `${base.id}-adapted`
   p.name = `${base.name} (adapted)`
   p.version = Math.max(event!.profile.version, base.version) + 1

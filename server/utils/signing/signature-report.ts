@@ -55,6 +55,16 @@ export async function signatureReport(signatureId: number) {
     teamId = x!.teamId
     title = `Suspension of machine #${x!.s.machineId}`
   }
+  else if (s.kind === 'post-run-check') {
+    const [x] = await useDb()
+      .select({ c: tables.postRunChecks, by: tables.users.name })
+      .from(tables.postRunChecks)
+      .innerJoin(tables.users, eq(tables.users.id, tables.postRunChecks.scrutineerId))
+      .where(eq(tables.postRunChecks.id, s.subjectId))
+    current = postRunCheckContent(x!.c, x!.by)
+    teamId = await teamOfAttempt(x!.c.attemptId)
+    title = `Post-run check of attempt #${x!.c.attemptId}`
+  }
   else if (s.kind === 'ratification') {
     const [x] = await useDb()
       .select({ d: tables.dossiers, decision: tables.decisions })

@@ -62,4 +62,10 @@ export const clubSameDirection: RuleProfile = {
       + 'means qualifying again',
     certainty: 'seen',
   },
+  postRunCheck: {
+    value: false,
+    source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
+      + 'capacity re-measured after a record)',
+    certainty: 'common practice',
+  },
 }

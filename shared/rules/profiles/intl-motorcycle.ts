@@ -58,4 +58,10 @@ export const intlMotorcycle: RuleProfile = {
   },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
   qualifying: { value: null, source: 'two runs in opposite directions, no qualifying run', certainty: 'seen' },
+  postRunCheck: {
+    value: false,
+    source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
+      + 'capacity re-measured after a record)',
+    certainty: 'common practice',
+  },
 }
