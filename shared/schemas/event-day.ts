@@ -116,7 +116,8 @@ export const profileAdaptSchema = z.object({
   tailWindLimitMs: z.coerce.number().min(0).max(20).nullable().optional(),
   witnessStatements: z.coerce.number().int().min(0).max(10).optional(),
   averaging: z.enum(AVERAGINGS).optional(),
-  postRunCheck: z.boolean().optional(),
+  /** true or false, from JSON or from a form's "true"/"false". */
+  postRunCheck: z.preprocess(v => (v === 'true' ? true : v === 'false' ? false : v), z.boolean().optional()),
   source: z
     .string()
     .trim()
