@@ -21,6 +21,7 @@ export async function spendSignIn(event: H3Event, email: string) {
   }
 }
 
+/** Every sign-in, its address and outcome: an audit trail (the limits themselves are in `rate_limits`). */
 export async function recordLoginAttempt(email: string, succeeded: boolean) {
   await useDb().insert(tables.loginAttempts).values({ email, succeeded })
 }

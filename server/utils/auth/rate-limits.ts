@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible'
 
@@ -51,7 +50,7 @@ export function clientAddress(event: H3Event) {
 }
 
 /** A key of fixed length whatever the address: its SHA-256. */
-const keyOf = (key: string) => createHash('sha256').update(key).digest('base64url')
+const keyOf = (key: string) => sha256(key)
 
 /** Counts one against each named limit; 429 with the wait when any is passed. */
 export async function spend(...uses: [LimitName, string][]) {

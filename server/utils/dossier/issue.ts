@@ -103,13 +103,11 @@ async function storeBlob(pdf: Uint8Array) {
 /** Stores the PDF in the blob store, then its row (no connection is held while the bytes move). */
 async function storeDossier(pdf: Uint8Array, values: NewDossier) {
   const pdfSha = await storeBlob(pdf)
-  return useDb().transaction(async (tx) => {
-    const [row] = await tx
-      .insert(tables.dossiers)
-      .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })
-      .returning()
-    return row!
-  })
+  const [row] = await useDb()
+    .insert(tables.dossiers)
+    .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })
+    .returning()
+  return row!
 }
 
 export async function latestDossier(attemptId: number) {

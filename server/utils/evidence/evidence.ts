@@ -1,6 +1,6 @@
 import { sql, type SQL } from 'drizzle-orm'
 import { fileTypeFromBuffer } from 'file-type'
-import { evidenceKinds, extensionMismatch, TEXT, type EvidenceKind } from '#shared/evidence/kinds'
+import { evidenceKinds, extensionMismatch, formatBytes, TEXT, type EvidenceKind } from '#shared/evidence/kinds'
 import { evidenceFieldsSchema, type EvidenceFieldsInput } from '#shared/schemas/evidence'
 import type { EventAccess } from '../auth/auth'
 import type { StagedFile } from './uploads'
@@ -127,8 +127,6 @@ function assertCertificateRole(access: EventAccess, f: Fields) {
   }
 }
 
-const forbidden = (statusMessage: string) => createError({ statusCode: 403, statusMessage })
-
 /** Bytes a team may still store at this event (its files on its entries, attempts, runs, inspections). */
 async function quotaLeft(access: EventAccess, teams: number[] | null) {
   if (!teams?.length) return Number.POSITIVE_INFINITY
@@ -139,12 +137,11 @@ async function quotaLeft(access: EventAccess, teams: number[] | null) {
     where x.event_id = ${access.eventId} and ${teamSql} = ${team}`)
   const used = Number(rows[0]!.used)
   if (used >= quota) {
-    throw field('file', `the team's storage at this event is full: ${mb(used)} of ${mb(quota)} used; `
-      + 'ask the organiser for room')
+    throw field('file', `the team's storage at this event is full: ${formatBytes(used)} of ${formatBytes(quota)} `
+      + 'used; ask the organiser for room')
   }
   return quota - used
 }
-const mb = (bytes: number) => `${(bytes / 1_048_576).toFixed(1)} MB`
 
 /** What the content is by its magic bytes: a media type, or "text" for content with none that reads as text. */
 export async function sniff(head: Buffer): Promise<string | null> {

@@ -12,9 +12,10 @@ export default defineEventHandler(async (event) => {
   const { id } = validParams(event, idParams)
   const { copy } = validQuery(event, copyQuery)
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, id))
-  const member = await memberOf(event, d)
+  const user = await sessionUser(event)
+  const member = !!user && !!d && (await memberOf(event, d))
   if (!member && !(d && (await isRatified(id)))) {
-    if (!(await sessionUser(event))) throw createError({ statusCode: 401, statusMessage: 'Sign in first' })
+    if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in first' })
     throw notFound('No such dossier')
   }
   const open = copy === 'public' || !member
@@ -31,8 +32,7 @@ export default defineEventHandler(async (event) => {
 })
 
 /** Whether the signed-in person may read this dossier's officials' copy (their event; a team its own). */
-async function memberOf(event: H3Event, d: typeof tables.dossiers.$inferSelect | undefined) {
-  if (!d || !(await sessionUser(event))) return false
+async function memberOf(event: H3Event, d: typeof tables.dossiers.$inferSelect) {
   try {
     const access = await requireRoleOn(event, 'dossier', 'any')
     await assertOwnAttempt(access, d.attemptId)
