@@ -9,7 +9,8 @@ import * as t from './schema'
 import type { Db, Tx } from '../utils/database/db'
 import type { Direction, EventRole } from '../../shared/constants'
 
-const TIME_ZONE = 'America/Denver'
+export const DEMO_TIME_ZONE = 'America/Denver'
+const TIME_ZONE = DEMO_TIME_ZONE
 
 /** The demo's calendar: the runs were yesterday (event time); the event runs from two days before to two after. */
 export function demoCalendar(today: string) {

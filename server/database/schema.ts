@@ -433,6 +433,8 @@ export const inspections = pgTable(
     checklist: jsonb('checklist').$type<ChecklistTemplate>().notNull(),
     busVoltageV: numeric('bus_voltage_v', { precision: 7, scale: 1 }),
     busKind: text('bus_kind'),
+    /** The top speed the team declares the machine may reach, km/h exactly (tyres, parachutes). */
+    declaredKmh: numeric('declared_kmh'),
     previousId: integer('previous_id'),
     signatureId: integer('signature_id').references(() => signatures.id),
     createdBy: integer('created_by')
@@ -452,8 +454,8 @@ export const inspectionAnswers = pgTable(
       .references(() => inspections.id),
     itemKey: text('item_key').notNull(),
     result: itemResult('result').notNull(),
-    /** A measurement in the item's unit; `enteredAs` keeps what was typed. */
-    value: numeric('value', { precision: 16, scale: 6 }),
+    /** A measurement in the item's unit, exactly as converted; `enteredAs` keeps what was typed. */
+    value: numeric('value'),
     enteredAs: text('entered_as'),
     note: text('note'),
     updatedBy: integer('updated_by')

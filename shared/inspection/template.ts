@@ -8,13 +8,21 @@ export type ItemLimit
     | { kind: 'min', value: number }
   /** Isolation resistance per volt of the bus: at least dc Ω/V on a DC bus, ac Ω/V on an AC bus. */
     | { kind: 'isolation-per-volt', dc: number, ac: number }
+  /** At least the speed the team declares the machine may reach (a tyre's rated speed). */
+    | { kind: 'declared-speed' }
+  /** A count that grows with the declared speed: `count` needed above `overMph` (parachutes). */
+    | { kind: 'count-for-speed', steps: { overMph: number, count: number }[] }
+  /** Recorded for a later comparison (the class's limits, a post-run re-measure), with no limit here. */
+    | { kind: 'recorded' }
+
+export type MeasureUnit = 'Ω' | 'kg' | 's' | 'km/h' | 'count' | 'cm³'
 
 export interface ChecklistItem {
   key: string
   label: string
   kind: ItemKind
   /** Unit of a measurement as stored; entries in other units of the same quantity are converted. */
-  unit?: 'Ω' | 'kg' | 's'
+  unit?: MeasureUnit
   limit?: ItemLimit
   /** Items that may be marked not applicable (e.g. canopy exit on an unstreamlined machine). */
   allowNotApplicable?: boolean

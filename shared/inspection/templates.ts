@@ -3,6 +3,9 @@ import type { ChecklistItem, ChecklistSection, ChecklistTemplate } from './templ
 const SEEN = { source: 'published rulebook and safety-standard extracts', certainty: 'seen' as const }
 const PRACTICE = { source: 'common practice of record scrutineering', certainty: 'common practice' as const }
 
+/** Parachutes needed by declared speed (from memory of club rules: see the item's source). */
+export const PARACHUTE_STEPS = [{ overMph: 175, count: 1 }, { overMph: 300, count: 2 }]
+
 const riderControls: ChecklistSection = {
   title: 'Rider controls',
   items: [
@@ -124,19 +127,24 @@ const chassis: ChecklistSection = {
     },
     {
       key: 'parachute',
-      label: 'Parachute(s) fitted and packed where the expected speed calls for them',
-      kind: 'check',
-      allowNotApplicable: true,
+      label: 'Parachutes fitted and packed: how many',
+      kind: 'measure',
+      unit: 'count',
+      limit: { kind: 'count-for-speed', steps: PARACHUTE_STEPS },
       safety: true,
-      source: 'club rules require parachutes above a speed (from memory: the speed varies by rulebook)',
+      source: 'club rules: one parachute above 175 mph, two above 300 mph of declared speed '
+        + '(from memory: the speeds vary by rulebook; the rulebook in force decides)',
       certainty: 'from memory',
     },
     {
       key: 'tyres-rated',
       safety: true,
-      label: 'Tyres rated for the speed (above 200 mph, tyres designated by the maker for that use)',
-      kind: 'check',
-      source: 'club rule',
+      label: 'Tyres rated for the declared speed: the lowest rated speed of the tyres fitted',
+      kind: 'measure',
+      unit: 'km/h',
+      limit: { kind: 'declared-speed' },
+      source: 'club rule: above 200 mph, tyres designated by the maker for that use; speed symbols V 240, '
+        + 'W 270, Y 300 km/h (ETRTO / ISO 4000-1, from memory); rated under the declared speed fails',
       certainty: 'seen',
     },
   ],
@@ -176,9 +184,25 @@ const mass: ChecklistSection = {
       label: 'Mass on a calibrated scale (the scale certificate is evidence)',
       kind: 'measure',
       unit: 'kg',
-      limit: { kind: 'min', value: 1 },
-      ...SEEN,
+      limit: { kind: 'recorded' },
+      source: 'published rulebook extracts: the mass decides the mass class, and is re-measured after a record',
+      certainty: 'seen',
     } satisfies ChecklistItem,
+  ],
+}
+
+const engine: ChecklistSection = {
+  title: 'Engine',
+  items: [
+    {
+      key: 'engine-capacity',
+      label: 'Engine capacity, measured (bore and stroke) or sealed: swept volume of all cylinders',
+      kind: 'measure',
+      unit: 'cm³',
+      limit: { kind: 'recorded' },
+      source: 'published rulebook extracts: the capacity decides the capacity class',
+      certainty: 'seen',
+    },
   ],
 }
 
@@ -212,6 +236,7 @@ export const combustionMotorcycle: ChecklistTemplate = {
     streamlining,
     riderKit,
     mass,
+    engine,
   ],
 }
 
@@ -284,18 +309,15 @@ const electricPowertrain: ChecklistSection = {
   items: highVoltage.items.filter(i => i.key !== 'live-rear-light'),
 }
 
+const carChassis = { ...chassis, items: chassis.items.filter(i => !['chain-guard', 'stands-removed'].includes(i.key)) }
+
 /** A four-wheeled electric record car: driver safety, the high-voltage system, the machine, mass. */
 export const electricAutomobile: ChecklistTemplate = {
   id: 'electric-automobile',
   version: 1,
   name: 'Electric automobile',
   power: 'electric',
-  sections: [
-    driverSafety,
-    electricPowertrain,
-    { ...chassis, items: chassis.items.filter(i => !['chain-guard', 'stands-removed'].includes(i.key)) },
-    mass,
-  ],
+  sections: [driverSafety, electricPowertrain, carChassis, mass],
 }
 
 /** A fully enclosed electric streamliner (two or more wheels): escape, roll structure, parachutes. */
@@ -307,11 +329,26 @@ export const electricStreamliner: ChecklistTemplate = {
   sections: [driverSafety, enclosedCockpit, electricPowertrain, chassis, mass],
 }
 
+/** A four-wheeled combustion record car: driver safety, the machine, mass and engine capacity. */
+export const combustionAutomobile: ChecklistTemplate = {
+  id: 'combustion-automobile',
+  version: 1,
+  name: 'Combustion automobile',
+  power: 'combustion',
+  sections: [
+    driverSafety,
+    carChassis,
+    mass,
+    engine,
+  ],
+}
+
 export const checklistLibrary = {
   'electric-motorcycle': electricMotorcycle,
   'combustion-motorcycle': combustionMotorcycle,
   'electric-automobile': electricAutomobile,
   'electric-streamliner': electricStreamliner,
+  'combustion-automobile': combustionAutomobile,
 } as const
 export type ChecklistId = keyof typeof checklistLibrary
 export const CHECKLIST_IDS = Object.keys(checklistLibrary) as ChecklistId[]

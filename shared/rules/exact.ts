@@ -138,3 +138,14 @@ export function decimalsOf(text: string | number): number {
   const frac = m?.[1]?.length ?? 0
   return Math.max(0, frac - Number(e?.[1] ?? 0))
 }
+
+/**
+ * The exact decimal spelling of a, with no trailing zeros, or null when it needs more than `maxDecimals`
+ * places (a third, or a product of too many decimals).
+ */
+export function toExactDecimal(a: Q, maxDecimals: number): string | null {
+  for (let k = 0; k <= maxDecimals; k++) {
+    if ((a.n * pow10(k)) % a.d === 0n) return toFixed(a, k)
+  }
+  return null
+}

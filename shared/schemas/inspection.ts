@@ -2,9 +2,23 @@ import { z } from 'zod'
 import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
 import { recordId } from './fields'
+import { decimalsOf, fromInput, MAX_DECIMAL_CHARS } from '../rules/exact'
 import { BUS_KINDS, DECISIONS, ITEM_RESULTS } from '../constants'
 
 const id = recordId
+
+/** A measurement as typed: a decimal string or a JSON number, not negative, at most 6 decimals. */
+const measuredValue = z
+  .union([z.number(), z.string().trim().max(MAX_DECIMAL_CHARS)], { error: 'must be a number' })
+  .superRefine((x, ctx) => {
+    try {
+      if (fromInput(x).n < 0n) ctx.addIssue({ code: 'custom', message: 'must not be negative' })
+      else if (decimalsOf(x) > 6) ctx.addIssue({ code: 'custom', message: 'must have at most 6 decimals' })
+    }
+    catch {
+      ctx.addIssue({ code: 'custom', message: 'must be a number' })
+    }
+  })
 
 export const checklistAdaptSchema = z.object({
   baseId: z.enum(CHECKLIST_IDS as [string, ...string[]], { error: `must be one of ${CHECKLIST_IDS.join(', ')}` }),
@@ -32,24 +46,42 @@ export type StartInspectionInput = z.infer<typeof startInspectionSchema>
 export const answerSchema = z.object({
   itemKey: z.string().min(1).max(60),
   result: z.enum(ITEM_RESULTS, { error: 'must be pass, fail or not applicable' }),
-  value: z.coerce
-    .number({ error: 'must be a number' })
-    .finite()
-    .nonnegative({ error: 'must not be negative' })
-    .optional(),
+  /** A decimal as typed ("2.4", or a JSON number): converted exactly to the item's unit. */
+  value: measuredValue.optional(),
   unit: z.string().max(8).optional(),
   note: z.string().trim().max(1000).optional(),
 })
 export type AnswerInput = z.infer<typeof answerSchema>
 
-export const busSchema = z.object({
-  busVoltageV: z.coerce
-    .number({ error: 'must be a number' })
-    .positive({ error: 'must be greater than zero' })
-    .max(2000, { error: 'must be at most 2000 V' }),
-  busKind: z.enum(BUS_KINDS, { error: 'must be DC, AC, or DC and AC connected (with or without the AC protection)' }),
-})
-export type BusInput = z.infer<typeof busSchema>
+/**
+ * The figures an inspection judges measurements against: the high-voltage bus's maximum working voltage
+ * and kind (electric machines), and the top speed the team declares, in km/h or mph. Any of them may
+ * be sent alone; the bus's voltage and kind go together.
+ */
+export const figuresSchema = z
+  .object({
+    busVoltageV: z.coerce
+      .number({ error: 'must be a number' })
+      .positive({ error: 'must be greater than zero' })
+      .max(2000, { error: 'must be at most 2000 V' })
+      .optional(),
+    busKind: z
+      .enum(BUS_KINDS, { error: 'must be DC, AC, or DC and AC connected (with or without the AC protection)' })
+      .optional(),
+    declaredSpeed: measuredValue
+      .refine(x => Number(x) > 0 && Number(x) <= 1500, { error: 'must be a speed above 0 and at most 1500' })
+      .optional(),
+    declaredUnit: z.enum(['km/h', 'mph'], { error: 'must be km/h or mph' }).default('km/h'),
+  })
+  .refine(x => (x.busVoltageV === undefined) === (x.busKind === undefined), {
+    error: 'give the working voltage and the bus kind together',
+    path: ['busKind'],
+  })
+  .refine(x => x.busVoltageV !== undefined || x.declaredSpeed !== undefined, {
+    error: 'give the working voltage and bus kind, or the declared top speed',
+    path: ['declaredSpeed'],
+  })
+export type FiguresInput = z.infer<typeof figuresSchema>
 
 /** A drawn signature, as a PNG data URL, at most about 200 kB. */
 const drawing = z

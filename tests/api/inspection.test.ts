@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { allItems } from '#shared/inspection/evaluate'
 import { electricMotorcycle } from '#shared/inspection/templates'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, invitedPerson, login, useTestServer } from '../support/api'
-import { answerAll, newEntry } from '../support/entries'
+import { answerAll, FIGURES, newEntry } from '../support/entries'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -39,7 +39,7 @@ describe('an inspection from start to clearance', { shuffle: false }, () => {
     expect(started.status).toBe(201)
     const id = started.body.id
     expect(started.body.checklist.version).toBe(1)
-    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: FIGURES })
 
     const early = await call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
     expect(early.status).toBe(422)
@@ -79,7 +79,7 @@ describe('an inspection from start to clearance', { shuffle: false }, () => {
     const again = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
     expect(again.status).toBe(201)
     expect(again.body.previousId).toBe(previous)
-    await call('PATCH', `/api/inspections/${again.body.id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await call('PATCH', `/api/inspections/${again.body.id}`, { cookie: cookie.scrutineer, body: FIGURES })
     await answerAll(again.body.id)
     const signed = await call('POST', `/api/inspections/${again.body.id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
     expect(signed.status).toBe(201)
@@ -101,7 +101,7 @@ describe('signing an inspection while an answer changes', () => {
     const fresh = await newEntry(eventId, 'Cinder Race')
     const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId: fresh, baseId: 'electric-motorcycle' } })
     const id = started.body.id
-    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: FIGURES })
     await answerAll(id)
     const [signed, answered] = await Promise.all([
       call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } }),

@@ -1,7 +1,7 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { call, useTestServer } from '../support/api'
-import { answerAll, clearedEntry } from '../support/entries'
+import { answerAll, clearedEntry, FIGURES } from '../support/entries'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 
 await useTestServer()
@@ -62,7 +62,7 @@ describe('machines, not entries', { shuffle: false }, () => {
     // The re-inspection, signed after the suspension, clears the machine for both entries again.
     const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId: second, baseId: 'electric-motorcycle' } })
     expect(started.status).toBe(201)
-    await call('PATCH', `/api/inspections/${started.body.id}`, { cookie: event.cookie.scrutineer, body: { busVoltageV: 400, busKind: 'dc' } })
+    await call('PATCH', `/api/inspections/${started.body.id}`, { cookie: event.cookie.scrutineer, body: FIGURES })
     await answerAll(started.body.id, undefined, { scrutineer: event.cookie.scrutineer })
     const signed = await call('POST', `/api/inspections/${started.body.id}/signatures`, { cookie: event.cookie.scrutineer, body: { password, typedName: 'Test scrutineer' } })
     expect(signed.status).toBe(201)

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
 import demo from '../../server/database/demo-people.json'
 import { call, demoEventId, demoEventPath, invitedPerson, login, useTestServer } from '../support/api'
 import { newEntry } from '../support/entries'
@@ -28,9 +29,15 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await page.waitForURL('**/inspections/*')
   await page.waitForSelector('html[data-hydrated="true"]')
   await page.fill('#bus-v', '96')
-  await page.click('button:has-text("Save the bus")')
-
-  const measured: Record<string, [string, string]> = { isolation: ['20', 'kΩ'], bonding: ['0.04', 'Ω'], mass: ['151.2', 'kg'] }
+  await page.fill('#declared', '124')
+  await page.selectOption('#declared-unit', 'mph')
+  await saveFigures(page)
+  // Declared 124 mph = 199.558656 km/h exactly (1 mile = 1.609344 km, NIST SP 811): no parachute needed
+  // under 175 mph (club rules, from memory); tyres rated 240 km/h (speed symbol V, from memory).
+  const measured: Record<string, [string, string]> = {
+    'isolation': ['20', 'kΩ'], 'bonding': ['0.04', 'Ω'], 'mass': ['151.2', 'kg'], 'parachute': ['0', 'count'],
+    'tyres-rated': ['240', 'km/h'],
+  }
   const rows = page.locator('[data-test^="item-"]')
   for (let i = 0; i < await rows.count(); i++) {
     const row = rows.nth(i)
@@ -89,9 +96,13 @@ it('a measured value under its limit fails, whatever is ticked, and the machine 
   await page.waitForSelector('html[data-hydrated="true"]')
   expect(await page.locator('[data-test="hv-note"]').innerText()).toContain('qualified person with the machine made safe')
   await page.fill('#bus-v', '400')
-  await page.click('button:has-text("Save the bus")')
+  await page.fill('#declared', '290')
+  await saveFigures(page)
   // UN ECE Regulation 100, 5.1.3: 20 kΩ on a 400 V DC bus is 50 Ω/V, under the 100 Ω/V needed.
-  const measured: Record<string, [string, string]> = { 'isolation': ['20', 'kΩ'], 'bonding': ['0.04', 'Ω'], 'mass': ['181.5', 'kg'], 'canopy-exit': ['12', 's'] }
+  const measured: Record<string, [string, string]> = {
+    'isolation': ['20', 'kΩ'], 'bonding': ['0.04', 'Ω'], 'mass': ['181.5', 'kg'], 'canopy-exit': ['12', 's'],
+    'parachute': ['1', 'count'], 'tyres-rated': ['300', 'km/h'],
+  }
   const rows = page.locator('[data-test^="item-"]')
   for (let i = 0; i < await rows.count(); i++) {
     const row = rows.nth(i)
@@ -112,3 +123,10 @@ it('a measured value under its limit fails, whatever is ticked, and the machine 
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('under the 100 Ω/V needed')
   expect(await page.locator('[data-test="clearance"]').innerText()).toContain('Not cleared: failed')
 })
+
+/** Saves the inspection's figures and waits for the server to take them. */
+async function saveFigures(page: Page) {
+  const saved = page.waitForResponse(r => r.request().method() === 'PATCH' && r.url().includes('/api/inspections/'))
+  await page.click('button:has-text("Save the figures")')
+  expect((await saved).status()).toBe(200)
+}

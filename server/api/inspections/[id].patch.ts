@@ -1,8 +1,8 @@
-import { busSchema } from '#shared/schemas/inspection'
+import { figuresSchema } from '#shared/schemas/inspection'
 
-// The high-voltage bus the isolation is checked against.
+// The figures measurements are judged against: the high-voltage bus and the declared top speed.
 export default defineEventHandler(async (event) => {
   const { recordId } = await requireRoleOn(event, 'inspection', ['scrutineer'])
-  const input = await validBody(event, busSchema)
-  return setBus(recordId, input)
+  const input = await validBody(event, figuresSchema)
+  return setFigures(recordId, input)
 })

@@ -49,7 +49,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       sha256: h.sha256,
       reason: h.reason,
     })),
-    inspection: await manifestInspection(r.clearance.inspectionId),
+    inspections: await manifestInspections(r),
     statements: await manifestStatements(day.event.id, r.attemptId),
     evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
       id: e.id,
@@ -148,14 +148,30 @@ function manifestReadings(day: EventDay, runId: number) {
   })
 }
 
-async function manifestInspection(inspectionId: number | null) {
-  if (!inspectionId) return null
+/**
+ * The inspections in force when the counted runs started (one, unless the machine was re-inspected
+ * between them), each with the runs it covered; before any run, the machine's latest.
+ */
+async function manifestInspections(r: Pick<Readiness, 'atRuns' | 'clearance'>) {
+  const ids = r.atRuns.length ? r.atRuns.map(a => a.inspectionId) : [r.clearance.inspectionId]
+  const out = []
+  for (const id of [...new Set(ids)].filter((x): x is number => x !== null)) {
+    out.push({
+      ...(await manifestInspection(id)),
+      runs: r.atRuns.filter(a => a.inspectionId === id).map(a => a.runId),
+    })
+  }
+  return out
+}
+
+async function manifestInspection(inspectionId: number) {
   const { inspection, clearance, answers, signature } = await inspectionView(inspectionId)
   const { checklist } = inspection
   return {
     id: inspection.id,
     checklist: { id: checklist.id, name: checklist.name, version: checklist.version },
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
+    declaredKmh: inspection.declaredKmh,
     clearance,
     answers: answers.map((a) => {
       const item = allItems(checklist).find(x => x.key === a.itemKey)
@@ -208,7 +224,8 @@ function isForAttempt(e: Evidence, r: Readiness) {
     || e.entryId === r.entry.entry.id
     || e.courseId === r.distance.courseId
     || e.timingSystemId !== null
-    || (e.inspectionId !== null && e.inspectionId === r.clearance.inspectionId)
+    || (e.inspectionId !== null
+      && (e.inspectionId === r.clearance.inspectionId || r.atRuns.some(a => a.inspectionId === e.inspectionId)))
   )
 }
 

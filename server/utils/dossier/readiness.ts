@@ -35,7 +35,28 @@ async function loadAttemptFile(eventId: number, attemptId: number) {
     runDays: counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone)),
     evidence: await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId)),
     statements,
-    clearance: (await clearanceOf([entry.entry.id])).get(entry.entry.id)!,
+    ...(await clearances(entry.entry.id, counted)),
+  }
+}
+
+/**
+ * The inspection in force at the start of each counted run, and what the file is judged on: every
+ * counted run started on a machine cleared then (before any run, the machine's clearance now).
+ */
+async function clearances(entryId: number, counted: { id: number, startedAt: string }[]) {
+  const atRuns = await clearanceAtRuns(entryId, counted)
+  if (!atRuns.length) return { atRuns, clearance: (await clearanceOf([entryId])).get(entryId)! }
+  const failing = atRuns.filter(c => !c.cleared)
+  const ids = [...new Set(atRuns.map(c => c.inspectionId))]
+  return {
+    atRuns,
+    clearance: {
+      cleared: !failing.length,
+      why: failing.length
+        ? failing.map(c => `run #${c.runId}: ${c.why}`).join('; ')
+        : `inspection ${ids.map(i => `#${i}`).join(', ')} in force and clearing the machine at each counted run`,
+      inspectionId: atRuns.at(-1)!.inspectionId,
+    },
   }
 }
 type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
@@ -71,7 +92,7 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
     },
     {
       key: 'inspection',
-      label: 'A signed inspection that cleared the machine',
+      label: 'A signed inspection that cleared the machine before each counted run',
       fix: `${at}/inspections`,
       met: clearance.cleared,
       detail: clearance.why,
@@ -203,9 +224,9 @@ export async function readinessOf(eventId: number, attemptId: number) {
     ...runAndRiderItems(file),
     ...(await postRunItems(file)),
   ]
-  const { live, day, entry, distance, evidence, statements, clearance } = file
+  const { live, day, entry, distance, evidence, statements, clearance, atRuns } = file
   const ready = items.every(i => i.met)
-  return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance }
+  return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance, atRuns }
 }
 
 export async function attemptOfEvent(eventId: number, attemptId: number) {

@@ -46,11 +46,21 @@ export function renderCourse(L: PdfLayout, m: Manifest) {
 export function renderInspection(L: PdfLayout, m: Manifest) {
   L.heading('Technical inspection')
   L.text(CHECKLIST_CAUTION, { color: 'grey' })
-  const i = m.inspection
-  if (!i) return
-  const bus = `${i.bus.voltageV ?? '—'} V ${i.bus.kind ? BUS_WORDS[i.bus.kind as BusKind] : ''}`
+  if (!m.inspections.length) L.text('No signed inspection was in force when the counted runs started.', { bold: true })
+  for (const i of m.inspections) renderOneInspection(L, i)
+}
+
+function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
+  const bus = i.bus.voltageV
+    ? `working voltage ${i.bus.voltageV} V ${i.bus.kind ? BUS_WORDS[i.bus.kind as BusKind] : ''}`
+    : 'no high-voltage bus entered'
+  const declared = i.declaredKmh ? `declared top speed ${i.declaredKmh} km/h` : 'no declared top speed'
   const clearance = i.clearance.cleared ? 'cleared to run' : `not cleared: ${i.clearance.why}`
-  L.text(`Inspection #${i.id}, checklist ${i.checklist.name} v${i.checklist.version}; bus ${bus}; ${clearance}.`)
+  const runs = i.runs.length ? `in force at the start of run(s) ${i.runs.map(r => `#${r}`).join(', ')}` : 'the latest'
+  L.text(
+    `Inspection #${i.id} (${runs}), checklist ${i.checklist.name} v${i.checklist.version}; ${bus}; ${declared}; `
+    + `${clearance}.`,
+  )
   L.table(
     [
       { title: 'Item', width: 150 },

@@ -5,14 +5,19 @@ import {
   missingItems,
   toItemUnit,
   allItems,
+  STORED_DECIMALS,
+  UNIT_FACTORS,
   type Answer,
+  type Figures,
 } from '#shared/inspection/evaluate'
+import { fromInput, toExactDecimal } from '#shared/rules/exact'
+import { convertSpeed } from '#shared/rules/units'
 import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
 import type {
   AnswerInput,
-  BusInput,
+  FiguresInput,
   ChecklistAdaptInput,
   SignRecordInput,
   StartInspectionInput,
@@ -47,7 +52,7 @@ const asAnswers = (rows: (typeof tables.inspectionAnswers.$inferSelect)[]): Answ
   rows.map(r => ({
     itemKey: r.itemKey,
     result: r.result,
-    value: r.value === null ? null : Number(r.value),
+    value: r.value,
     note: r.note,
   }))
 
@@ -168,22 +173,25 @@ async function writeAnswer(
   if (!item) throw fieldError('itemKey', 'is not an item of this checklist')
   if (input.result === 'na' && !item.allowNotApplicable)
     throw fieldError('result', 'this item cannot be marked not applicable')
-  let value: number | null = null
+  let value: string | null = null
   if (item.kind === 'measure' && input.result !== 'na') {
     if (input.value === undefined) throw fieldError('value', `enter the measurement in ${item.unit}`)
+    const unit = input.unit ?? item.unit!
+    if (!(unit in (UNIT_FACTORS[item.unit!] ?? {})))
+      throw fieldError('unit', `must be in ${Object.keys(UNIT_FACTORS[item.unit!] ?? {}).join(', ')}`)
     try {
-      value = toItemUnit(item, input.value, input.unit ?? item.unit!)
+      value = toItemUnit(item, input.value, unit)
     }
     catch (e) {
-      throw fieldError('unit', (e as Error).message)
+      throw fieldError('value', (e as Error).message)
     }
   }
-  const verdict = checkMeasurement(item, value, busOf(inspection))
+  const verdict = checkMeasurement(item, value, figuresOf(inspection))
   const values = {
     inspectionId,
     itemKey: item.key,
     result: input.result,
-    value: value === null ? null : String(value),
+    value,
     enteredAs: input.value === undefined ? null : `${input.value} ${input.unit ?? item.unit}`,
     note: input.note ?? null,
     updatedBy: userId,
@@ -200,12 +208,22 @@ async function writeAnswer(
   return { answer: row!, verdict }
 }
 
-export async function setBus(inspectionId: number, bus: BusInput) {
+/** Sets the working voltage and bus kind, or the declared top speed (stored in km/h, exactly). */
+export async function setFigures(inspectionId: number, input: FiguresInput) {
+  const set: Partial<typeof tables.inspections.$inferInsert> = {}
+  if (input.busVoltageV !== undefined) {
+    set.busVoltageV = String(input.busVoltageV)
+    set.busKind = input.busKind
+  }
+  if (input.declaredSpeed !== undefined) {
+    const kmh = convertSpeed(fromInput(input.declaredSpeed), input.declaredUnit, 'km/h')
+    set.declaredKmh = toExactDecimal(kmh, STORED_DECIMALS)
+  }
   return useDb().transaction(async (tx) => {
     await lockUnsigned(tx, inspectionId)
     const [row] = await tx
       .update(tables.inspections)
-      .set({ busVoltageV: String(bus.busVoltageV), busKind: bus.busKind })
+      .set(set)
       .where(eq(tables.inspections.id, inspectionId))
       .returning()
     return row!
@@ -237,6 +255,7 @@ export async function inspectionContent(inspectionId: number, db: Tx | Db = useD
     },
     checklist: inspection.checklist,
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
+    ...(inspection.declaredKmh === null ? {} : { declaredKmh: inspection.declaredKmh }),
     answers: answers.map(a => ({
       item: a.itemKey,
       result: a.result,
@@ -251,6 +270,7 @@ export async function signInspection(
   inspectionId: number,
   input: SignRecordInput,
   user: { id: number },
+  demo: { signedAt?: Date } = {},
 ) {
   await assertPassword(user.id, input.password)
   return useDb().transaction(async (tx) => {
@@ -277,56 +297,93 @@ export async function signInspection(
       typedName: input.typedName,
       content,
       drawingPng: input.drawingPng,
+      signedAt: demo.signedAt,
     })
     await tx.update(tables.inspections).set({ signatureId: sig.id }).where(eq(tables.inspections.id, inspectionId))
     return { id: sig.id, sha256: sig.contentSha256, signedAt: sig.signedAt }
   })
 }
 
-/** Whether each entry is cleared to run: its latest inspection signed, with no failed item. */
+type Clearance = { cleared: boolean, why: string, inspectionId: number | null }
+
+/** Every inspection, signature time, suspension and answer of some machines, read once. */
+async function machineRecords(machineIds: number[]) {
+  const { entries, inspections, machineSuspensions } = tables
+  const all = machineIds.length
+    ? await useDb()
+        .select({ machineId: entries.machineId, ins: getTableColumns(inspections) })
+        .from(inspections)
+        .innerJoin(entries, eq(entries.id, inspections.entryId))
+        .where(inArray(entries.machineId, machineIds))
+        .orderBy(desc(inspections.id))
+    : []
+  const suspensions = machineIds.length
+    ? await useDb().select().from(machineSuspensions).where(inArray(machineSuspensions.machineId, machineIds))
+    : []
+  const signedAt = await signedTimes(all.map(l => l.ins.signatureId).filter((x): x is number => !!x))
+  const answers = await answersOf(all.map(l => l.ins.id))
+  return { all, suspensions, signedAt, answers }
+}
+type MachineRecords = Awaited<ReturnType<typeof machineRecords>>
+
 /**
- * Whether each entry may run: its machine's latest inspection (one clears the machine for every entry it
- * makes at the event), signed, with every item passed and every measurement within its limit, and no
- * suspension of the machine since that inspection was signed.
+ * Whether a machine may run at an instant (or now, when `at` is null): the inspection in force (now: the
+ * latest, signed or not; at an instant: the latest signed before it), signed, every item passed and every
+ * measurement within its limit, and no suspension of the machine between its signature and the instant.
+ */
+function clearanceIn(r: MachineRecords, machineId: number, at: Date | null): Clearance {
+  const signed = (i: { signatureId: number | null }) => (i.signatureId ? r.signedAt.get(i.signatureId) : undefined)
+  const ins = r.all
+    .filter(l => l.machineId === machineId)
+    .map(l => l.ins)
+    .filter(i => at === null || (signed(i) !== undefined && signed(i)! <= at))
+    .sort((a, b) => (at === null ? b.id - a.id : signed(b)!.getTime() - signed(a)!.getTime()))[0]
+  if (!ins) {
+    return {
+      cleared: false,
+      why: at === null ? 'no technical inspection yet' : 'no signed inspection before the run started',
+      inspectionId: null,
+    }
+  }
+  const since = signed(ins)
+  const suspended = r.suspensions
+    .filter(s => s.machineId === machineId && (!since || s.createdAt >= since) && (!at || s.createdAt <= at))
+    .at(-1)
+  if (suspended) {
+    return {
+      cleared: false,
+      why: `the machine is suspended: ${suspended.reason}; a new inspection clears it`,
+      inspectionId: ins.id,
+    }
+  }
+  const theirs = asAnswers(r.answers.filter(a => a.inspectionId === ins.id))
+  return { ...clears(ins.checklist, theirs, !!ins.signatureId, figuresOf(ins)), inspectionId: ins.id }
+}
+
+const machinesOf = async (entryIds: number[]) =>
+  entryIds.length
+    ? useDb().select({ id: tables.entries.id, machineId: tables.entries.machineId }).from(tables.entries)
+        .where(inArray(tables.entries.id, entryIds))
+    : []
+
+/**
+ * Whether each entry may run now: its machine's latest inspection (one clears the machine for every entry
+ * it makes at the event), signed and passed, and no suspension since (see `clearanceIn`).
  */
 export async function clearanceOf(entryIds: number[]) {
-  const out = new Map<number, { cleared: boolean, why: string, inspectionId: number | null }>()
-  if (!entryIds.length) return out
-  const { entries, inspections, machineSuspensions } = tables
-  const mine = await useDb().select({ id: entries.id, machineId: entries.machineId }).from(entries)
-    .where(inArray(entries.id, entryIds))
-  const machineIds = [...new Set(mine.map(e => e.machineId))]
-  if (!machineIds.length) return out
-  const latest = await useDb()
-    .selectDistinctOn([entries.machineId], { machineId: entries.machineId, ins: getTableColumns(inspections) })
-    .from(inspections)
-    .innerJoin(entries, eq(entries.id, inspections.entryId))
-    .where(inArray(entries.machineId, machineIds))
-    .orderBy(entries.machineId, desc(inspections.id))
-  const suspensions = await useDb().select().from(machineSuspensions)
-    .where(inArray(machineSuspensions.machineId, machineIds))
-  const signedAt = await signedTimes(latest.map(l => l.ins.signatureId).filter((x): x is number => !!x))
-  const answers = await answersOf(latest.map(l => l.ins.id))
-  for (const e of mine) {
-    const ins = latest.find(l => l.machineId === e.machineId)?.ins
-    if (!ins) {
-      out.set(e.id, { cleared: false, why: 'no technical inspection yet', inspectionId: null })
-      continue
-    }
-    const since = signedAt.get(ins.signatureId ?? 0)
-    const suspended = suspensions.filter(s => !since || s.createdAt >= since).at(-1)
-    if (suspended) {
-      out.set(e.id, {
-        cleared: false,
-        why: `the machine is suspended: ${suspended.reason}; a new inspection clears it`,
-        inspectionId: ins.id,
-      })
-      continue
-    }
-    const theirs = asAnswers(answers.filter(a => a.inspectionId === ins.id))
-    out.set(e.id, { ...clears(ins.checklist, theirs, !!ins.signatureId, busOf(ins)), inspectionId: ins.id })
-  }
+  const out = new Map<number, Clearance>()
+  const mine = await machinesOf(entryIds)
+  const records = await machineRecords([...new Set(mine.map(e => e.machineId))])
+  for (const e of mine) out.set(e.id, clearanceIn(records, e.machineId, null))
   return out
+}
+
+/** The inspection in force when each run started, and whether it cleared the machine then. */
+export async function clearanceAtRuns(entryId: number, runs: { id: number, startedAt: string | Date }[]) {
+  const [mine] = await machinesOf([entryId])
+  if (!mine) throw notFound('No such entry')
+  const records = await machineRecords([mine.machineId])
+  return runs.map(run => ({ runId: run.id, ...clearanceIn(records, mine.machineId, new Date(run.startedAt)) }))
 }
 
 async function signedTimes(ids: number[]) {
@@ -340,7 +397,7 @@ async function signedTimes(ids: number[]) {
 export async function inspectionView(inspectionId: number) {
   const inspection = await loadInspection(inspectionId)
   const answers = await answersOf([inspectionId])
-  const bus = busOf(inspection)
+  const figures = figuresOf(inspection)
   const [event] = await useDb()
     .select({ profile: tables.events.profile })
     .from(tables.events)
@@ -362,15 +419,15 @@ export async function inspectionView(inspectionId: number) {
           .where(eq(tables.signatures.id, inspection.signatureId))
       )[0]
     : null
-  const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId, bus)
+  const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId, figures)
   return {
     inspection,
     answers: answers.map(a => ({
       ...a,
       verdict: checkMeasurement(
         allItems(inspection.checklist).find(i => i.key === a.itemKey)!,
-        a.value === null ? null : Number(a.value),
-        bus,
+        a.value,
+        figures,
       ),
     })),
     missing: missingItems(inspection.checklist, asAnswers(answers)).map(i => i.key),
@@ -383,10 +440,13 @@ export async function inspectionView(inspectionId: number) {
   }
 }
 
-/** The bus an inspection measured against: its working voltage and kind, as entered. */
-function busOf(inspection: Pick<typeof tables.inspections.$inferSelect, 'busVoltageV' | 'busKind'>) {
+/** What an inspection measured against: its working voltage and bus kind, and the declared speed. */
+export function figuresOf(
+  inspection: Pick<typeof tables.inspections.$inferSelect, 'busVoltageV' | 'busKind' | 'declaredKmh'>,
+): Figures {
   return {
-    busVoltageV: inspection.busVoltageV ? Number(inspection.busVoltageV) : null,
+    busVoltageV: inspection.busVoltageV,
     busKind: inspection.busKind as BusKind | null,
+    declaredKmh: inspection.declaredKmh,
   }
 }

@@ -29,6 +29,8 @@ export async function insertSignature(
     drawingPng?: string | null
     reason?: string | null
     supersedesId?: number | null
+    /** Only for the demo's seed, which signs on its own calendar; otherwise the database's clock. */
+    signedAt?: Date
   },
 ) {
   const [row] = await tx
@@ -44,6 +46,7 @@ export async function insertSignature(
       drawingPng: input.drawingPng ?? null,
       reason: input.reason ?? null,
       supersedesId: input.supersedesId ?? null,
+      ...(input.signedAt ? { signedAt: input.signedAt } : {}),
     })
     .returning()
   return row!
