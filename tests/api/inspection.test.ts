@@ -53,6 +53,25 @@ describe('an inspection from start to clearance', { shuffle: false }, () => {
     const low = await answer(id, { itemKey: 'isolation', result: 'fail', value: 30, unit: 'kΩ' })
     // UN ECE Regulation 100, 5.1.3: 30 kΩ on a 400 V DC bus is 75 Ω/V, under the 100 Ω/V needed.
     expect(low.body.verdict).toEqual({ withinLimit: false, message: '75.0 Ω/V at 400 V DC is under the 100 Ω/V needed' })
+    // A count with a fraction is refused by its field; pounds are stored in kilograms exactly
+    // (1 lb = 0.45359237 kg, international yard and pound agreement of 1959; NIST SP 811).
+    const half = await answer(id, { itemKey: 'parachute', result: 'pass', value: '1.5', unit: 'count' })
+    expect(half.status).toBe(422)
+    expect(half.body.data.issues[0]).toMatchObject({ path: 'value', message: 'must be a whole number' })
+    const pounds = await answer(id, { itemKey: 'mass', result: 'pass', value: '400', unit: 'lb' })
+    expect(pounds.body.answer).toMatchObject({ value: '181.436948', enteredAs: '400 lb' })
+    // The declared speed in mph is stored in km/h exactly: 186.4 mph = 299.9817216 km/h (1 mile = 1.609344 km).
+    const mph = await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { declaredSpeed: '186.4', declaredUnit: 'mph' } })
+    expect(mph.body.declaredKmh).toBe('299.9817216')
+    const tyre = await answer(id, { itemKey: 'tyres-rated', result: 'pass', value: 270, unit: 'km/h' })
+    expect(tyre.body.verdict).toEqual({
+      withinLimit: false,
+      message: 'rated 270 km/h, declared top speed 299.9817216 km/h: rated under the declared speed',
+    })
+    const alone = await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { busVoltageV: 400 } })
+    expect(alone.status).toBe(422)
+    expect(alone.body.data.issues[0]).toMatchObject({ path: 'busKind' })
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: FIGURES })
 
     await answerAll(id, 'helmet')
     const wrongPassword = await call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: 'nope', typedName: 'Selma Scrute' } })

@@ -2,6 +2,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { call, useTestServer } from '../support/api'
 import { answerAll, clearedEntry, FIGURES } from '../support/entries'
+import { kilometreRun } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 
 await useTestServer()
@@ -68,5 +69,28 @@ describe('machines, not entries', { shuffle: false }, () => {
     expect(signed.status).toBe(201)
     const run = await startRun(first)
     expect(run.status).toBe(201)
+  })
+
+  it('readiness names the inspection in force at the start of each run, not merely the latest', async () => {
+    const entryId = await clearedEntry(event.eventId, 'Twice Inspected', {}, { team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: password })
+    const place = { ...event, timekeeper: event.cookie.timekeeper }
+    const start = Math.ceil(Date.now() / 1000) * 1000 + 1000
+    const out = await kilometreRun(place, entryId, 'out', start, { primary: [0, 9], backup: [0, 9] })
+    // Re-inspected between the runs (after a modification, say), once the out run has started: the back
+    // run runs under the new one.
+    await new Promise(resolve => setTimeout(resolve, Math.max(0, start + 500 - Date.now())))
+    const again = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+    expect(again.status).toBe(201)
+    await call('PATCH', `/api/inspections/${again.body.id}`, { cookie: event.cookie.scrutineer, body: FIGURES })
+    await answerAll(again.body.id, undefined, { scrutineer: event.cookie.scrutineer })
+    expect((await call('POST', `/api/inspections/${again.body.id}/signatures`, { cookie: event.cookie.scrutineer, body: { password, typedName: 'Test scrutineer' } })).status).toBe(201)
+    await kilometreRun(place, entryId, 'back', start + 600_000, { primary: [0, 9], backup: [0, 9] })
+    const first = again.body.previousId
+    const item = (await call('GET', `/api/attempts/${out.attemptId}/readiness`, { cookie: event.cookie.team })).body
+      .items.find((i: any) => i.key === 'inspection')
+    expect(item).toMatchObject({
+      met: true,
+      detail: `inspection #${first}, #${again.body.id} in force and clearing the machine at each counted run`,
+    })
   })
 })

@@ -1,6 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
 import { blocks, mayBeSetAside } from '#shared/rules/findings'
+import { massClass } from '#shared/rules/checks'
+import { fromDecimal, sub, toFixed } from '#shared/rules/exact'
 
 export interface ReadinessItem {
   key: string
@@ -139,18 +141,41 @@ function findingItems({ at, live, counted, attemptId }: AttemptFile): ReadinessI
   }))
 }
 
-/** Where the profile asks for it, the machine's signed check after the record run. */
-async function postRunItems({ attempt, attemptId }: AttemptFile): Promise<ReadinessItem[]> {
+/**
+ * Where the profile asks for it, the machine's signed check after the record run, its mass compared
+ * with the mass of the inspection in force: a machine that weighs into another mass class after the run
+ * than at its inspection does not meet it.
+ */
+async function postRunItems({ attempt, attemptId, clearance }: AttemptFile): Promise<ReadinessItem[]> {
   if (!attempt.profile.postRunCheck?.value) return []
   const [check] = await useDb().select().from(tables.postRunChecks)
     .where(eq(tables.postRunChecks.attemptId, attemptId))
-  return [{
+  const item = {
     key: 'post-run-check',
     label: 'The signed post-run check of the machine (mass re-measured)',
     fix: `/attempts/${attemptId}/dossier`, // a scrutineer records it on this page
-    met: !!check?.signatureId,
-    detail: check ? `${check.massKg} kg; ${check.note || 'no remark'}` : 'not recorded',
+  }
+  if (!check) return [{ ...item, met: false, detail: 'not recorded' }]
+  const inspected = clearance.inspectionId ? await inspectedMassKg(clearance.inspectionId) : null
+  const classes = attempt.profile.massClasses.value
+  const before = inspected === null ? null : massClass(classes, Number(inspected))
+  const after = check.massKg === null ? null : massClass(classes, Number(check.massKg))
+  const moved = !!before && !!after && before.label !== after.label
+  const compared = inspected === null || check.massKg === null
+    ? 'no inspected mass to compare'
+    : `inspected ${inspected} kg, difference ${toFixed(sub(fromDecimal(check.massKg), fromDecimal(inspected)), 1)} kg`
+      + (moved ? `: now in mass class ${after!.label}, inspected in ${before!.label}` : '')
+  return [{
+    ...item,
+    met: !!check.signatureId && !moved,
+    detail: `${check.massKg} kg after the run, ${compared}; ${check.note || 'no remark'}`,
   }]
+}
+
+async function inspectedMassKg(inspectionId: number) {
+  const [row] = await useDb().select({ value: tables.inspectionAnswers.value }).from(tables.inspectionAnswers)
+    .where(and(eq(tables.inspectionAnswers.inspectionId, inspectionId), eq(tables.inspectionAnswers.itemKey, 'mass')))
+  return row?.value ?? null
 }
 
 /** The course survey and each timing system's calibration, valid on the days of the runs. */
