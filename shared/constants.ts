@@ -41,6 +41,7 @@ export const SIGNED_KINDS = [
   'set-aside',
   'suspension',
   'post-run-check',
+  'checklist',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

@@ -410,6 +410,8 @@ export const checklists = pgTable('checklists', {
   baseId: text('base_id').notNull(),
   content: jsonb('content').$type<ChecklistTemplate>().notNull(),
   note: text('note').notNull().default(''),
+  /** A scrutineer's signature, needed where the copy leaves out safety items; immutable once signed. */
+  signatureId: integer('signature_id').references(() => signatures.id),
   createdBy: integer('created_by')
     .notNull()
     .references(() => users.id),

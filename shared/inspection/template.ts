@@ -43,6 +43,11 @@ export interface ChecklistTemplate {
   name: string
   power: 'electric' | 'combustion'
   sections: ChecklistSection[]
+  /**
+   * Safety items an organiser's copy leaves out, each with the rulebook article that allows it; such a
+   * copy is used only once a scrutineer has signed it.
+   */
+  removedSafetyItems?: { key: string, label: string, reference: string }[]
 }
 
 export const CHECKLIST_CAUTION

@@ -27,6 +27,14 @@ export const checklistAdaptSchema = z.object({
     .array(z.object({ section: z.string().trim().min(1).max(80), label: z.string().trim().min(3).max(300) }))
     .max(50)
     .default([]),
+  /** For each safety item left out: the rulebook article that allows it (the copy then needs signing). */
+  safetyRemovals: z
+    .array(z.object({
+      itemKey: z.string().max(80),
+      reference: z.string().trim().min(3, { error: 'name the rulebook article that allows leaving it out' }).max(300),
+    }))
+    .max(50)
+    .default([]),
   note: z.string().trim().min(3, { error: 'say which rulebook the adaptation follows' }).max(300),
 })
 export type ChecklistAdaptInput = z.infer<typeof checklistAdaptSchema>

@@ -62,6 +62,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/attempts/[id]/impound': { expect: rolesOnly(409, 'scrutineer'), body: {} },
   'POST /api/attempts/[id]/post-run-check': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'POST /api/machines/[id]/suspensions': { expect: rolesOnly(422, 'scrutineer'), body: {} },
+  'POST /api/checklists/[id]/signatures': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'GET /api/attempts/[id]/timing-sheet': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/events/[id]/checklists': { expect: { ...eventMembers(200), admin: 200 } },
   'POST /api/events/[id]/checklists': { expect: rolesOnly(422, 'organiser'), body: {} },
@@ -96,7 +97,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, machines: 0, unreadyAttempt: 0 }
+  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, machines: 0, checklists: 0, unreadyAttempt: 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -113,6 +114,13 @@ describe('authorization table', () => {
     const overview = await call('GET', `/api/events/${eventId}`, { cookie: cookies.organiser })
     ids.machines = overview.body.teams.find((t: { name: string }) => t.name === 'Larkspur Works').machines[0].id
     ids.readings = sheet.body.history[0].id
+    // An adapted checklist that leaves out a safety item, waiting for a scrutineer's signature.
+    const copy = await call('POST', `/api/events/${eventId}/checklists`, {
+      cookie: cookies.organiser,
+      body: { baseId: 'electric-motorcycle', removeItems: ['parachute'], safetyRemovals: [{ itemKey: 'parachute', reference: 'test rulebook, art. 1' }], note: 'test rulebook' },
+    })
+    expect(copy.status, JSON.stringify(copy.body)).toBe(201)
+    ids.checklists = copy.body.id
     // The demo's first entry is the demo team's; its inspection is signed.
     const inspections = await call('GET', `/api/events/${eventId}/inspections`, { cookie: cookies.organiser })
     ids.inspections = inspections.body.find((e: { team: string }) => e.team === 'Larkspur Works').inspectionId
@@ -153,7 +161,7 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
         const r = await call(method, path.replace('[id]', String(id)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])

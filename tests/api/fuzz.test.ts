@@ -34,6 +34,7 @@ beforeAll(async () => {
     inspection: await one('select id from inspections where event_id = $1 limit 1'),
     signature: await one('select id from signatures where event_id = $1 limit 1'),
     machine: await one('select machine_id as id from entries where event_id = $1 limit 1'),
+    checklist: await one('select id from checklists where event_id = $1 limit 1'),
   }
   await owner.end()
   Object.assign(cookies, event.cookie, { anonymous: '', admin: await login(demoEmail('admin')) })
@@ -55,7 +56,7 @@ const body = fc.oneof(
   fc.array(leaf, { maxLength: 4 }),
   leaf,
 )
-const OWNER: Record<string, string> = { runs: 'run', readings: 'reading', attempts: 'attempt', inspections: 'inspection', signatures: 'signature', statements: 'signature', evidence: 'reading', dossiers: 'attempt', machines: 'machine' }
+const OWNER: Record<string, string> = { runs: 'run', readings: 'reading', attempts: 'attempt', inspections: 'inspection', signatures: 'signature', statements: 'signature', evidence: 'reading', dossiers: 'attempt', machines: 'machine', checklists: 'checklist' }
 
 it('answers every route, as anyone, with anything, and never with a 500', { timeout: 240_000 }, async () => {
   const seen: string[] = []

@@ -147,12 +147,41 @@ describe('checklists', () => {
     expect(unknown.status).toBe(422)
   })
 
-  it('keeps every safety item in an adapted copy', async () => {
+  it('leaves out a safety item only with the rulebook article that allows it and a scrutineer\'s signature', async () => {
     // UN ECE Regulation 100, 5.1.3 (isolation) and common practice (the make-safe procedure): safety items.
-    const r = await call('POST', `/api/events/${eventId}/checklists`, { cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', removeItems: ['isolation', 'make-safe-procedure'], note: 'local rulebook, article 3' } })
-    expect(r.status).toBe(422)
-    expect(r.body.data.issues[0].path).toBe('removeItems')
-    expect(r.body.data.issues[0].message).toContain('a safety item')
+    const adapt = (body: Record<string, unknown>) => call('POST', `/api/events/${eventId}/checklists`, {
+      cookie: cookie.organiser, body: { baseId: 'electric-motorcycle', note: 'local rulebook, article 3', ...body },
+    })
+    const bare = await adapt({ removeItems: ['isolation', 'make-safe-procedure'] })
+    expect(bare.status).toBe(422)
+    expect(bare.body.data.issues[0].path).toBe('safetyRemovals')
+    expect(bare.body.data.issues[0].message).toContain('a safety item; name the rulebook article that allows it')
+    const stray = await adapt({ removeItems: [], safetyRemovals: [{ itemKey: 'helmet', reference: 'art. 9' }] })
+    expect(stray.status).toBe(422)
+    expect(stray.body.data.issues[0].message).toContain('not a safety item left out: helmet')
+    // A machine with no parachute, allowed below the speed by the (invented) local rulebook's article 7.2.
+    const copy = await adapt({ removeItems: ['parachute'], safetyRemovals: [{ itemKey: 'parachute', reference: 'local rulebook, article 7.2' }] })
+    expect(copy.status, JSON.stringify(copy.body)).toBe(201)
+    expect(copy.body.content.removedSafetyItems).toEqual([
+      { key: 'parachute', label: 'Parachutes fitted and packed: how many', reference: 'local rulebook, article 7.2' },
+    ])
+    // Not used until a scrutineer signs it; the organiser cannot sign it.
+    const fresh = await newEntry(eventId, 'Cinder Chuteless')
+    const inspect = () => call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId: fresh, checklistId: copy.body.id } })
+    const early = await inspect()
+    expect(early.status).toBe(409)
+    expect(early.body.statusMessage).toContain('a scrutineer must sign it')
+    const sign = (who: string) => call('POST', `/api/checklists/${copy.body.id}/signatures`, { cookie: who, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
+    expect((await sign(cookie.organiser)).status).toBe(403)
+    const signed = await sign(cookie.scrutineer)
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+    expect((await sign(cookie.scrutineer)).status).toBe(409)
+    expect((await inspect()).status).toBe(201)
+    const report = (await call('GET', `/api/signatures/${signed.body.id}`, { cookie: cookie.official })).body
+    expect(report).toMatchObject({ kind: 'checklist', storedContentMatches: true, recordStillMatches: true })
+    expect(report.content.removedSafetyItems[0].reference).toBe('local rulebook, article 7.2')
+    // The signed copy is immutable: the database refuses a change behind the app.
+    await expect(db.query('update checklists set note = $1 where id = $2', ['changed', copy.body.id])).rejects.toThrow()
   })
 })
 

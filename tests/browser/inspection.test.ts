@@ -124,6 +124,25 @@ it('a measured value under its limit fails, whatever is ticked, and the machine 
   expect(await page.locator('[data-test="clearance"]').innerText()).toContain('Not cleared: failed')
 })
 
+it('a safety item is left out only with its article, and the copy waits for a scrutineer to sign it', async () => {
+  const organiser = await signIn(ctx, 'organiser@trapline.test', await demoEventPath('/inspections'))
+  await organiser.selectOption('#ad-base', 'electric-streamliner')
+  await organiser.locator('label', { hasText: 'Parachutes fitted and packed' }).locator('input').check()
+  // Common practice: the parachute is a safety item; the (invented) local rulebook allows leaving it out.
+  await organiser.fill('#ad-ref-parachute', 'local rulebook, article 7.2 (under 175 mph)')
+  await organiser.fill('#ad-note', 'local rulebook 2026')
+  await organiser.click('button:has-text("Save the adapted checklist")')
+  const card = organiser.locator('[data-test^="checklist-"]', { hasText: 'article 7.2 (under 175 mph)' })
+  await expect.poll(() => card.innerText()).toContain('Waiting for the chief scrutineer\'s signature')
+
+  const scrutineer = await signIn(ctx, 'scrutineer@trapline.test', await demoEventPath('/inspections'))
+  const pending = scrutineer.locator('[data-test^="checklist-"]', { hasText: 'article 7.2 (under 175 mph)' })
+  await pending.locator('input[id^="cl-name-"]').fill('Selma Scrute')
+  await pending.locator('input[id^="cl-pass-"]').fill(demo.password)
+  await pending.getByRole('button', { name: 'Sign the adapted checklist' }).click()
+  await expect.poll(() => pending.innerText()).toContain('Signed by a scrutineer')
+})
+
 /** Saves the inspection's figures and waits for the server to take them. */
 async function saveFigures(page: Page) {
   const saved = page.waitForResponse(r => r.request().method() === 'PATCH' && r.url().includes('/api/inspections/'))

@@ -87,6 +87,7 @@ const OWNER = {
   evidence: sql`select event_id from evidence where id = `,
   dossier: sql`select event_id from dossiers where id = `,
   machine: sql`select t.event_id from machines m join teams t on t.id = m.team_id where m.id = `,
+  checklist: sql`select event_id from checklists where id = `,
 } as const
 
 /**

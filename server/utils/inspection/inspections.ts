@@ -66,10 +66,20 @@ export async function adaptChecklist(
   const known = new Set(allItems(base).map(i => i.key))
   const unknown = input.removeItems.filter(k => !known.has(k))
   if (unknown.length) throw fieldError('removeItems', `no such item: ${unknown.join(', ')}`)
-  // Safety items stay in every adapted copy: the rulebook and the chief scrutineer decide on their removal.
+  // A safety item is left out only with the rulebook article that allows it, and the copy is then used
+  // only once the chief scrutineer has signed it.
   const safety = allItems(base).filter(i => i.safety && input.removeItems.includes(i.key))
-  if (safety.length) {
-    throw fieldError('removeItems', `${safety.map(i => i.label).join('; ')}: a safety item, kept in every adapted copy`)
+  const reference = new Map(input.safetyRemovals.map(r => [r.itemKey, r.reference]))
+  const unexplained = safety.filter(i => !reference.has(i.key))
+  if (unexplained.length) {
+    throw fieldError(
+      'safetyRemovals',
+      `${unexplained.map(i => i.label).join('; ')}: a safety item; name the rulebook article that allows it`,
+    )
+  }
+  const stray = input.safetyRemovals.filter(r => !safety.some(i => i.key === r.itemKey))
+  if (stray.length) {
+    throw fieldError('safetyRemovals', `not a safety item left out: ${stray.map(r => r.itemKey).join(', ')}`)
   }
   const [{ n }] = (await useDb()
     .select({ n: sql<number>`count(*)::int` })
@@ -82,6 +92,9 @@ export async function adaptChecklist(
     ...s,
     items: s.items.filter(i => !input.removeItems.includes(i.key)),
   }))
+  if (safety.length) {
+    content.removedSafetyItems = safety.map(i => ({ key: i.key, label: i.label, reference: reference.get(i.key)! }))
+  }
   input.addItems.forEach((add, i) => {
     let section = content.sections.find(s => s.title === add.section)
     if (!section) {
@@ -103,6 +116,44 @@ export async function adaptChecklist(
   return row!
 }
 
+/** What a scrutineer signs in approving an adapted checklist that leaves out safety items. */
+export const checklistContent = (c: typeof tables.checklists.$inferSelect) => ({
+  checklist: c.id,
+  event: c.eventId,
+  base: c.baseId,
+  version: c.content.version,
+  removedSafetyItems: c.content.removedSafetyItems ?? [],
+  sections: c.content.sections.map(s => ({ title: s.title, items: s.items.map(i => i.key) })),
+  note: c.note,
+})
+
+/**
+ * A scrutineer's signature on an adapted copy that leaves out safety items, with the rulebook articles
+ * it names: the copy may be used from then on. Once only; a copy without such items needs none.
+ */
+export async function signChecklist(checklistId: number, input: SignRecordInput, user: { id: number }) {
+  await assertPassword(user.id, input.password)
+  return useDb().transaction(async (tx) => {
+    const [c] = await tx.select().from(tables.checklists).where(eq(tables.checklists.id, checklistId)).for('update')
+    if (!c) throw notFound('No such checklist')
+    if (!c.content.removedSafetyItems?.length) {
+      throw conflict('This checklist leaves out no safety item: it needs no signature')
+    }
+    if (c.signatureId) throw conflict('This checklist is already signed')
+    const sig = await insertSignature(tx, {
+      kind: 'checklist',
+      subjectId: c.id,
+      eventId: c.eventId,
+      signerId: user.id,
+      typedName: input.typedName,
+      content: checklistContent(c),
+      drawingPng: input.drawingPng,
+    })
+    await tx.update(tables.checklists).set({ signatureId: sig.id }).where(eq(tables.checklists.id, c.id))
+    return { id: sig.id, sha256: sig.contentSha256, signedAt: sig.signedAt }
+  })
+}
+
 export async function startInspection(
   eventId: number,
   input: StartInspectionInput,
@@ -121,6 +172,9 @@ export async function startInspection(
       .from(tables.checklists)
       .where(and(eq(tables.checklists.id, input.checklistId), eq(tables.checklists.eventId, eventId)))
     if (!c) throw fieldError('checklistId', 'is not a checklist of this event')
+    if (c.content.removedSafetyItems?.length && !c.signatureId) {
+      throw conflict('This checklist leaves out safety items: a scrutineer must sign it before it is used')
+    }
     checklist = c.content
   }
   else {

@@ -65,6 +65,11 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x!.c.attemptId)
     title = `Post-run check of attempt #${x!.c.attemptId}`
   }
+  else if (s.kind === 'checklist') {
+    const [c] = await useDb().select().from(tables.checklists).where(eq(tables.checklists.id, s.subjectId))
+    current = checklistContent(c!)
+    title = `Adapted checklist #${s.subjectId}, leaving out safety items`
+  }
   else if (s.kind === 'ratification') {
     const [x] = await useDb()
       .select({ d: tables.dossiers, decision: tables.decisions })
