@@ -32,6 +32,15 @@ export default defineNuxtConfig({
     demoToday: '',
     /** Folder of evidence files and upload staging (local driver). */
     dataDir: '.data',
+    /**
+     * The seal's key set: a folder (a mounted secret works) with seal-ed25519.pem, seal-certificate.pem and
+     * seal-certificate-key.pem, or the three PEM texts themselves. Unset: `<dataDir>/seal`, made on a first
+     * start only. Several app servers share one by pointing at the same.
+     */
+    sealDir: '',
+    sealEd25519Pem: '',
+    sealCertificatePem: '',
+    sealCertificateKeyPem: '',
     storage: {
       driver: 'local',
       s3: { endpoint: '', region: 'us-east-1', bucket: 'trapline-evidence', accessKeyId: '', secretAccessKey: '' },

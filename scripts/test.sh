@@ -13,7 +13,8 @@ flock "$SETUP_LOCK"
 ensure_node_modules
 ensure_postgres
 [ -x /usr/bin/chromium ] || apt_install chromium
-[ -x /usr/bin/pdftotext ] || apt_install poppler-utils # reads the sealed dossiers back in the tests
+[ -x /usr/bin/pdftotext ] || apt_install poppler-utils # reads the sealed dossiers back (pdfsig, pdftotext)
+[ -x /usr/bin/qpdf ] || apt_install qpdf # checks every issued PDF's structure
 flock -u "$SETUP_LOCK"
 
 # Each run has its own folder, PostgreSQL cluster and ports, so two runs in one checkout do not meet.

@@ -527,6 +527,20 @@ export const evidence = pgTable(
 )
 
 /**
+ * Every key that has sealed dossiers here: its Ed25519 public key and its certificate for the PDF
+ * signature. The current one has no `retiredAt`; retired ones stay so older dossiers still verify.
+ */
+export const sealKeys = pgTable('seal_keys', {
+  keyId: text('key_id').primaryKey(),
+  publicKeyPem: text('public_key_pem').notNull(),
+  /** The signing certificate and its issuers, PEM; none for a key from before PDF signatures. */
+  certificatePem: text('certificate_pem'),
+  certificateSha256: text('certificate_sha256'),
+  firstUsedAt: timestamp('first_used_at', { withTimezone: true }).notNull().defaultNow(),
+  retiredAt: timestamp('retired_at', { withTimezone: true }),
+})
+
+/**
  * A sealed dossier: the canonical manifest, its Ed25519 seal and the SHA-256 of the PDF issued.
  * Never changed (trigger); a new version supersedes it and both are kept.
  */

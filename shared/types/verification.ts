@@ -4,5 +4,9 @@ export interface Verification {
   keyFingerprint: string | null
   items: { name: string, ok: boolean }[]
   message: string
+  /** The standard PDF signature over the whole file: whether it holds, by a certificate of this installation. */
+  pdfSignature: { valid: boolean, problem: string | null, subject: string | null } | null
   dossier?: { id: number, attemptId: number, version: number } | null
+  /** What became of the dossier, when this server issued it. */
+  standing: { state: 'current' | 'superseded' | 'ratified' | 'refused', latestVersion: number, words: string } | null
 }

@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { readAttachments } from '../../server/utils/dossier/pdf-attachments'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, login, mailTo, url, useTestServer } from '../support/api'
 import { sha256 } from '../support/files'
+import { flipInFirstPage, pdfTool } from '../support/pdf-tools'
 import { pairSpeed, speedOver, timesOver } from '../support/hand'
 
 await useTestServer()
@@ -186,6 +187,40 @@ describe('the demo\'s ratified dossier', () => {
   })
 })
 
+describe('a standard PDF signature that stands without Trapline', () => {
+  // ISO 32000 signature dictionary, SubFilter ETSI.CAdES.detached (PAdES baseline), checked by poppler's
+  // pdfsig and qpdf from Debian: tools independent of the product.
+  it('poppler\'s pdfsig reports the issued file valid and qpdf finds no structural error', async () => {
+    const sig = await pdfTool('pdfsig', [], pdf, 'signed.pdf')
+    expect(sig.out).toContain('Signature Type: ETSI.CAdES.detached')
+    expect(sig.out).toContain('Signature Validation: Signature is Valid.')
+    expect(sig.out).toContain('Total document signed')
+    const seal = (await call('GET', '/api/seal')).body
+    expect(sig.out).toContain(`Trapline dossier seal ${seal.fingerprint.slice(0, 19)}`)
+    const check = await pdfTool('qpdf', ['--check'], pdf, 'signed-qpdf.pdf')
+    expect(check.code, check.out).toBe(0)
+    expect(check.out).toContain('No syntax or stream encoding errors found')
+  })
+
+  it('a byte changed in a page, in the manifest or in an attached file makes pdfsig report it invalid', async () => {
+    const doc = await PDFDocument.load(pdf, { updateMetadata: false })
+    const contents = doc.getPages()[0]!.node.get(PDFName.of('Contents'))!.toString().split(' ')[0]
+    const licence = (await readAttachments(pdf)).find(f => f.name.endsWith('rider-licence.pdf'))!.name
+    const copies = {
+      page: flipInFirstPage(pdf, Number(contents)),
+      manifest: await tamperAttachment(pdf, 'manifest.json'),
+      attachment: await tamperAttachment(pdf, licence),
+    }
+    for (const [what, bytes] of Object.entries(copies)) {
+      const sig = await pdfTool('pdfsig', [], bytes, `changed-${what}.pdf`)
+      expect(sig.out, what).not.toContain('Signature is Valid.')
+      expect(sig.out, what).toMatch(/Signature is Invalid|Digest Mismatch|document not signed|signature not found/i)
+      const r = await verify(bytes)
+      expect(r.body.items.find(i => i.name === 'PDF signature')!.ok, what).toBe(false)
+    }
+  })
+})
+
 describe('tampering is caught and the failing part named', () => {
   it('one changed byte in the PDF body', async () => {
     const bytes = new Uint8Array(pdf)
@@ -194,8 +229,9 @@ describe('tampering is caught and the failing part named', () => {
     bytes[at] = bytes[at] === 0x30 ? 0x31 : 0x30
     const r = await verify(bytes)
     expect(r.body.sealValid).toBe(false)
-    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['PDF file as issued'])
-    expect(r.body.message).toContain('PDF file as issued')
+    // The standard PDF signature covers every byte but its own: it fails with the file's hash.
+    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['PDF signature', 'PDF file as issued'])
+    expect(r.body.message).toContain('PDF signature, PDF file as issued do not match')
   })
 
   it('one changed byte in an attached file', async () => {
@@ -203,7 +239,7 @@ describe('tampering is caught and the failing part named', () => {
     const target = files.find(f => f.name.endsWith('rider-licence.pdf'))!
     const r = await verify(await tamperAttachment(pdf, target.name))
     expect(r.body.sealValid).toBe(false)
-    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['rider-licence.pdf', 'PDF file as issued'])
+    expect(r.body.items.filter(i => !i.ok).map(i => i.name)).toEqual(['rider-licence.pdf', 'PDF signature', 'PDF file as issued'])
     expect(r.body.keyFingerprint).not.toBeNull() // the manifest itself is intact
   })
 

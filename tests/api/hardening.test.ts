@@ -234,6 +234,7 @@ describe('a safe start', () => {
     const start = startApp(env.output, {
       NUXT_DATABASE_URL: env.databaseUrl,
       NUXT_DATA_DIR: resolve(env.runDir, 'production-start'),
+      NUXT_SEAL_DIR: resolve(env.dataDir, 'seal'), // the seal's key set is shared by every server
       NUXT_MAIL_PORT: String(env.smtpPort),
       NUXT_SEED_DEMO: 'false',
     })

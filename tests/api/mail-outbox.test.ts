@@ -16,6 +16,7 @@ beforeAll(async () => {
     extra.push(await startApp(env.output, {
       NUXT_DATABASE_URL: env.databaseUrl,
       NUXT_DATA_DIR: resolve(env.runDir, `outbox-server-${n}`),
+      NUXT_SEAL_DIR: resolve(env.dataDir, 'seal'), // the seal's key set is shared by every server
       NUXT_MAIL_PORT: String(env.smtpPort),
       NUXT_MAIL_RETRY_SECONDS: '1',
       NUXT_SEED_DEMO: 'true', // the database holds the demo: already seeded, so nothing is added

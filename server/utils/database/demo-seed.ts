@@ -12,7 +12,8 @@ export const demoSeeded = () => seeding
 
 export function startDemoSeed() {
   const today = String(useRuntimeConfig().demoToday || '') || undefined
-  seeding = seedDemo(useDb(), hashPassword, today)
+  seeding = sealKeysReady()
+    .then(() => seedDemo(useDb(), hashPassword, today))
     .then(async (created) => {
       if (created) {
         await seedDemoInspections()

@@ -44,11 +44,13 @@ async function sealAndRender(manifest: Manifest, attach: Attachment[]) {
   const key = useSealKey()
   const seal = sealDigest(manifestSha)
   const verifyUrl = `${useRuntimeConfig().siteUrl.replace(/\/$/, '')}/verify`
-  const pdf = await renderDossier(
+  const unsigned = await renderDossier(
     manifest,
     { sha256: manifestSha, signature: seal, fingerprint: key.fingerprint, verifyUrl },
     attach,
   )
+  // The standard PDF signature over the whole file, by the installation's certificate.
+  const pdf = await signPdf(unsigned, [key.certificatePem, ...key.chainPem], key.certificateKey)
   return { manifestSha, seal, pdf }
 }
 

@@ -44,6 +44,12 @@ export async function renderDossier(m: Manifest, seal: SealFacts, attach: Attach
   await renderSeal(L, doc, seal)
   L.finish()
   await attachFiles(doc, m, seal, attach, issued)
+  // The PDF signature's dictionary, filled in once the file is written (see `signPdf`).
+  addSignaturePlaceholder(doc, {
+    reason: `Sealed dossier version ${m.dossier.version} of attempt #${m.dossier.attempt}; key ${seal.fingerprint}`,
+    name: 'Trapline dossier seal',
+    location: m.event.venue ?? '',
+  })
   // The evidence files are deflated on libuv's threads first, and the file is written a few objects per
   // tick: sealing a dossier with megabytes inside leaves the server answering other requests meanwhile.
   useNativeDeflate(doc, await predeflate(attach.map(a => a.bytes)))

@@ -1,5 +1,5 @@
-import { createHash } from 'node:crypto'
-import { eq, or } from 'drizzle-orm'
+import { createHash, createPublicKey } from 'node:crypto'
+import { and, desc, eq, gt, or } from 'drizzle-orm'
 import { attachmentName } from './render'
 import type { Verification } from '#shared/types/verification'
 import { AttachmentTooLarge, readAttachments } from './pdf-attachments'
@@ -25,7 +25,8 @@ function parseManifest(text: string): { evidence?: { name: string, sha256: strin
  * manifest, and whether the whole file is byte for byte one this server issued.
  */
 export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
-  const fail = (message: string): Verification => ({ sealValid: false, keyFingerprint: null, items: [], message })
+  const fail = (message: string): Verification =>
+    ({ sealValid: false, keyFingerprint: null, items: [], message, pdfSignature: null, standing: null })
   if (bytes.length < 8 || Buffer.from(bytes.subarray(0, 5)).toString('latin1') !== '%PDF-')
     return fail('This is not a PDF file.')
   let files: { name: string, data: Uint8Array }[]
@@ -46,12 +47,13 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   if (manifestFile.data.length > MANIFEST_LIMIT) {
     return fail('The attached manifest is larger than any dossier\'s (5 MB): it is not a Trapline manifest.')
   }
-  const key = useSealKey()
+  const keyring = await sealKeyring()
   const items: { name: string, ok: boolean }[] = []
   const manifestText = new TextDecoder().decode(manifestFile.data)
-  // The seal is checked first; only a sealed manifest is read and walked.
-  const sealed = sealHolds(sha(manifestText), new TextDecoder().decode(sigFile.data.subarray(0, 1024)).trim())
-  const manifest = sealed ? parseManifest(manifestText) : null
+  // The seal is checked first, against every key that ever sealed here; only a sealed manifest is read.
+  const sealText = new TextDecoder().decode(sigFile.data.subarray(0, 1024)).trim()
+  const sealKey = keyring.find(k => sealHolds(sha(manifestText), sealText, createPublicKey(k.publicKeyPem)))
+  const manifest = sealKey ? parseManifest(manifestText) : null
   const sealOk = manifest !== null
   items.push({ name: 'manifest.json', ok: sealOk })
   for (const e of manifest?.evidence ?? []) {
@@ -64,6 +66,10 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
     ...(manifest?.evidence ?? []).map(e => attachmentName(e.sha256, e.name)),
   ])
   for (const f of files.filter(x => !known.has(x.name))) items.push({ name: f.name, ok: false })
+  // The standard PDF signature over the whole file, by a certificate of this installation.
+  const pdfSig = checkPdfSignature(bytes)
+  const signer = keyring.find(k => k.certificateSha256 && k.certificateSha256 === pdfSig.certificateSha256)
+  items.push({ name: 'PDF signature', ok: pdfSig.valid && !!signer })
   const pdfSha = sha(bytes)
   const [issued] = await useDb()
     .select()
@@ -72,14 +78,40 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
   items.push({ name: 'PDF file as issued', ok: !!issued })
   const failing = items.filter(i => !i.ok).map(i => i.name)
   const sealValid = failing.length === 0
+  const standing = issued ? await standingOf(issued) : null
   return {
     sealValid,
-    keyFingerprint: sealOk ? key.fingerprint : null,
+    keyFingerprint: sealOk ? sealKey!.keyId : null,
     items,
+    pdfSignature: {
+      valid: pdfSig.valid && !!signer,
+      problem: pdfSig.problem ?? (signer ? null : 'signed by a certificate that is not one of this installation\'s'),
+      subject: pdfSig.subject,
+    },
     dossier: issued ? { id: issued.id, attemptId: issued.attemptId, version: issued.version } : null,
+    standing,
     message: sealValid
-      ? `The seal is valid: signed by key ${key.fingerprint}, every attached file matches, and this is the file `
-      + `issued as dossier version ${issued!.version} of attempt #${issued!.attemptId}.`
+      ? `The seal is valid: signed by key ${sealKey!.keyId}${sealKey!.retiredAt ? ' (retired since)' : ''}, the PDF `
+      + `signature holds, every attached file matches, and this is the file issued as dossier version `
+      + `${issued!.version} of attempt #${issued!.attemptId}. ${standing!.words}`
       : `Not intact: ${failing.join(', ')} ${failing.length === 1 ? 'does' : 'do'} not match what was sealed.`,
   }
+}
+
+/** What became of an issued dossier: the current version or superseded, and any decision on it. */
+async function standingOf(d: typeof tables.dossiers.$inferSelect): Promise<NonNullable<Verification['standing']>> {
+  const [newer] = await useDb().select({ version: tables.dossiers.version }).from(tables.dossiers)
+    .where(and(eq(tables.dossiers.attemptId, d.attemptId), gt(tables.dossiers.version, d.version)))
+    .orderBy(desc(tables.dossiers.version)).limit(1)
+  const [decision] = await useDb().select().from(tables.decisions).where(eq(tables.decisions.dossierId, d.id))
+  const state = decision
+    ? (decision.decision === 'ratified' ? 'ratified' : 'refused')
+    : newer ? 'superseded' : 'current'
+  const words = {
+    ratified: 'It was ratified.',
+    refused: 'It was refused.',
+    superseded: `It is superseded: version ${newer?.version} is the latest of this attempt.`,
+    current: 'It is the latest version of this attempt, not yet decided.',
+  }[state]
+  return { state, latestVersion: newer?.version ?? d.version, words }
 }
