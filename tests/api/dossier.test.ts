@@ -27,7 +27,7 @@ const verify = async (bytes: Uint8Array, name = 'dossier.pdf') => {
   const body = new FormData()
   body.append('file', new Blob([bytes], { type: 'application/pdf' }), name)
   const r = await fetch(url('/api/dossiers/verify'), { method: 'POST', body })
-  return { status: r.status, body: await r.json() as { sealValid: boolean, keyFingerprint: string | null, items: { name: string, ok: boolean }[], message: string } }
+  return { status: r.status, body: await r.json() as { sealValid: boolean, keyFingerprint: string | null, items: { name: string, ok: boolean }[], message: string, standing: any } }
 }
 
 /** Replaces one attached file of a PDF by the same bytes with one byte changed, through pdf-lib. */
@@ -296,6 +296,12 @@ describe('submission and ratification', () => {
     const withPdf = inbox.find(m => m.text.includes(built.body.pdfSha256) && m.to.includes(demoEmail('official')))
     expect(withPdf.attachments[0]).toMatchObject({ contentType: 'application/pdf', size: built.body.pdfSize })
 
+    // What became of each: the new version is the latest, not yet decided; the first is superseded by it.
+    const newPdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${built.body.id}/pdf`), { headers: { cookie: cookie.team } })).arrayBuffer())
+    expect((await verify(newPdf)).body.standing).toMatchObject({ state: 'current', latestVersion: built.body.version })
+    const old = (await verify(pdf)).body.standing
+    expect(old.latestVersion).toBe(built.body.version)
+    expect(old.words).toContain(`It is superseded: version ${built.body.version} is the latest of this attempt.`)
     const wrong = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: 'wrong', typedName: 'Oswin Oakes' } })
     expect(wrong.status).toBe(422)
     const decided = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
@@ -306,6 +312,7 @@ describe('submission and ratification', () => {
     expect(report.content).toMatchObject({ dossier: built.body.id, decision: 'ratified', pdfSha256: built.body.pdfSha256 })
     expect((await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'refused', reasons: 'changed my mind', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
     await mailTo('team@trapline.test', 'ratified')
+    expect((await verify(newPdf)).body.standing).toMatchObject({ state: 'ratified', words: 'It was ratified.' })
     const book = (await call('GET', '/api/record-book')).body.records
     const mile = book.find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
     expect(mile.dossierUrl).toContain(`/api/dossiers/${built.body.id}/pdf`)

@@ -15,6 +15,9 @@ export const ATTACHMENTS_TOTAL_LIMIT = 128 * 1024 * 1024
 
 export class AttachmentTooLarge extends Error {}
 
+/** The name of an evidence file attached inside a dossier: unique by its hash, readable by its name. */
+export const attachmentName = (sha: string, name: string) => `${sha.slice(0, 12)}-${name}`
+
 /**
  * An attached file's bytes: stored as is, or deflated (the only filter a dossier uses), inflated
  * with a ceiling so that a small file cannot unpack into gigabytes.

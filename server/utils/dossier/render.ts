@@ -2,6 +2,7 @@ import { promisify } from 'node:util'
 import { deflate, deflateSync } from 'node:zlib'
 import { PDFDocument } from 'pdf-lib'
 import { embedDossierFonts } from './fonts'
+import { attachmentName } from './pdf-attachments'
 import { PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 import { renderComputation, renderCover, renderTimingSheet, type SealFacts } from './sections-result'
@@ -20,9 +21,6 @@ const deflateAsync = promisify(deflate)
 
 /** An evidence file that travels inside the dossier PDF. */
 export interface Attachment { name: string, bytes: Uint8Array, mediaType: string, sha256: string, kind?: string }
-
-/** The name of an evidence file attached inside a dossier: unique by its hash, readable by its name. */
-export const attachmentName = (sha: string, name: string) => `${sha.slice(0, 12)}-${name}`
 
 /** The PDF: every section of the file, the manifest and its seal attached, small evidence files inside. */
 export async function renderDossier(m: Manifest, seal: SealFacts, attach: Attachment[]) {

@@ -1,4 +1,4 @@
-import { createPublicKey, sign, verify, X509Certificate, type KeyObject } from 'node:crypto'
+import { createPublicKey, sign, X509Certificate } from 'node:crypto'
 import { existsSync, readFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 import { and, isNull, ne } from 'drizzle-orm'
@@ -7,7 +7,6 @@ import {
   fingerprintOf,
   hasKeySet,
   keysFromPem,
-  pemBlocks,
   readKeySet,
   type SealKeys,
 } from './seal-keys'
@@ -94,15 +93,3 @@ export async function sealKeyring() {
 export function sealDigest(sha256Hex: string) {
   return sign(null, Buffer.from(sha256Hex, 'hex'), useSealKey().privateKey).toString('base64')
 }
-
-export function sealHolds(sha256Hex: string, sealBase64: string, publicKey: KeyObject = useSealKey().publicKey) {
-  try {
-    return verify(null, Buffer.from(sha256Hex, 'hex'), publicKey, Buffer.from(sealBase64, 'base64'))
-  }
-  catch {
-    return false
-  }
-}
-
-/** The signing certificates of every key, as the PDF signature names them (SHA-256, hex). */
-export const certificateOf = (row: { certificatePem: string | null }) => pemBlocks(row.certificatePem ?? '')[0] ?? null
