@@ -373,6 +373,17 @@ export const weather = pgTable('weather', {
  * One signing mechanism for everything signed: who, when, the typed name, and the SHA-256 of the
  * record's canonical content (kept beside it). PostgreSQL refuses UPDATE and DELETE of these rows.
  */
+/** What a passkey signed with, as the browser sent it (base64url). */
+export interface PasskeyAssertion {
+  credentialId: string
+  authenticatorData: string
+  clientDataJSON: string
+  signature: string
+  userHandle: string | null
+  /** The digest signed: SHA-256 of the canonical content with the record's own new id left out, base64url. */
+  challenge: string
+}
+
 export const signatures = pgTable(
   'signatures',
   {
@@ -394,6 +405,13 @@ export const signatures = pgTable(
     drawingPng: text('drawing_png'),
     supersedesId: integer('supersedes_id'),
     signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
+    /** How the signer proved it was them: their password again (the weaker kind), or a passkey. */
+    method: text('method').$type<'password' | 'passkey'>().notNull().default('password'),
+    /**
+     * A passkey's assertion over the SHA-256 of the canonical content (the record's own new id left out):
+     * anyone can check later, with the stored public key, that this device signed exactly that content.
+     */
+    assertion: jsonb('assertion').$type<PasskeyAssertion>(),
   },
   t => [
     index('signatures_subject').on(t.kind, t.subjectId),
@@ -525,6 +543,27 @@ export const evidence = pgTable(
   },
   t => [index('evidence_event').on(t.eventId), index('evidence_sha256').on(t.sha256)],
 )
+
+/** A person's passkey (WebAuthn credential): its public key, to check their signatures with it, ever after. */
+export const passkeys = pgTable('passkeys', {
+  id: serial('id').primaryKey(),
+  userId: integer('user_id').notNull().references(() => users.id),
+  /** The credential id, base64url. */
+  credentialId: text('credential_id').notNull().unique(),
+  /** The COSE public key, base64url. */
+  publicKey: text('public_key').notNull(),
+  counter: integer('counter').notNull().default(0),
+  transports: jsonb('transports').$type<string[]>().notNull().default([]),
+  name: text('name').notNull(),
+  createdAt: createdAt(),
+})
+
+/** A registration's challenge, used once within minutes. */
+export const passkeyChallenges = pgTable('passkey_challenges', {
+  userId: integer('user_id').primaryKey().references(() => users.id),
+  challenge: text('challenge').notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+})
 
 /**
  * Every key that has sealed dossiers here: its Ed25519 public key and its certificate for the PDF

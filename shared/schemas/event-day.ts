@@ -190,8 +190,31 @@ export const weatherSchema = z.object({
   pressureHpa: decimalText(1, { min: 500, max: 1100 }).optional(),
 })
 export type WeatherInput = z.infer<typeof weatherSchema>
+/** Base64url text of a passkey's answer. */
+const base64url = z.string().regex(/^[A-Za-z0-9_-]*$/, { error: 'must be base64url' }).max(20_000)
+
+/** A passkey's answer to a signing challenge (a WebAuthn assertion as the browser library returns it). */
+export const passkeyResponseSchema = z.object({
+  id: base64url.min(1),
+  rawId: base64url.min(1),
+  type: z.literal('public-key'),
+  response: z.object({
+    authenticatorData: base64url.min(1),
+    clientDataJSON: base64url.min(1),
+    signature: base64url.min(1),
+    userHandle: base64url.optional(),
+  }),
+  clientExtensionResults: z.record(z.string(), z.unknown()).default({}),
+  authenticatorAttachment: z.enum(['platform', 'cross-platform']).optional(),
+})
+
+/**
+ * A signature: the typed name, and the proof that it is the signer: a passkey's answer over the content,
+ * or the password again (the weaker kind; asked for when no passkey is given).
+ */
 export const signSheetSchema = z.object({
-  password: z.string().min(1, { error: 'enter your password again' }).max(200),
+  password: z.string().max(200).optional(),
+  passkey: passkeyResponseSchema.optional(),
   typedName: z.string().trim().min(2, { error: 'type your full name' }).max(120),
   reason: z.string().trim().max(300).optional(),
 })

@@ -104,6 +104,8 @@ describe('the demo\'s ratified dossier', () => {
     const pair = pairSpeed('1609.344', t1!, t2!)
     expect(text).toContain(`Mean time = (t1 + t2) / 2 = ${mean.toFixed(5)} s`)
     expect(text).toContain(`= ${pair.kmh} km/h = ${pair.mph} mph`)
+    // Each signature says how it was made: the demo's people signed with their password again.
+    expect(text).toContain('password re-entered, the weaker kind')
     expect(text).toContain(`${pair.kmh} km/h`)
     // The record it was measured against, in the unit it was published in (the demo book's invented 239.227 mph).
     expect(text).toContain('239.227 mph; beaten')

@@ -44,6 +44,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     },
     timingSheet: live.sheet.history.map(h => ({
       kind: h.kind,
+      method: h.method,
       typedName: h.typedName,
       at: new Date(h.at).toISOString(),
       sha256: h.sha256,
@@ -187,6 +188,7 @@ async function manifestInspection(inspectionId: number) {
       }
     }),
     signature: signature && {
+      method: signature.method,
       typedName: signature.typedName,
       at: new Date(signature.at).toISOString(),
       sha256: signature.sha256,
@@ -200,6 +202,7 @@ async function manifestStatements(eventId: number, attemptId: number) {
     id: s.id,
     author: s.author,
     typedName: s.typedName,
+    method: s.method,
     signedAt: new Date(s.signedAt).toISOString(),
     sha256: s.sha256,
     runsSeen: s.runsSeen,

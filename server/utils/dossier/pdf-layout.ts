@@ -228,3 +228,7 @@ export class PdfLayout {
     })
   }
 }
+
+/** How a signature in the file was made, in words: a passkey, or the password again (the weaker kind). */
+export const signedWith = (method: string | undefined) =>
+  method === 'passkey' ? 'with a passkey' : 'password re-entered, the weaker kind'

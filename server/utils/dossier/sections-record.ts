@@ -4,7 +4,7 @@ import { formatBytes } from '#shared/evidence/kinds'
 import { CHECKLIST_CAUTION } from '#shared/inspection/template'
 import { BUS_WORDS } from '#shared/inspection/evaluate'
 import type { BusKind } from '#shared/constants'
-import type { PdfLayout } from './pdf-layout'
+import { signedWith, type PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 import { utcStamp, type SealFacts } from './sections-result'
 
@@ -79,7 +79,8 @@ function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
     ]),
   )
   if (i.signature) {
-    L.text(`Signed by ${i.signature.typedName}, ${utcStamp(i.signature.at)} UTC; SHA-256 ${i.signature.sha256}`)
+    L.text(`Signed by ${i.signature.typedName} (${signedWith(i.signature.method)}), ${utcStamp(i.signature.at)} UTC; `
+      + `SHA-256 ${i.signature.sha256}`)
   }
 }
 
@@ -123,7 +124,10 @@ function renderStatement(L: PdfLayout, s: Statement) {
     + `Irregularities: ${s.irregularities || 'none'}.`,
     { indent: 10, gap: 1 },
   )
-  L.text(`Signed ${utcStamp(s.signedAt)} UTC; SHA-256 ${s.sha256}`, { indent: 10, color: 'grey' })
+  L.text(`Signed ${utcStamp(s.signedAt)} UTC (${signedWith(s.method)}); SHA-256 ${s.sha256}`, {
+    indent: 10,
+    color: 'grey',
+  })
 }
 
 export function renderStatements(L: PdfLayout, m: Manifest) {

@@ -1,5 +1,5 @@
 import { describeRuleValue, ruleLabels } from '#shared/rules/profile'
-import type { PdfLayout } from './pdf-layout'
+import { signedWith, type PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 
 /** What the dossier says about the seal on its cover and on its last page. */
@@ -189,7 +189,7 @@ export function renderTimingSheet(L: PdfLayout, m: Manifest) {
       { title: 'SHA-256 of the sheet / reason', width: 205 },
     ],
     m.timingSheet.map(s => [
-      s.kind === 'timing-sheet' ? 'Signed' : 'Reopened',
+      `${s.kind === 'timing-sheet' ? 'Signed' : 'Reopened'} (${signedWith(s.method)})`,
       s.typedName,
       utcStamp(s.at),
       s.reason ? `${s.sha256} — ${s.reason}` : s.sha256,

@@ -143,13 +143,14 @@ export async function decideDossier(
     .from(tables.submissions)
     .where(eq(tables.submissions.dossierId, dossierId))
   if (!submitted) throw conflict('This dossier has not been submitted')
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   const decision = await useDb().transaction(async (tx) => {
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
       throw conflict(`This dossier was already ${existing.decision}`)
     const content = decisionContent(d, input)
     const sig = await insertSignature(tx, {
+      proof,
       kind: 'ratification',
       subjectId: d.id,
       eventId: d.eventId,
@@ -282,4 +283,11 @@ async function standFromRatification(tx: Tx, d: typeof tables.dossiers.$inferSel
     dossierId: d.id,
     note: `ratified dossier #${d.id}, version ${d.version}`,
   })
+}
+
+/** What a decision on a dossier will sign, before it is written (for a passkey's challenge). */
+export async function decisionDraftContent(dossierId: number, draft: { decision: string, reasons: string }) {
+  const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, dossierId))
+  if (!d) throw notFound('No such dossier')
+  return decisionContent(d, draft)
 }

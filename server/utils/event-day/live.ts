@@ -19,6 +19,7 @@ const sheetAct = (x: SignatureRow) => ({
   at: x.s.signedAt,
   sha256: x.s.contentSha256,
   reason: x.s.reason,
+  method: x.s.method,
 })
 
 /** The state of each attempt's timing sheet from its signature chain. */

@@ -73,6 +73,7 @@ function sheetSignatureRows(eventId: number) {
         signedAt: s.signedAt,
         contentSha256: s.contentSha256,
         reason: s.reason,
+        method: s.method,
       },
       signerName: t.users.name,
     })

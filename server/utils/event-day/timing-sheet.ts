@@ -1,3 +1,4 @@
+import type { AuthenticationResponseJSON } from '@simplewebauthn/types'
 import { sql } from 'drizzle-orm'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import type { EventDay } from './load'
@@ -89,12 +90,13 @@ export async function signTimingSheet(input: {
   eventId: number
   attemptId: number
   userId: number
-  password: string
+  password?: string
+  passkey?: AuthenticationResponseJSON
   typedName: string
   reopen?: string
   drawingPng?: string
 }) {
-  await assertPassword(input.userId, input.password)
+  const proof = await signerProof(input.userId, input)
   return useDb().transaction(async (tx) => {
     const { signed } = await lockAttempt(tx, input.attemptId)
     if (input.reopen ? !signed : signed) {
@@ -111,6 +113,7 @@ export async function signTimingSheet(input: {
       .filter(x => x.s.subjectId === input.attemptId && x.s.kind.startsWith('timing-sheet'))
       .at(-1)
     const row = await insertSignature(tx, {
+      proof,
       kind: input.reopen ? 'timing-sheet-reopened' : 'timing-sheet',
       subjectId: input.attemptId,
       eventId: input.eventId,

@@ -132,7 +132,7 @@ export const checklistContent = (c: typeof tables.checklists.$inferSelect) => ({
  * it names: the copy may be used from then on. Once only; a copy without such items needs none.
  */
 export async function signChecklist(checklistId: number, input: SignRecordInput, user: { id: number }) {
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [c] = await tx.select().from(tables.checklists).where(eq(tables.checklists.id, checklistId)).for('update')
     if (!c) throw notFound('No such checklist')
@@ -141,6 +141,7 @@ export async function signChecklist(checklistId: number, input: SignRecordInput,
     }
     if (c.signatureId) throw conflict('This checklist is already signed')
     const sig = await insertSignature(tx, {
+      proof,
       kind: 'checklist',
       subjectId: c.id,
       eventId: c.eventId,
@@ -326,7 +327,7 @@ export async function signInspection(
   user: { id: number },
   demo: { signedAt?: Date } = {},
 ) {
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     // The content is read under the same row lock as the signature: what is signed is what is stored.
     const inspection = await lockUnsigned(tx, inspectionId)
@@ -344,6 +345,7 @@ export async function signInspection(
     }
     const content = await inspectionContent(inspectionId, tx)
     const sig = await insertSignature(tx, {
+      proof,
       kind: 'inspection',
       subjectId: inspectionId,
       eventId: inspection.eventId,
@@ -464,6 +466,7 @@ export async function inspectionView(inspectionId: number) {
           .select({
             id: tables.signatures.id,
             typedName: tables.signatures.typedName,
+            method: tables.signatures.method,
             at: tables.signatures.signedAt,
             sha256: tables.signatures.contentSha256,
             by: tables.users.name,

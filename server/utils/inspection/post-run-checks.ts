@@ -22,7 +22,7 @@ export async function recordPostRunCheck(
   input: PostRunCheckInput,
   user: { id: number, name: string },
 ) {
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [attempt] = await tx.select().from(tables.attempts)
       .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
@@ -37,6 +37,7 @@ export async function recordPostRunCheck(
       .returning()
     if (!row) throw conflict('The post-run check of this attempt is already recorded')
     const sig = await insertSignature(tx, {
+      proof,
       kind: 'post-run-check',
       subjectId: row.id,
       eventId,

@@ -21,12 +21,13 @@ export async function suspendMachine(
   input: SuspensionInput,
   user: { id: number, name: string },
 ) {
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [row] = await tx.insert(tables.machineSuspensions)
       .values({ eventId, machineId, reason: input.reason, scrutineerId: user.id })
       .returning()
     const sig = await insertSignature(tx, {
+      proof,
       kind: 'suspension',
       subjectId: row!.id,
       eventId,

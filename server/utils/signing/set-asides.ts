@@ -44,7 +44,7 @@ export async function setAsideFinding(
   input: SetAsideInput,
   user: { id: number, name: string },
 ) {
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts)
       .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
@@ -68,6 +68,7 @@ export async function setAsideFinding(
       officialId: user.id,
     }).returning()
     const signature = await insertSignature(tx, {
+      proof,
       kind: 'set-aside',
       subjectId: row!.id,
       eventId,

@@ -99,6 +99,10 @@ export async function signatureReport(signatureId: number) {
     content: s.content,
     teamId,
     storedContentMatches: sha256(canonicalJson(s.content)) === s.contentSha256,
+    /** How the signer proved it was them; for a passkey, whether its assertion still holds over the content. */
+    method: s.method,
+    assertion: s.assertion,
+    passkeyHolds: s.assertion ? await assertionHolds(s.kind, s.content, s.assertion) : null,
     recordStillMatches: sha256(canonicalJson(current)) === s.contentSha256,
   }
 }

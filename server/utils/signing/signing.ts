@@ -1,3 +1,4 @@
+import type { AuthenticationResponseJSON } from '@simplewebauthn/types'
 import { createHash } from 'node:crypto'
 import { eq, inArray } from 'drizzle-orm'
 
@@ -17,9 +18,24 @@ export async function assertPassword(userId: number, password: string) {
  * The one signing mechanism: who, when, the typed name, an optional drawn signature, and the
  * SHA-256 of the record's canonical content, kept beside the content. The row is append-only.
  */
+/** How a signer proved it was them: the password again (checked before), or a passkey (checked with the content). */
+export type SignerProof = { method: 'password' } | { method: 'passkey', response: AuthenticationResponseJSON }
+
+/** The signer's proof: a passkey's response is checked later against the content; a password here and now. */
+export async function signerProof(
+  userId: number,
+  input: { password?: string, passkey?: AuthenticationResponseJSON },
+): Promise<SignerProof> {
+  if (input.passkey) return { method: 'passkey', response: input.passkey }
+  if (!input.password) throw fieldInvalid('password', 'enter your password again, or sign with your passkey')
+  await assertPassword(userId, input.password)
+  return { method: 'password' }
+}
+
 export async function insertSignature(
   tx: Tx,
   input: {
+    proof: SignerProof
     kind: Kind
     subjectId: number
     eventId: number
@@ -33,9 +49,15 @@ export async function insertSignature(
     signedAt?: Date
   },
 ) {
+  // A passkey signs the SHA-256 of exactly this content: checked here, under the caller's lock.
+  const assertion = input.proof.method === 'passkey'
+    ? await verifyPasskeySignature(tx, input.signerId, passkeyDigest(input.kind, input.content), input.proof.response)
+    : null
   const [row] = await tx
     .insert(tables.signatures)
     .values({
+      method: input.proof.method,
+      assertion,
       kind: input.kind,
       subjectId: input.subjectId,
       eventId: input.eventId,

@@ -27,7 +27,7 @@ export async function createStatement(
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
   if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   const body = {
     attemptId: input.attemptId,
     runsSeen: input.runsSeen,
@@ -35,7 +35,7 @@ export async function createStatement(
     conditions: input.conditions,
     irregularities: input.irregularities,
   }
-  return signStatement(eventId, body, user, input, tx => assertMayWitness(tx, eventId, attempt, user.id))
+  return signStatement(eventId, body, user, { ...input, proof }, tx => assertMayWitness(tx, eventId, attempt, user.id))
 }
 
 /**
@@ -74,7 +74,7 @@ async function signStatement(
     reason?: string
   },
   user: { id: number, name: string },
-  sign: { typedName: string, drawingPng?: string },
+  sign: { typedName: string, drawingPng?: string, proof: SignerProof },
   guard?: (tx: Tx) => Promise<void>,
 ) {
   return useDb().transaction(async (tx) => {
@@ -86,6 +86,7 @@ async function signStatement(
       .returning()
     if (!row) throw conflict('This statement has already been withdrawn')
     const sig = await insertSignature(tx, {
+      proof: sign.proof,
       kind: 'statement',
       subjectId: row.id,
       eventId,
@@ -117,7 +118,7 @@ export async function withdrawStatement(
     throw createError({ statusCode: 403, statusMessage: 'Only the official who signed a statement withdraws it' })
   if (original.withdrawsId)
     throw conflict('This is a withdrawal; it cannot itself be withdrawn')
-  await assertPassword(user.id, input.password)
+  const proof = await signerProof(user.id, input)
   return signStatement(
     original.eventId,
     {
@@ -130,7 +131,7 @@ export async function withdrawStatement(
       reason: input.reason,
     },
     user,
-    input,
+    { ...input, proof },
   )
 }
 
@@ -157,6 +158,7 @@ export async function statementsAt(eventId: number, onlyTeamIds: number[] | null
       author: tables.users.name,
       signedAt: tables.signatures.signedAt,
       typedName: tables.signatures.typedName,
+      method: tables.signatures.method,
       sha256: tables.signatures.contentSha256,
     })
     .from(tables.statements)
@@ -177,6 +179,7 @@ export async function statementsAt(eventId: number, onlyTeamIds: number[] | null
     author: r.author,
     signedAt: r.signedAt,
     typedName: r.typedName,
+    method: r.method,
     sha256: r.sha256,
     withdrawnBy: withdrawn.get(r.s.id)
       ? {

@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
     attemptId: recordId,
     userId: user.id,
     password: input.password,
+    passkey: input.passkey,
     typedName: input.typedName,
   })
   setResponseStatus(event, 201)

@@ -1,0 +1,98 @@
+import { beforeAll, describe, expect, inject, it } from 'vitest'
+import { call, useTestServer } from '../support/api'
+import { softwarePasskey } from '../support/authenticator'
+import { answerAll, clearedEntry, FIGURES, newEntry } from '../support/entries'
+import { newTestEvent, type TestEvent } from '../support/test-event'
+
+await useTestServer()
+let event: TestEvent
+// The site's own origin (NUXT_SITE_URL of the test server): the relying party a passkey is bound to.
+const origin = new URL(inject('baseUrl')).origin
+const keys = { scrutineer: softwarePasskey(origin), official: softwarePasskey(origin) }
+
+beforeAll(async () => {
+  event = await newTestEvent('intl-motorcycle', 'UTC')
+})
+
+/** Registers a software passkey for the signed-in person, as the account page does. */
+async function register(cookie: string, key: ReturnType<typeof softwarePasskey>, name: string) {
+  const options = await call('POST', '/api/me/passkeys/options', { cookie })
+  expect(options.status).toBe(200)
+  return call('POST', '/api/me/passkeys', { cookie, body: { name, response: key.register(options.body) } })
+}
+
+describe('passkeys sign exactly the content', { shuffle: false }, () => {
+  let inspectionId = 0
+
+  it('a scrutineer registers a passkey; a registration challenge is used once', async () => {
+    const options = await call('POST', '/api/me/passkeys/options', { cookie: event.cookie.scrutineer })
+    const response = keys.scrutineer.register(options.body)
+    const created = await call('POST', '/api/me/passkeys', { cookie: event.cookie.scrutineer, body: { name: 'scrutineering tablet', response } })
+    expect(created.status, JSON.stringify(created.body)).toBe(201)
+    const again = await call('POST', '/api/me/passkeys', { cookie: event.cookie.scrutineer, body: { name: 'again', response } })
+    expect(again.status).toBe(409)
+    const list = (await call('GET', '/api/me/passkeys', { cookie: event.cookie.scrutineer })).body
+    expect(list.map((p: any) => p.name)).toEqual(['scrutineering tablet'])
+  })
+
+  it('an inspection changed after the challenge is not signed; signed over what is stored, it holds', async () => {
+    const entryId = await newEntry(event.eventId, 'Passkey Runner', {}, { team: event.cookie.team })
+    const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+    inspectionId = started.body.id
+    await call('PATCH', `/api/inspections/${inspectionId}`, { cookie: event.cookie.scrutineer, body: FIGURES })
+    await answerAll(inspectionId, undefined, { scrutineer: event.cookie.scrutineer })
+    const options = async () => (await call('POST', `/api/inspections/${inspectionId}/signing-options`, { cookie: event.cookie.scrutineer })).body
+    const sign = (passkey: unknown) => call('POST', `/api/inspections/${inspectionId}/signatures`, {
+      cookie: event.cookie.scrutineer, body: { typedName: 'Test scrutineer', passkey },
+    })
+    // The challenge is the content's SHA-256; a note added meanwhile changes the content.
+    const stale = keys.scrutineer.assert(await options())
+    await call('POST', `/api/inspections/${inspectionId}/answers`, { cookie: event.cookie.scrutineer, body: { itemKey: 'helmet', result: 'pass', note: 'visor replaced' } })
+    const refused = await sign(stale)
+    expect(refused.status).toBe(422)
+    expect(refused.body.data.issues[0]).toMatchObject({ path: 'passkey' })
+    expect(refused.body.data.issues[0].message).toContain('signed other content than is stored now')
+    const signed = await sign(keys.scrutineer.assert(await options()))
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+    const report = (await call('GET', `/api/signatures/${signed.body.id}`, { cookie: event.cookie.official })).body
+    expect(report).toMatchObject({ kind: 'inspection', method: 'passkey', passkeyHolds: true, recordStillMatches: true })
+    expect(report.assertion.credentialId).toBe(keys.scrutineer.credentialId)
+  })
+
+  it('someone else\'s passkey, or none, signs nothing; the password stays the fallback', async () => {
+    const entryId = await newEntry(event.eventId, 'Password Runner', {}, { team: event.cookie.team })
+    const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+    await call('PATCH', `/api/inspections/${started.body.id}`, { cookie: event.cookie.scrutineer, body: FIGURES })
+    await answerAll(started.body.id, undefined, { scrutineer: event.cookie.scrutineer })
+    // The official has no passkey: asking for signing options says so.
+    const none = await call('POST', `/api/events/${event.eventId}/statements/signing-options`, {
+      cookie: event.cookie.official, body: { attemptId: 1, runsSeen: 'x', position: 'y', conditions: 'z' },
+    })
+    expect(none.status).toBe(409)
+    const bare = await call('POST', `/api/inspections/${started.body.id}/signatures`, { cookie: event.cookie.scrutineer, body: { typedName: 'Test scrutineer' } })
+    expect(bare.status).toBe(422)
+    expect(bare.body.data.issues[0]).toMatchObject({ path: 'password' })
+    const byPassword = await call('POST', `/api/inspections/${started.body.id}/signatures`, { cookie: event.cookie.scrutineer, body: { typedName: 'Test scrutineer', password: 'first-password-1' } })
+    expect(byPassword.status).toBe(201)
+    const report = (await call('GET', `/api/signatures/${byPassword.body.id}`, { cookie: event.cookie.official })).body
+    expect(report).toMatchObject({ method: 'password', passkeyHolds: null })
+  })
+
+  it('an official signs a witness statement with a passkey before it is written', async () => {
+    expect((await register(event.cookie.official, keys.official, 'official phone')).status).toBe(201)
+    // An attempt to witness: a cleared entry's run.
+    const entryId = await clearedEntry(event.eventId, 'Witnessed Runner', {}, { team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1' })
+    const run = await call('POST', `/api/events/${event.eventId}/runs`, { cookie: event.cookie.timekeeper, body: { entryId, direction: 'out' } })
+    expect(run.status).toBe(201)
+    const attemptId = run.body.attemptId
+    const draft = { attemptId, runsSeen: 'both runs', position: 'at the exit trap', conditions: 'calm, dry' }
+    const options = await call('POST', `/api/events/${event.eventId}/statements/signing-options`, { cookie: event.cookie.official, body: draft })
+    expect(options.status).toBe(200)
+    const created = await call('POST', `/api/events/${event.eventId}/statements`, {
+      cookie: event.cookie.official, body: { ...draft, typedName: 'Test official', passkey: keys.official.assert(options.body) },
+    })
+    expect(created.status, JSON.stringify(created.body)).toBe(201)
+    const report = (await call('GET', `/api/signatures/${created.body.signatureId}`, { cookie: event.cookie.official })).body
+    expect(report).toMatchObject({ kind: 'statement', method: 'passkey', passkeyHolds: true })
+  })
+})
