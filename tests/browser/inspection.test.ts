@@ -2,7 +2,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import demo from '../../server/database/demo-people.json'
 import { call, demoEventId, demoEventPath, invitedPerson, login, useTestServer } from '../support/api'
-import { newEntry } from '../support/entries'
+import { answerAll, FIGURES, newEntry } from '../support/entries'
 import { launchBrowser, signIn } from '../support/browser'
 
 await useTestServer()
@@ -141,6 +141,35 @@ it('a safety item is left out only with its article, and the copy waits for a sc
   await pending.locator('input[id^="cl-pass-"]').fill(demo.password)
   await pending.getByRole('button', { name: 'Sign the adapted checklist' }).click()
   await expect.poll(() => pending.innerText()).toContain('Signed by a scrutineer')
+})
+
+it('a scrutineer adds a passkey on the account page and signs an inspection with it', async () => {
+  // A scrutineer of this test's own: a passkey on a demo account would change what other tests expect.
+  const scrutineer = await invitedPerson('scrutineer', demo.password, 'Pella Keyward')
+  const page = await signIn(ctx, scrutineer.email, '/account')
+  // Chromium's virtual authenticator through the DevTools protocol (a platform passkey that verifies the user).
+  const cdp = await ctx.browser.newCDPSession(page)
+  await cdp.send('WebAuthn.enable')
+  await cdp.send('WebAuthn.addVirtualAuthenticator', {
+    options: { protocol: 'ctap2', transport: 'internal', hasResidentKey: true, hasUserVerification: true, isUserVerified: true },
+  })
+  await page.fill('#pk-name', 'test laptop')
+  await page.click('button:has-text("Add a passkey")')
+  await expect.poll(() => page.locator('[data-test="passkeys"]').innerText()).toContain('test laptop')
+
+  const eventId = await demoEventId(scrutineer.cookie)
+  const entryId = await newEntry(eventId, 'Cinder Keyed')
+  const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: scrutineer.cookie, body: { entryId, baseId: 'electric-motorcycle' } })
+  await call('PATCH', `/api/inspections/${started.body.id}`, { cookie: scrutineer.cookie, body: FIGURES })
+  await answerAll(started.body.id, undefined, { scrutineer: scrutineer.cookie })
+  await page.goto(`${ctx.baseUrl}/inspections/${started.body.id}`)
+  await page.waitForSelector('html[data-hydrated="true"]')
+  await page.fill('#si-name', 'Pella Keyward')
+  await page.click('button:has-text("Sign with a passkey")')
+  await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
+  const view = (await call('GET', `/api/inspections/${started.body.id}`, { cookie: scrutineer.cookie })).body
+  const report = (await call('GET', `/api/signatures/${view.signature.id}`, { cookie: scrutineer.cookie })).body
+  expect(report).toMatchObject({ method: 'passkey', passkeyHolds: true, recordStillMatches: true })
 })
 
 /** Saves the inspection's figures and waits for the server to take them. */
