@@ -178,6 +178,9 @@ describe('the demo\'s ratified dossier', () => {
     const r = await verify(open)
     expect(r.body.sealValid).toBe(true)
     expect(r.body.items.every(i => i.ok)).toBe(true)
+    // Signed and well-formed too, for poppler's pdfsig and qpdf.
+    expect((await pdfTool('pdfsig', [], open, 'public-copy.pdf')).out).toContain('Signature is Valid.')
+    expect((await pdfTool('qpdf', ['--check'], open, 'public-copy-qpdf.pdf')).code).toBe(0)
   })
 
   it('verifies as issued', async () => {
