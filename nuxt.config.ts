@@ -32,6 +32,8 @@ export default defineNuxtConfig({
     demoToday: '',
     /** Folder of evidence files and upload staging (local driver). */
     dataDir: '.data',
+    /** This app server's name among several sharing a data folder: its upload staging is its own. */
+    serverId: 'main',
     /**
      * The seal's key set: a folder (a mounted secret works) with seal-ed25519.pem, seal-certificate.pem and
      * seal-certificate-key.pem, or the three PEM texts themselves. Unset: `<dataDir>/seal`, made on a first

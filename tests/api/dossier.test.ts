@@ -176,7 +176,7 @@ describe('the demo\'s ratified dossier', () => {
     expect(JSON.stringify(manifest)).not.toContain(row.manifest.entry.rider.licenceNo)
     expect(manifest.result).toEqual(row.manifest.result)
     const r = await verify(open)
-    expect(r.body.sealValid, JSON.stringify(r.body.items)).toBe(true)
+    expect(r.body.sealValid, `${r.status} ${r.body.message} ${JSON.stringify(r.body.items)}`).toBe(true)
     expect(r.body.items.every(i => i.ok)).toBe(true)
     // Signed and well-formed too, for poppler's pdfsig and qpdf.
     expect((await pdfTool('pdfsig', [], open, 'public-copy.pdf')).out).toContain('Signature is Valid.')

@@ -16,8 +16,9 @@ const cookie = {} as Record<'admin' | 'organiser' | 'timekeeper' | 'team' | 'tea
 let eventId = 0
 let courseId = 0
 let runId = 0
-const tmpDir = () => join(inject('dataDir'), 'uploads-tmp')
-const tmpFiles = () => (existsSync(tmpDir()) ? readdirSync(tmpDir()) : [])
+// Each app server stages its uploads in a folder of its own (NUXT_SERVER_ID; the test server is "main").
+const tmpDir = (server = 'main') => join(inject('dataDir'), 'uploads-tmp', server)
+const tmpFiles = (server = 'main') => (existsSync(tmpDir(server)) ? readdirSync(tmpDir(server)) : [])
 const storedFiles = () => readdirSync(join(inject('dataDir'), 'evidence'), { recursive: true }).filter(f => /[0-9a-f]{64}$/.test(String(f)))
 const rows = async () => Number((await db.query('select count(*) from evidence')).rows[0].count)
 
@@ -134,6 +135,7 @@ describe('a server killed during an upload', () => {
     const start = () => startApp(env.output, {
       NUXT_DATABASE_URL: env.databaseUrl,
       NUXT_DATA_DIR: env.dataDir,
+      NUXT_SERVER_ID: 'restart-test', // the same server restarted: it sweeps its own staging, not the main server's
       NUXT_MAIL_PORT: String(env.smtpPort),
       NUXT_SEED_DEMO: 'true', // the database holds the demo already: nothing is added
     })
@@ -146,15 +148,15 @@ describe('a server killed during an upload', () => {
     req.on('error', () => {})
     req.write(head)
     req.write(Buffer.alloc(200_000, 1))
-    await expect.poll(() => tmpFiles().length, { timeout: 5000 }).toBeGreaterThan(0)
+    await expect.poll(() => tmpFiles('restart-test').length, { timeout: 5000 }).toBeGreaterThan(0)
     const killed = new Promise(r => server.child.once('exit', r))
     server.child.kill('SIGKILL')
     await killed
     req.destroy()
-    expect(tmpFiles().length).toBeGreaterThan(0) // the crash left it
+    expect(tmpFiles('restart-test').length).toBeGreaterThan(0) // the crash left it
     server = await start()
     try {
-      await expect.poll(() => tmpFiles(), { timeout: 5000 }).toEqual([])
+      await expect.poll(() => tmpFiles('restart-test'), { timeout: 5000 }).toEqual([])
       expect(await rows()).toBe(before)
     }
     finally {

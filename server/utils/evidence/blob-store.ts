@@ -61,8 +61,12 @@ export function dataDir() {
   return resolve(useRuntimeConfig().dataDir || '.data')
 }
 
-/** Temporary uploads, on the same file system as the local store so that a finished file is renamed into place. */
-export const uploadTmpDir = () => join(dataDir(), 'uploads-tmp')
+/**
+ * Temporary uploads, on the same file system as the local store so that a finished file is renamed into
+ * place; one folder per app server (NUXT_SERVER_ID), so that a server's start sweeps only its own.
+ */
+export const uploadTmpDir = () =>
+  join(dataDir(), 'uploads-tmp', String(useRuntimeConfig().serverId || 'main').replace(/[^\w.-]/g, '_'))
 
 export function useBlobStore(): BlobStore {
   if (!store) {
