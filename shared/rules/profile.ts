@@ -1,5 +1,6 @@
 import type { Rounding } from './exact'
 import type { Averaging, StartKind } from '../constants'
+import type { RecordClass } from './classes'
 
 /** How sure we are of a rule value, always printed beside it. */
 export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settled' | 'not known'
@@ -60,6 +61,8 @@ export interface RuleProfile {
   qualifying: Sourced<{ mustBeatRecord: boolean, requalifyAfterAbort: boolean } | null>
   /** After a record run, the machine goes to a post-run check (mass re-measured, signed) before the dossier. */
   postRunCheck: Sourced<boolean>
+  /** The record classes an entry picks from (absent in copies frozen before classes were data). */
+  classes?: Sourced<RecordClass[]>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -77,6 +80,7 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   witnessStatements: 'Witness statements',
   qualifying: 'Qualifying run',
   postRunCheck: 'Post-run check',
+  classes: 'Classes',
 }
 
 export function describeWindow(w: RunWindow): string {
@@ -130,6 +134,10 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
         q.mustBeatRecord ? 'the qualifying run must itself beat the standing record' : 'any qualifying run',
         q.requalifyAfterAbort ? 'an aborted record run means qualifying again' : '',
       ].filter(Boolean).join('; ')
+    }
+    case 'classes': {
+      const list = value as RecordClass[]
+      return `${list.length} classes: ${list.map(c => c.label).join('; ')}`
     }
     case 'massClasses':
       return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')

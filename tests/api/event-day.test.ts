@@ -224,6 +224,19 @@ describe('entries', () => {
     expect(other.status).toBe(422)
     expect(other.body.data.issues[0].path).toBe('machineId')
   })
+
+  it('an entry names one of the profile\'s classes, stored as the profile spells it', async () => {
+    // The international motorcycle profile lists its classes (electric by streamlining division: FIM extract).
+    const distanceId = setup.distances.find((d: any) => d.label === 'Flying mile').id
+    const body = (className: string) => ({ machine: { name: `Cinder Class ${className.length}`, power: 'electric', declaredMassKg: '150.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0984', licenceExpires: '2099-08-12' }, className, distanceId })
+    const typed = await call('POST', `/api/events/${eventId}/entries`, { cookie: cookie.team2, body: body('  electric,  UNSTREAMLINED ') })
+    expect(typed.status, JSON.stringify(typed.body)).toBe(201)
+    expect(typed.body.className).toBe('Electric, unstreamlined')
+    const unknown = await call('POST', `/api/events/${eventId}/entries`, { cookie: cookie.team2, body: body('Electric, open') })
+    expect(unknown.status).toBe(422)
+    expect(unknown.body.data.issues[0]).toMatchObject({ path: 'className' })
+    expect(unknown.body.data.issues[0].message).toContain('choose one of the event\'s')
+  })
 })
 
 describe('event details', () => {

@@ -33,7 +33,7 @@ describe('machines, not entries', { shuffle: false }, () => {
     // The same machine and rider entered again, in another class: no second inspection.
     const entry = await call('POST', `/api/events/${event.eventId}/entries`, {
       cookie: event.cookie.team,
-      body: { machineId, riderId: row.rider_id, className: 'Electric, open', distanceId: row.distance_id },
+      body: { machineId, riderId: row.rider_id, className: 'Electric, fully streamlined', distanceId: row.distance_id },
     })
     expect(entry.status, JSON.stringify(entry.body)).toBe(201)
     second = entry.body.id

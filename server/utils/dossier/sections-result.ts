@@ -160,11 +160,10 @@ function renderProfileInForce(L: PdfLayout, m: Manifest) {
       { title: 'Value', width: 150 },
       { title: 'Source', width: 235 },
     ],
-    keys.map(k => [
-      ruleLabels[k],
-      describeRuleValue(k, m.profile[k].value),
-      `${m.profile[k].source} (${m.profile[k].certainty})`,
-    ]),
+    keys.map((k) => {
+      const rule = m.profile[k]!
+      return [ruleLabels[k], describeRuleValue(k, rule.value), `${rule.source} (${rule.certainty})`]
+    }),
   )
 }
 

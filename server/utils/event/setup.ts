@@ -1,6 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
+import { classesOf, findClass } from '#shared/rules/classes'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { DistanceInput, EntryInput, ProfileAdaptInput, StartRunInput } from '#shared/schemas/event-day'
 
@@ -75,6 +76,24 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   return row!.profile
 }
 
+/**
+ * The class as the event's profile spells it, for a label as a person typed it (case and spacing aside):
+ * an entry and a standing record name one of the listed classes, so that they compare. A profile frozen
+ * before classes were data lists none, and takes the label as typed.
+ */
+export async function eventClassLabel(eventId: number, label: string, db: Tx | Db = useDb()) {
+  const [event] = await db.select({ profile: tables.events.profile }).from(tables.events)
+    .where(eq(tables.events.id, eventId))
+  const classes = classesOf(event!.profile)
+  if (!classes.length) return label
+  const found = findClass(classes, label)
+  if (!found) {
+    const some = classes.slice(0, 3).map(c => `"${c.label}"`).join(', ')
+    throw unprocessable('className', `choose one of the event's ${classes.length} classes (such as ${some})`)
+  }
+  return found.label
+}
+
 /** A team enters a machine and rider (new or already entered by the same team) for a class and distance. */
 export async function addEntry(eventId: number, teamId: number, input: EntryInput) {
   const db = useDb()
@@ -117,9 +136,10 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
           .returning()
       )[0]!.id
     }
+    const className = await eventClassLabel(eventId, input.className, tx)
     const [entry] = await tx
       .insert(tables.entries)
-      .values({ eventId, teamId, machineId, riderId, className: input.className, distanceId: input.distanceId })
+      .values({ eventId, teamId, machineId, riderId, className, distanceId: input.distanceId })
       .returning()
     return entry!
   })

@@ -1,3 +1,4 @@
+import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
 
 const CLUB_PAGES = 'club record procedure pages'
@@ -67,5 +68,16 @@ export const clubSameDirection: RuleProfile = {
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
       + 'capacity re-measured after a record)',
     certainty: 'common practice',
+  },
+  classes: {
+    value: [
+      ...motorcycleClasses().filter(c => c.propulsion === 'electric'),
+      { label: 'Electric, streamliner car', propulsion: 'electric', certainty: 'from memory' },
+      { label: 'Electric, open-wheel car', propulsion: 'electric', certainty: 'from memory' },
+      { label: 'Combustion, open', propulsion: 'combustion', certainty: 'from memory' },
+    ],
+    source: 'club practice: engine class by body class (from memory; the club\'s rulebook lists them in full); the '
+      + 'organiser adapts the list',
+    certainty: 'from memory',
   },
 }

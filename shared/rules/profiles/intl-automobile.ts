@@ -1,4 +1,8 @@
 import type { RuleProfile } from '../profile'
+import type { RecordClass } from '../classes'
+
+const electricCar = (words: string, massKg: { over: number, upTo: number | null }): RecordClass =>
+  ({ label: `Electric automobile, ${words}`, propulsion: 'electric', massKg, certainty: 'from memory' })
 
 const APPENDIX_D = 'FIA International Sporting Code, Appendix D'
 
@@ -61,5 +65,16 @@ export const intlAutomobile: RuleProfile = {
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
       + 'capacity re-measured after a record)',
     certainty: 'common practice',
+  },
+  classes: {
+    value: [
+      electricCar('up to 500 kg', { over: 0, upTo: 500 }),
+      electricCar('over 500 kg up to 1000 kg', { over: 500, upTo: 1000 }),
+      electricCar('over 1000 kg', { over: 1000, upTo: null }),
+      { label: 'Combustion automobile, open', propulsion: 'combustion', certainty: 'from memory' },
+    ],
+    source: 'from memory of the international sporting code\'s electric group, classes by mass: confirm against the '
+      + 'rulebook in force; the organiser adapts the list',
+    certainty: 'from memory',
   },
 }

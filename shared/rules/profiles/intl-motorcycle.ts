@@ -1,3 +1,4 @@
+import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
 
 const FIM_PAGE = 'FIM world records page'
@@ -63,5 +64,11 @@ export const intlMotorcycle: RuleProfile = {
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
       + 'capacity re-measured after a record)',
     certainty: 'common practice',
+  },
+  classes: {
+    value: motorcycleClasses(),
+    source: 'FIM extract: electric classes by streamlining division (seen); combustion capacity steps from memory, '
+      + 'to confirm against the rulebook in force',
+    certainty: 'from memory',
   },
 }

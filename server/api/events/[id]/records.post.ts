@@ -4,6 +4,7 @@ import { standingRecordSchema } from '#shared/schemas/event-day'
 export default defineEventHandler(async (event) => {
   const { eventId } = await requireEventRole(event, ['organiser'])
   const input = await validBody(event, standingRecordSchema)
+  input.className = await eventClassLabel(eventId, input.className)
   const [row] = await useDb()
     .insert(tables.standingRecords)
     .values({ ...input, eventId })

@@ -1,0 +1,111 @@
+import type { Certainty, RuleProfile, Sourced } from './profile'
+import { cmp, div, fromDecimal, fromInput, mul, q, toFixed, type Q } from './exact'
+
+/** The streamlining division of a motorcycle (FIM extract: none, partial, full). */
+export type Division = 'none' | 'partial' | 'full'
+
+/**
+ * A record class: what a machine in it may be. Ranges are exclusive below and inclusive above (over
+ * 750 cm³ up to 1000 cm³), as the published class tables read.
+ */
+export interface RecordClass {
+  label: string
+  propulsion: 'electric' | 'combustion'
+  /** Motorcycles: the streamlining division; absent where the class does not go by it. */
+  division?: Division
+  capacityCm3?: { over: number, upTo: number | null }
+  massKg?: { over: number, upTo: number | null }
+  certainty: Certainty
+}
+
+const DIVISION_WORDS: Record<Division, string> = {
+  none: 'unstreamlined',
+  partial: 'partially streamlined',
+  full: 'fully streamlined',
+}
+
+/**
+ * Combustion capacity steps for solo motorcycles, cm³ (from memory of the international rulebook's
+ * capacity classes: confirm against the rulebook in force).
+ */
+export const MOTORCYCLE_CAPACITY_STEPS = [50, 125, 250, 350, 500, 750, 1000, 1350, 3000]
+
+/** The international motorcycle classes: electric by division, combustion by capacity and division. */
+export function motorcycleClasses(): RecordClass[] {
+  const divisions: Division[] = ['none', 'partial', 'full']
+  const electric = divisions.map(d => ({
+    label: `Electric, ${DIVISION_WORDS[d]}`,
+    propulsion: 'electric' as const,
+    division: d,
+    certainty: 'seen' as const,
+  }))
+  const over = (i: number) => (i ? MOTORCYCLE_CAPACITY_STEPS[i - 1]! : 0)
+  const combustion = divisions.flatMap(d => MOTORCYCLE_CAPACITY_STEPS.map((upTo, i) => ({
+    label: `Combustion, ${i ? `over ${over(i)} cm³ ` : ''}up to ${upTo} cm³, ${DIVISION_WORDS[d]}`,
+    propulsion: 'combustion' as const,
+    division: d,
+    capacityCm3: { over: over(i), upTo },
+    certainty: 'from memory' as const,
+  })))
+  return [...electric, ...combustion]
+}
+
+/** The classes a profile lists (a frozen copy from before classes were data has none). */
+export const classesOf = (p: Pick<RuleProfile, 'classes'>): RecordClass[] => p.classes?.value ?? []
+
+/** The class of a label, compared as people write it: case and spacing aside. */
+export function findClass(classes: RecordClass[], label: string) {
+  const norm = (s: string) => s.trim().replace(/\s+/g, ' ').toLowerCase()
+  return classes.find(c => norm(c.label) === norm(label)) ?? null
+}
+
+export interface MachineFacts {
+  power: 'electric' | 'combustion'
+  division: Division | null
+  /** As measured at the inspection in force, exact decimals; null when not measured. */
+  massKg: string | null
+  capacityCm3: string | null
+}
+
+const within = (value: Q, range: { over: number, upTo: number | null }) =>
+  cmp(value, fromInput(range.over)) > 0 && (range.upTo === null || cmp(value, fromInput(range.upTo)) <= 0)
+const rangeWords = (r: { over: number, upTo: number | null }, unit: string) =>
+  r.upTo === null ? `over ${r.over} ${unit}` : `${r.over ? `over ${r.over} ${unit}, ` : ''}up to ${r.upTo} ${unit}`
+
+/**
+ * Whether a machine fits its class, with the figures side by side for each limit it does not meet; a
+ * limit whose figure was not measured is named too (it cannot be judged).
+ */
+export function classProblems(c: RecordClass, m: MachineFacts): string[] {
+  const out: string[] = []
+  if (c.propulsion !== m.power) out.push(`propulsion: the class is ${c.propulsion}, the machine ${m.power}`)
+  if (c.division && m.division && c.division !== m.division)
+    out.push(`division: the class is ${DIVISION_WORDS[c.division]}, the machine ${DIVISION_WORDS[m.division]}`)
+  const limits = [['capacity', 'cm³', c.capacityCm3, m.capacityCm3], ['mass', 'kg', c.massKg, m.massKg]] as const
+  for (const [what, unit, range, figure] of limits) {
+    if (!range) continue
+    if (figure === null) out.push(`${what}: not measured; the class is ${rangeWords(range, unit)}`)
+    else if (!within(fromDecimal(figure), range))
+      out.push(`${what}: measured ${figure} ${unit}, the class is ${rangeWords(range, unit)}`)
+  }
+  return out
+}
+
+/**
+ * π to 40 decimals (a rational close enough that a swept volume in cm³ is exact to far more than the
+ * two decimals printed).
+ */
+const PI = q(31415926535897932384626433832795028841971n, 10n ** 40n)
+
+/**
+ * Swept volume of an engine: π/4 × bore² × stroke × cylinders (the geometric volume of the cylinders
+ * swept by the pistons; ISO 2710-1 vocabulary "swept volume", formula common practice). Bore and
+ * stroke in mm; the answer in cm³, rounded to two decimals.
+ */
+export function sweptVolumeCm3(boreMm: string | number, strokeMm: string | number, cylinders: number): string {
+  const bore = fromInput(boreMm)
+  const cubicMm = mul(mul(div(PI, q(4n)), mul(bore, bore)), mul(fromInput(strokeMm), q(BigInt(cylinders))))
+  return toFixed(div(cubicMm, q(1000n)), 2, 'round')
+}
+
+export type ClassesRule = Sourced<RecordClass[]>
