@@ -92,5 +92,9 @@ describe('machines, not entries', { shuffle: false }, () => {
       met: true,
       detail: `inspection #${first}, #${again.body.id} in force and clearing the machine at each counted run`,
     })
+    // The machine against its class: electric, partially streamlined (FIM extract: streamlining divisions).
+    const klass = (await call('GET', `/api/attempts/${out.attemptId}/readiness`, { cookie: event.cookie.team })).body
+      .items.find((i: any) => i.key === 'class')
+    expect(klass).toMatchObject({ met: true, label: 'The machine fits its class (Electric, partially streamlined)' })
   })
 })

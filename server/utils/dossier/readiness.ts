@@ -2,6 +2,7 @@ import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
 import { blocks, mayBeSetAside } from '#shared/rules/findings'
 import { massClass } from '#shared/rules/checks'
+import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
 import { fromDecimal, sub, toFixed } from '#shared/rules/exact'
 
 export interface ReadinessItem {
@@ -172,10 +173,37 @@ async function postRunItems({ attempt, attemptId, clearance }: AttemptFile): Pro
   }]
 }
 
-async function inspectedMassKg(inspectionId: number) {
+const inspectedMassKg = (inspectionId: number) => inspectedValue(inspectionId, 'mass')
+
+async function inspectedValue(inspectionId: number, itemKey: string) {
   const [row] = await useDb().select({ value: tables.inspectionAnswers.value }).from(tables.inspectionAnswers)
-    .where(and(eq(tables.inspectionAnswers.inspectionId, inspectionId), eq(tables.inspectionAnswers.itemKey, 'mass')))
+    .where(and(eq(tables.inspectionAnswers.inspectionId, inspectionId), eq(tables.inspectionAnswers.itemKey, itemKey)))
   return row?.value ?? null
+}
+
+/**
+ * The machine against the class its entry claims: propulsion and division as entered, mass and capacity
+ * as measured at the inspection in force, side by side with the class's limits. A profile that lists no
+ * classes (a copy frozen before classes were data) asks nothing here.
+ */
+async function classItems({ attempt, entry, clearance, at }: AttemptFile): Promise<ReadinessItem[]> {
+  const classes = classesOf(attempt.profile)
+  if (!classes.length) return []
+  const item = { key: 'class', label: `The machine fits its class (${entry.entry.className})`, fix: `${at}/entries` }
+  const c = findClass(classes, entry.entry.className)
+  if (!c) return [{ ...item, met: false, detail: 'the class is not one of the profile\'s classes' }]
+  const measured = async (key: string) => (clearance.inspectionId ? inspectedValue(clearance.inspectionId, key) : null)
+  const problems = classProblems(c, {
+    power: entry.machine.power as 'electric' | 'combustion',
+    division: (entry.machine.division as Division | null) ?? null,
+    massKg: await measured('mass'),
+    capacityCm3: await measured('engine-capacity'),
+  })
+  return [{
+    ...item,
+    met: !problems.length,
+    detail: problems.length ? problems.join('; ') : 'propulsion, division, mass and capacity within the class',
+  }]
 }
 
 /** The course survey and each timing system's calibration, valid on the days of the runs. */
@@ -248,6 +276,7 @@ export async function readinessOf(eventId: number, attemptId: number) {
     ...equipmentItems(file),
     ...runAndRiderItems(file),
     ...(await postRunItems(file)),
+    ...(await classItems(file)),
   ]
   const { live, day, entry, distance, evidence, statements, clearance, atRuns } = file
   const ready = items.every(i => i.met)
