@@ -172,6 +172,29 @@ it('a scrutineer adds a passkey on the account page and signs an inspection with
   expect(report).toMatchObject({ method: 'passkey', passkeyHolds: true, recordStillMatches: true })
 })
 
+it('the capacity calculator fills the engine capacity from bore, stroke and cylinders', async () => {
+  const team2 = await login('team2@trapline.test')
+  const eventId = await demoEventId(team2)
+  const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
+  const entry = await call('POST', `/api/events/${eventId}/entries`, {
+    cookie: team2,
+    body: { machine: { name: 'Cinder Piston', power: 'combustion', declaredMassKg: '160.0', division: 'none' }, rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0991', licenceExpires: '2099-08-12' }, className: 'Combustion, over 750 cm³ up to 1000 cm³, unstreamlined', distanceId: setup.distances[0].id },
+  })
+  expect(entry.status, JSON.stringify(entry.body)).toBe(201)
+  const scrutineer = await login('scrutineer@trapline.test')
+  const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: scrutineer, body: { entryId: entry.body.id, baseId: 'combustion-motorcycle' } })
+  const page = await signIn(ctx, 'scrutineer@trapline.test', `/inspections/${started.body.id}`)
+  const row = page.locator('[data-test="item-engine-capacity"]')
+  // π/4 · 100² · 100 mm³ = 785.398… cm³ (the swept-volume formula), rounded to two decimals.
+  await row.locator('input[id="bore-engine-capacity"]').fill('100')
+  await row.locator('input[id="stroke-engine-capacity"]').fill('100')
+  await row.locator('input[id="cyl-engine-capacity"]').fill('1')
+  await row.getByRole('button', { name: 'Compute the capacity' }).click()
+  expect(await row.locator('input#v-engine-capacity').inputValue()).toBe('785.40')
+  await row.getByRole('button', { name: 'Pass' }).click()
+  await expect.poll(() => row.locator('[data-test="verdict"]').innerText()).toContain('785.4 cm³ recorded')
+})
+
 /** Saves the inspection's figures and waits for the server to take them. */
 async function saveFigures(page: Page) {
   const saved = page.waitForResponse(r => r.request().method() === 'PATCH' && r.url().includes('/api/inspections/'))
