@@ -104,6 +104,12 @@ export const standingRecordSchema = z.object({
 })
 export type StandingRecordInput = z.infer<typeof standingRecordSchema>
 
+/** A class limit: over `over` (exclusive), up to `upTo` (inclusive; null for no upper limit). */
+const classRange = z.object({
+  over: z.number().min(0).max(100_000),
+  upTo: z.number().positive().max(100_000).nullable(),
+})
+
 export const profileAdaptSchema = z.object({
   baseId: z.enum(PROFILE_IDS),
   windowMinutes: z.coerce
@@ -118,6 +124,19 @@ export const profileAdaptSchema = z.object({
   averaging: z.enum(AVERAGINGS).optional(),
   /** true or false, from JSON or from a form's "true"/"false". */
   postRunCheck: z.preprocess(v => (v === 'true' ? true : v === 'false' ? false : v), z.boolean().optional()),
+  /** Classes of the base profile the event leaves out, by label. */
+  removeClasses: z.array(z.string().trim().max(120)).max(200).default([]),
+  /** Classes the event adds (from the rulebook the source names). */
+  addClasses: z
+    .array(z.object({
+      label: z.string().trim().min(3, { error: 'name the class' }).max(120),
+      propulsion: z.enum(['electric', 'combustion'], { error: 'must be electric or combustion' }),
+      division: z.enum(['none', 'partial', 'full']).optional(),
+      capacityCm3: classRange.optional(),
+      massKg: classRange.optional(),
+    }))
+    .max(100)
+    .default([]),
   source: z
     .string()
     .trim()

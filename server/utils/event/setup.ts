@@ -1,7 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
-import { classesOf, findClass } from '#shared/rules/classes'
+import { classesOf, findClass, type RecordClass } from '#shared/rules/classes'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { DistanceInput, EntryInput, ProfileAdaptInput, StartRunInput } from '#shared/schemas/event-day'
 
@@ -65,6 +65,7 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   if (input.witnessStatements !== undefined) p.witnessStatements = { value: input.witnessStatements, ...adapted }
   if (input.averaging !== undefined) p.averaging = { value: input.averaging, ...adapted }
   if (input.postRunCheck !== undefined) p.postRunCheck = { value: input.postRunCheck, ...adapted }
+  if (input.removeClasses.length || input.addClasses.length) p.classes = { value: adaptClasses(p, input), ...adapted }
   p.id = `${base.id}-adapted`
   p.name = `${base.name} (adapted)`
   p.version = Math.max(event!.profile.version, base.version) + 1
@@ -74,6 +75,20 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
     .where(eq(tables.events.id, eventId))
     .returning()
   return row!.profile
+}
+
+/** The base profile's classes less those left out, plus those added; each named once. */
+function adaptClasses(p: RuleProfile, input: ProfileAdaptInput): RecordClass[] {
+  const base = classesOf(p)
+  const missing = input.removeClasses.filter(l => !findClass(base, l))
+  if (missing.length) throw unprocessable('removeClasses', `not a class of the profile: ${missing.join('; ')}`)
+  const kept = base.filter(c => !input.removeClasses.some(l => findClass([c], l)))
+  const added: RecordClass[] = []
+  for (const c of input.addClasses) {
+    if (findClass([...kept, ...added], c.label)) throw unprocessable('addClasses', `"${c.label}" is already a class`)
+    added.push({ ...c, certainty: 'seen' })
+  }
+  return [...kept, ...added]
 }
 
 /**
