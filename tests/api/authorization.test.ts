@@ -38,6 +38,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/inspections/[id]/signing-options': { expect: rolesOnly(409, 'scrutineer') },
   'POST /api/attempts/[id]/signing-options': { expect: rolesOnly(409, 'timekeeper') },
   'POST /api/events/[id]/statements/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
+  'GET /api/dossiers/[id]/certificate': { expect: all(200) }, // public: the record book links it
   'POST /api/dossiers/[id]/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/home': { expect: signedIn(200) },
   'GET /api/events': { expect: signedIn(200) },

@@ -192,6 +192,30 @@ describe('the demo\'s ratified dossier', () => {
   })
 })
 
+describe('the record holder\'s certificate', () => {
+  it('is one page, signed like the dossier, with the figure in both units as the record book has it', async () => {
+    const record = (await call('GET', '/api/record-book')).body.records
+      .find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
+    const res = await fetch(record.certificateUrl) // public, no sign-in
+    expect(res.status).toBe(200)
+    const cert = new Uint8Array(await res.arrayBuffer())
+    expect((await PDFDocument.load(cert)).getPageCount()).toBe(1)
+    expect((await pdfTool('pdfsig', [], cert, 'certificate.pdf')).out).toContain('Signature is Valid.')
+    const text = await new Promise<string>((done, fail) => {
+      const p = spawn('pdftotext', ['-enc', 'UTF-8', resolve(inject('dataDir'), 'certificate.pdf'), '-'])
+      let out = ''
+      p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
+      p.on('error', fail)
+      p.on('close', () => done(out.replace(/\s+/g, ' ')))
+    })
+    expect(text).toContain('Record certificate')
+    expect(text).toContain(`${record.speedKmh} km/h = ${record.speedMph} mph`)
+    for (const field of [record.class, record.distance, record.machine, record.rider, record.team, record.date])
+      expect(text).toContain(field)
+    expect(text).toContain('Ratified by')
+  })
+})
+
 describe('a standard PDF signature that stands without Trapline', () => {
   // ISO 32000 signature dictionary, SubFilter ETSI.CAdES.detached (PAdES baseline), checked by poppler's
   // pdfsig and qpdf from Debian: tools independent of the product.

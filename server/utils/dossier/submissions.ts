@@ -215,6 +215,7 @@ export async function recordBook() {
       extra: {
         speedMph: m.result.mph!,
         dossierUrl: `${site}/api/dossiers/${d.id}/pdf`,
+        certificateUrl: `${site}/api/dossiers/${d.id}/certificate`,
         verifyUrl: `${site}/verify`,
         machine: m.entry.machineName,
         rider: m.entry.riderName,
