@@ -110,6 +110,27 @@ const classRange = z.object({
   upTo: z.number().positive().max(100_000).nullable(),
 })
 
+/** The event's class list changed on its own: classes left out and added, with the rulebook they follow. */
+export const classesAdaptSchema = z.object({
+  removeClasses: z.array(z.string().trim().max(120)).max(200).default([]),
+  addClasses: z
+    .array(z.object({
+      label: z.string().trim().min(3, { error: 'name the class' }).max(120),
+      propulsion: z.enum(['electric', 'combustion'], { error: 'must be electric or combustion' }),
+      division: z.enum(['none', 'partial', 'full']).optional(),
+      capacityCm3: classRange.optional(),
+      massKg: classRange.optional(),
+    }))
+    .max(100)
+    .default([]),
+  source: z
+    .string()
+    .trim()
+    .min(3, { error: 'say where the class list comes from (rulebook and article)' })
+    .max(300),
+})
+export type ClassesAdaptInput = z.infer<typeof classesAdaptSchema>
+
 export const profileAdaptSchema = z.object({
   baseId: z.enum(PROFILE_IDS),
   windowMinutes: z.coerce
@@ -124,19 +145,9 @@ export const profileAdaptSchema = z.object({
   averaging: z.enum(AVERAGINGS).optional(),
   /** true or false, from JSON or from a form's "true"/"false". */
   postRunCheck: z.preprocess(v => (v === 'true' ? true : v === 'false' ? false : v), z.boolean().optional()),
-  /** Classes of the base profile the event leaves out, by label. */
-  removeClasses: z.array(z.string().trim().max(120)).max(200).default([]),
-  /** Classes the event adds (from the rulebook the source names). */
-  addClasses: z
-    .array(z.object({
-      label: z.string().trim().min(3, { error: 'name the class' }).max(120),
-      propulsion: z.enum(['electric', 'combustion'], { error: 'must be electric or combustion' }),
-      division: z.enum(['none', 'partial', 'full']).optional(),
-      capacityCm3: classRange.optional(),
-      massKg: classRange.optional(),
-    }))
-    .max(100)
-    .default([]),
+  /** Classes of the base profile the event leaves out (by label), and classes it adds. */
+  removeClasses: classesAdaptSchema.shape.removeClasses,
+  addClasses: classesAdaptSchema.shape.addClasses,
   source: z
     .string()
     .trim()

@@ -55,6 +55,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/timing-systems': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/records': { expect: rolesOnly(422, 'organiser'), body: {} },
   'PUT /api/events/[id]/profile': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'PUT /api/events/[id]/classes': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/entries': { expect: rolesOnly(422, 'team'), body: {} },
   'GET /api/events/[id]/setup': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/live': { expect: { ...eventMembers(200), admin: 200 } },

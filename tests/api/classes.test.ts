@@ -35,3 +35,17 @@ it('the organiser adapts the class list with a stated source; entries then pick 
   expect((await entry('Electric, sidecar')).status).toBe(201)
   expect((await entry('Electric, unstreamlined')).body.data.issues[0]).toMatchObject({ path: 'className' })
 })
+
+it('the class list changes on its own, keeping the profile\'s other adapted values', async () => {
+  const window = await adapt({ windowMinutes: 45 })
+  expect(window.status).toBe(200)
+  const put = (body: Record<string, unknown>) => call('PUT', `/api/events/${event.eventId}/classes`, { cookie: event.cookie.organiser, body })
+  expect((await put({ removeClasses: ['Electric, partially streamlined'] })).body.data.issues[0]).toMatchObject({ path: 'source' })
+  const saved = await put({ removeClasses: ['Electric, partially streamlined'], addClasses: [{ label: 'Electric, tricycle', propulsion: 'electric' }], source: 'local rulebook 2026, article 5' })
+  expect(saved.status, JSON.stringify(saved.body)).toBe(200)
+  expect(saved.body.value.map((c: any) => c.label)).toEqual(expect.arrayContaining(['Electric, tricycle', 'Electric, fully streamlined']))
+  expect(saved.body.value.map((c: any) => c.label)).not.toContain('Electric, partially streamlined')
+  const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.organiser })).body
+  expect(setup.event.profile.window.value.minutes).toBe(45) // the adapted window stays
+  expect(setup.event.profile.version).toBe(window.body.version + 1)
+})

@@ -3,7 +3,13 @@ import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import { classesOf, findClass, type RecordClass } from '#shared/rules/classes'
 import type { RuleProfile } from '#shared/rules/profile'
-import type { DistanceInput, EntryInput, ProfileAdaptInput, StartRunInput } from '#shared/schemas/event-day'
+import type {
+  ClassesAdaptInput,
+  DistanceInput,
+  EntryInput,
+  ProfileAdaptInput,
+  StartRunInput,
+} from '#shared/schemas/event-day'
 
 const unprocessable = fieldInvalid
 
@@ -77,8 +83,28 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   return row!.profile
 }
 
-/** The base profile's classes less those left out, plus those added; each named once. */
-function adaptClasses(p: RuleProfile, input: ProfileAdaptInput): RecordClass[] {
+/**
+ * Changes the class list of the event's profile as it stands (its other values kept): a new version of
+ * the event's profile, with the stated source beside the list. Attempts keep the copy they opened with.
+ */
+export async function adaptEventClasses(eventId: number, input: ClassesAdaptInput) {
+  return useDb().transaction(async (tx) => {
+    const [event] = await tx.select({ profile: tables.events.profile }).from(tables.events)
+      .where(eq(tables.events.id, eventId)).for('update')
+    const p: RuleProfile = structuredClone(event!.profile)
+    p.classes = {
+      value: adaptClasses(p, input),
+      source: `adapted by the organiser: ${input.source}`,
+      certainty: 'seen',
+    }
+    p.version += 1
+    const [row] = await tx.update(tables.events).set({ profile: p }).where(eq(tables.events.id, eventId)).returning()
+    return row!.profile.classes!
+  })
+}
+
+/** The profile's classes less those left out, plus those added; each named once. */
+function adaptClasses(p: RuleProfile, input: Pick<ClassesAdaptInput, 'removeClasses' | 'addClasses'>): RecordClass[] {
   const base = classesOf(p)
   const missing = input.removeClasses.filter(l => !findClass(base, l))
   if (missing.length) throw unprocessable('removeClasses', `not a class of the profile: ${missing.join('; ')}`)
