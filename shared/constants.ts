@@ -42,6 +42,7 @@ export const SIGNED_KINDS = [
   'suspension',
   'post-run-check',
   'checklist',
+  'homologation',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

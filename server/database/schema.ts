@@ -749,3 +749,22 @@ export const postRunChecks = pgTable('post_run_checks', {
   signatureId: integer('signature_id').references(() => signatures.id),
   createdAt: createdAt(),
 })
+
+/**
+ * The sanctioning body's homologation of a ratified record, entered and signed by an official: the
+ * body's reference and date. Once per dossier; immutable once signed (trigger).
+ */
+export const homologations = pgTable('homologations', {
+  id: serial('id').primaryKey(),
+  dossierId: integer('dossier_id')
+    .notNull()
+    .references(() => dossiers.id)
+    .unique(),
+  reference: text('reference').notNull(),
+  homologatedOn: date('homologated_on', { mode: 'string' }).notNull(),
+  officialId: integer('official_id')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+})

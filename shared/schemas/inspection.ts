@@ -142,3 +142,10 @@ export const postRunCheckSchema = signSheetSchema.extend({
   note: z.string().trim().max(1000).default(''),
 })
 export type PostRunCheckInput = z.infer<typeof postRunCheckSchema>
+
+/** The sanctioning body's homologation of a ratified record, as an official enters it. */
+export const homologationSchema = signSheetSchema.extend({
+  reference: z.string().trim().min(2, { error: 'give the sanctioning body\'s reference' }).max(120),
+  homologatedOn: z.iso.date({ error: 'must be a date (YYYY-MM-DD)' }),
+})
+export type HomologationInput = z.infer<typeof homologationSchema>

@@ -192,7 +192,20 @@ describe('the demo\'s ratified dossier', () => {
   })
 })
 
-describe('the record holder\'s certificate', () => {
+/** The text of a PDF as poppler's pdftotext reads it, whitespace folded. */
+async function pdfText(bytes: Uint8Array) {
+  const file = resolve(inject('dataDir'), `text-${sha256(bytes).slice(0, 12)}.pdf`)
+  writeFileSync(file, bytes)
+  return new Promise<string>((done, fail) => {
+    const p = spawn('pdftotext', ['-enc', 'UTF-8', file, '-'])
+    let out = ''
+    p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
+    p.on('error', fail)
+    p.on('close', () => done(out.replace(/\s+/g, ' ')))
+  })
+}
+
+describe('the record holder\'s certificate', { shuffle: false }, () => {
   it('is one page, signed like the dossier, with the figure in both units as the record book has it', async () => {
     const record = (await call('GET', '/api/record-book')).body.records
       .find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
@@ -201,18 +214,32 @@ describe('the record holder\'s certificate', () => {
     const cert = new Uint8Array(await res.arrayBuffer())
     expect((await PDFDocument.load(cert)).getPageCount()).toBe(1)
     expect((await pdfTool('pdfsig', [], cert, 'certificate.pdf')).out).toContain('Signature is Valid.')
-    const text = await new Promise<string>((done, fail) => {
-      const p = spawn('pdftotext', ['-enc', 'UTF-8', resolve(inject('dataDir'), 'certificate.pdf'), '-'])
-      let out = ''
-      p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
-      p.on('error', fail)
-      p.on('close', () => done(out.replace(/\s+/g, ' ')))
-    })
+    const text = await pdfText(cert)
     expect(text).toContain('Record certificate')
     expect(text).toContain(`${record.speedKmh} km/h = ${record.speedMph} mph`)
     for (const field of [record.class, record.distance, record.machine, record.rider, record.team, record.date])
       expect(text).toContain(field)
     expect(text).toContain('Ratified by')
+  })
+
+  it('an official enters the sanctioning body\'s homologation, signed; the book and the certificate show it', async () => {
+    const mile = async () => (await call('GET', '/api/record-book')).body.records
+      .find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
+    const before = await mile()
+    expect(before.status).toBe('ratified')
+    const id = Number(/dossiers\/(\d+)\/pdf/.exec(before.dossierUrl)![1])
+    // An invented reference of the sanctioning body, for the test.
+    const body = { reference: 'TEST-HOM-0001', homologatedOn: '2026-11-30', typedName: 'Oswin Oakes', password: DEMO_PASSWORD }
+    expect((await call('POST', `/api/dossiers/${id}/homologation`, { cookie: cookie.team, body })).status).toBe(403)
+    const done = await call('POST', `/api/dossiers/${id}/homologation`, { cookie: cookie.official, body })
+    expect(done.status, JSON.stringify(done.body)).toBe(201)
+    expect((await call('POST', `/api/dossiers/${id}/homologation`, { cookie: cookie.official, body })).status).toBe(409)
+    expect(await mile()).toMatchObject({ status: 'homologated', homologation: { reference: 'TEST-HOM-0001', on: '2026-11-30' } })
+    const report = (await call('GET', `/api/signatures/${done.body.signatureId}`, { cookie: cookie.official })).body
+    expect(report).toMatchObject({ kind: 'homologation', storedContentMatches: true, recordStillMatches: true })
+    const cert = new Uint8Array(await (await fetch(before.certificateUrl)).arrayBuffer())
+    const text = await pdfText(cert)
+    expect(text).toContain('reference TEST-HOM-0001, 2026-11-30')
   })
 })
 

@@ -5,6 +5,9 @@ import { PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 import { localDate } from '#shared/rules/zoned'
 
+const homologated = (h: { reference: string, homologatedOn: string }): [string, string] =>
+  ['Homologated', `by the sanctioning body, reference ${h.reference}, ${h.homologatedOn}`]
+
 /**
  * The record holder's certificate: one page, black on white, for a ratified dossier: machine, rider,
  * team, class, distance, the figure in both units, date and place, who witnessed and who ratified, and
@@ -13,9 +16,10 @@ import { localDate } from '#shared/rules/zoned'
  */
 export async function recordCertificate(dossierId: number) {
   const [row] = await useDb()
-    .select({ d: tables.dossiers, decision: tables.decisions, by: tables.users.name })
+    .select({ d: tables.dossiers, decision: tables.decisions, by: tables.users.name, h: tables.homologations })
     .from(tables.dossiers)
     .innerJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
+    .leftJoin(tables.homologations, eq(tables.homologations.dossierId, tables.dossiers.id))
     .innerJoin(tables.users, eq(tables.users.id, tables.decisions.decidedBy))
     .where(eq(tables.dossiers.id, dossierId))
   if (!row || row.decision.decision !== 'ratified') throw notFound('No ratified record for this dossier')
@@ -47,11 +51,14 @@ export async function recordCertificate(dossierId: number) {
     ...m.statements.filter(s => !s.withdraws && !s.withdrawnBy)
       .map(s => ['Witness', `${s.typedName}, ${s.signedAt.slice(0, 10)}`] as [string, string]),
     ['Ratified by', `${row.by}, ${issued.toISOString().slice(0, 10)}`],
+    ...(row.h?.signatureId ? [homologated(row.h)] : []),
   ])
   L.text(`Rests on dossier version ${row.d.version} of attempt #${row.d.attemptId}, PDF SHA-256 `
     + `${row.d.pdfSha256}. Check either file on the verification page or with npm run verify.`, { color: 'grey' })
-  L.text('Trapline records and computes; the sanctioning body\'s rulebook and officials decide, and a '
-    + 'homologation by the sanctioning body is recorded separately.', { color: 'grey', size: 8 })
+  L.text('Trapline records and computes; the sanctioning body\'s rulebook and officials decide.', {
+    color: 'grey',
+    size: 8,
+  })
   L.finish()
   addSignaturePlaceholder(doc, {
     reason: `Record certificate for dossier version ${row.d.version} of attempt #${row.d.attemptId}`,

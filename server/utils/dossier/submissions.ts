@@ -5,7 +5,7 @@ import { localDate } from '#shared/rules/zoned'
 import { buildRecordBook } from '#shared/rules/record-book'
 import type { Manifest } from './manifest'
 import type { EventAccess } from '../auth/auth'
-import type { DecisionInput } from '#shared/schemas/inspection'
+import type { DecisionInput, HomologationInput } from '#shared/schemas/inspection'
 
 /** The team an attempt belongs to; a team may act only on its own attempts (else 404). */
 export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
@@ -195,13 +195,14 @@ export async function decideDossier(
  */
 export async function recordBook() {
   const rows = await useDb()
-    .select({ d: tables.dossiers })
+    .select({ d: tables.dossiers, h: tables.homologations })
     .from(tables.decisions)
     .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
+    .leftJoin(tables.homologations, eq(tables.homologations.dossierId, tables.dossiers.id))
     .where(eq(tables.decisions.decision, 'ratified'))
     .orderBy(asc(tables.decisions.id))
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const book = buildRecordBook(rows.map(({ d }, order) => {
+  const book = buildRecordBook(rows.map(({ d, h }, order) => {
     const m = d.manifest as Manifest
     const lastRun = Math.max(...m.runs.filter(r => r.counted).map(r => Date.parse(r.startedAt)))
     return {
@@ -216,6 +217,9 @@ export async function recordBook() {
         speedMph: m.result.mph!,
         dossierUrl: `${site}/api/dossiers/${d.id}/pdf`,
         certificateUrl: `${site}/api/dossiers/${d.id}/certificate`,
+        /** Ratified by the event's officials; homologated once the sanctioning body's reference is entered. */
+        status: h?.signatureId ? 'homologated' as const : 'ratified' as const,
+        homologation: h?.signatureId ? { reference: h.reference, on: h.homologatedOn } : null,
         verifyUrl: `${site}/verify`,
         machine: m.entry.machineName,
         rider: m.entry.riderName,
@@ -291,4 +295,50 @@ export async function decisionDraftContent(dossierId: number, draft: { decision:
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, dossierId))
   if (!d) throw notFound('No such dossier')
   return decisionContent(d, draft)
+}
+
+type HomologationRow = typeof tables.homologations.$inferSelect
+
+/** What an official signs in entering a homologation. */
+export const homologationContent = (h: HomologationRow, officialName: string, pdfSha256: string) => ({
+  homologation: h.id,
+  dossier: h.dossierId,
+  pdfSha256,
+  reference: h.reference,
+  homologatedOn: h.homologatedOn,
+  official: officialName,
+})
+
+/**
+ * Records the sanctioning body's homologation of a ratified dossier (its reference and date), entered
+ * and signed by an official of the event; once per dossier (409 after), never on one not ratified.
+ */
+export async function homologate(
+  dossierId: number,
+  input: HomologationInput,
+  user: { id: number, name: string },
+) {
+  const proof = await signerProof(user.id, input)
+  return useDb().transaction(async (tx) => {
+    const [d] = await tx.select().from(tables.dossiers).where(eq(tables.dossiers.id, dossierId)).for('update')
+    if (!d) throw notFound('No such dossier')
+    const [decision] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
+    if (decision?.decision !== 'ratified') throw conflict('Only a ratified record is homologated')
+    const [row] = await tx.insert(tables.homologations)
+      .values({ dossierId, reference: input.reference, homologatedOn: input.homologatedOn, officialId: user.id })
+      .onConflictDoNothing().returning()
+    if (!row) throw conflict('This record\'s homologation is already entered')
+    const sig = await insertSignature(tx, {
+      proof,
+      kind: 'homologation',
+      subjectId: row.id,
+      eventId: d.eventId,
+      signerId: user.id,
+      typedName: input.typedName,
+      content: homologationContent(row, user.name, d.pdfSha256),
+    })
+    const [signed] = await tx.update(tables.homologations).set({ signatureId: sig.id })
+      .where(eq(tables.homologations.id, row.id)).returning()
+    return signed!
+  })
 }

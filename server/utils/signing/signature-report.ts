@@ -65,6 +65,17 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x!.c.attemptId)
     title = `Post-run check of attempt #${x!.c.attemptId}`
   }
+  else if (s.kind === 'homologation') {
+    const [x] = await useDb()
+      .select({ h: tables.homologations, by: tables.users.name, d: tables.dossiers })
+      .from(tables.homologations)
+      .innerJoin(tables.users, eq(tables.users.id, tables.homologations.officialId))
+      .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.homologations.dossierId))
+      .where(eq(tables.homologations.id, s.subjectId))
+    current = homologationContent(x!.h, x!.by, x!.d.pdfSha256)
+    teamId = await teamOfAttempt(x!.d.attemptId)
+    title = `Homologation of dossier #${x!.d.id} (${x!.h.reference})`
+  }
   else if (s.kind === 'checklist') {
     const [c] = await useDb().select().from(tables.checklists).where(eq(tables.checklists.id, s.subjectId))
     current = checklistContent(c!)
