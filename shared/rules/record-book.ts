@@ -17,8 +17,11 @@ export interface RatifiedResult<T = unknown> {
 }
 
 export interface RecordBook<T> {
-  /** The record per class and distance: the fastest carried-forward result; a tie never displaces the holder. */
-  records: RatifiedResult<T>[]
+  /**
+   * The record per class and distance: the fastest carried-forward result; a tie never displaces the
+   * holder. `history` lists the holders it displaced, the latest first, each with its own figure.
+   */
+  records: (RatifiedResult<T> & { history: RatifiedResult<T>[] })[]
   /** Ratified results that a best-per-day rule did not carry forward, with the one that was. */
   notCarriedForward: (RatifiedResult<T> & { bestOfDay: RatifiedResult<T> })[]
 }
@@ -43,17 +46,20 @@ export function buildRecordBook<T>(ratified: RatifiedResult<T>[]): RecordBook<T>
     if (!best || faster(r, best)) bestOfDay.set(day, r)
   }
   const notCarriedForward: RecordBook<T>['notCarriedForward'] = []
-  const standing = new Map<string, RatifiedResult<T>>()
+  // The successive holders of each class and distance, the first holder first.
+  const holders = new Map<string, RatifiedResult<T>[]>()
   for (const r of results) {
     const best = bestOfDay.get(`${key(r)}\u0000${r.date}`)!
     if (r.bestPerDayOnly && best !== r) {
       notCarriedForward.push({ ...r, bestOfDay: best })
       continue
     }
-    const holder = standing.get(key(r))
-    if (!holder || faster(r, holder)) standing.set(key(r), r)
+    const chain = holders.get(key(r)) ?? []
+    const holder = chain.at(-1)
+    if (!holder || faster(r, holder)) holders.set(key(r), [...chain, r])
   }
-  const records = [...standing.values()]
+  const records = [...holders.values()]
+    .map(chain => ({ ...chain.at(-1)!, history: chain.slice(0, -1).reverse() }))
     .sort((a, b) => a.className.localeCompare(b.className) || a.distanceLabel.localeCompare(b.distanceLabel))
   return { records, notCarriedForward }
 }

@@ -234,7 +234,11 @@ describe('the record holder\'s certificate', { shuffle: false }, () => {
     const done = await call('POST', `/api/dossiers/${id}/homologation`, { cookie: cookie.official, body })
     expect(done.status, JSON.stringify(done.body)).toBe(201)
     expect((await call('POST', `/api/dossiers/${id}/homologation`, { cookie: cookie.official, body })).status).toBe(409)
-    expect(await mile()).toMatchObject({ status: 'homologated', homologation: { reference: 'TEST-HOM-0001', on: '2026-11-30' } })
+    const now = await mile()
+    expect(now).toMatchObject({ status: 'homologated', homologation: { reference: 'TEST-HOM-0001', on: '2026-11-30' } })
+    // Its history: the holders it displaced, each slower than the one after it (other tests may add some).
+    const chain = [now, ...now.history]
+    for (let i = 1; i < chain.length; i++) expect(Number(chain[i].speedKmh)).toBeLessThan(Number(chain[i - 1].speedKmh))
     const report = (await call('GET', `/api/signatures/${done.body.signatureId}`, { cookie: cookie.official })).body
     expect(report).toMatchObject({ kind: 'homologation', storedContentMatches: true, recordStillMatches: true })
     const cert = new Uint8Array(await (await fetch(before.certificateUrl)).arrayBuffer())

@@ -31,6 +31,18 @@ describe('the record book', () => {
     expect(book.notCarriedForward).toEqual([])
   })
 
+  it('keeps the holders a record displaced, the latest first, and never a result that held nothing', () => {
+    // Common practice of record books: each holder in turn, with its figure; a slower later result never held it.
+    const book = buildRecordBook([
+      result(1, '390.000', '2026-08-12', false),
+      result(2, '395.250', '2026-08-13', false),
+      result(3, '392.000', '2026-08-14', false),
+      result(4, '401.000', '2026-08-15', false),
+    ])
+    expect(book.records.map(r => r.attemptId)).toEqual([4])
+    expect(book.records[0]!.history.map(r => [r.attemptId, r.kmh])).toEqual([[2, '395.250'], [1, '390.000']])
+  })
+
   it('never lets a tie displace the holder', () => {
     // Common practice: a record must be exceeded, so an equal figure leaves the earlier holder in the book.
     const book = buildRecordBook([result(1, '405.500', '2026-08-14', false), result(2, '405.500', '2026-08-15', false)])

@@ -227,7 +227,7 @@ export async function recordBook() {
       },
     }
   }))
-  const row = (r: (typeof book.records)[number]) => ({
+  const row = (r: (typeof book.notCarriedForward)[number]['bestOfDay']) => ({
     class: r.className,
     distance: r.distanceLabel,
     speedKmh: r.kmh,
@@ -235,7 +235,7 @@ export async function recordBook() {
     ...r.extra,
   })
   return {
-    records: book.records.map(row),
+    records: book.records.map(r => ({ ...row(r), history: r.history.map(row) })),
     notCarriedForward: book.notCarriedForward.map(r => ({ ...row(r), bestOfDay: row(r.bestOfDay) })),
   }
 }
