@@ -39,6 +39,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/attempts/[id]/signing-options': { expect: rolesOnly(409, 'timekeeper') },
   'POST /api/events/[id]/statements/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/dossiers/[id]/certificate': { expect: all(200) }, // public: the record book links it
+  'GET /api/record-book.csv': { expect: all(200) },
   'POST /api/dossiers/[id]/homologation': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/dossiers/[id]/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/home': { expect: signedIn(200) },

@@ -3,6 +3,7 @@ import { writeFileSync } from 'node:fs'
 import { connect } from 'node:net'
 import { createPublicKey, verify as cryptoVerify } from 'node:crypto'
 import { resolve } from 'node:path'
+import Papa from 'papaparse'
 import pg from 'pg'
 import type { PDFHexString, PDFString } from 'pdf-lib'
 import { PDFArray, PDFDict, PDFDocument, PDFName } from 'pdf-lib'
@@ -241,6 +242,12 @@ describe('the record holder\'s certificate', { shuffle: false }, () => {
     for (let i = 1; i < chain.length; i++) expect(Number(chain[i].speedKmh)).toBeLessThan(Number(chain[i - 1].speedKmh))
     const report = (await call('GET', `/api/signatures/${done.body.signatureId}`, { cookie: cookie.official })).body
     expect(report).toMatchObject({ kind: 'homologation', storedContentMatches: true, recordStillMatches: true })
+    // The CSV export says the same, units in the headers (read back with papaparse, RFC 4180).
+    const csv = Papa.parse<Record<string, string>>(await (await fetch(url('/api/record-book.csv'))).text(), { header: true }).data
+    expect(csv.find(r => r['Dossier'] === now.dossierUrl)).toMatchObject({
+      'Class': now.class, 'Speed (km/h)': now.speedKmh, 'Speed (mph)': now.speedMph, 'Holder': 'current',
+      'Status': 'homologated', 'Homologation reference': 'TEST-HOM-0001',
+    })
     const cert = new Uint8Array(await (await fetch(before.certificateUrl)).arrayBuffer())
     const text = await pdfText(cert)
     expect(text).toContain('reference TEST-HOM-0001, 2026-11-30')

@@ -1,3 +1,4 @@
+import Papa from 'papaparse'
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
 import { cmp, fromDecimal } from '#shared/rules/exact'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
@@ -341,4 +342,30 @@ export async function homologate(
       .where(eq(tables.homologations.id, row.id)).returning()
     return signed!
   })
+}
+
+/**
+ * The record book as CSV (RFC 4180 through papaparse): units in the headers, figures as published, one
+ * row per record and one per previous holder (marked), so a spreadsheet reads the history too.
+ */
+export function recordBookCsv(book: Awaited<ReturnType<typeof recordBook>>) {
+  type Row = (typeof book.records)[number]
+  const line = (r: Omit<Row, 'history'>, holder: 'current' | 'previous') => ({
+    'Class': r.class,
+    'Distance': r.distance,
+    'Speed (km/h)': r.speedKmh,
+    'Speed (mph)': r.speedMph,
+    'Date (local)': r.date,
+    'Machine': r.machine,
+    'Rider': r.rider,
+    'Team': r.team,
+    'Holder': holder,
+    'Status': r.status,
+    'Homologation reference': r.homologation?.reference ?? '',
+    'Dossier': r.dossierUrl,
+  })
+  const rows = book.records.flatMap(r => [line(r, 'current'), ...r.history.map(h => line(h, 'previous'))])
+  const fields = Object.keys(line(book.records[0] ?? ({} as Row), 'current')) as (keyof ReturnType<typeof line>)[]
+  // Headers even for an empty book.
+  return Papa.unparse({ fields, data: rows.map(r => fields.map(f => r[f])) }, { newline: '\r\n' })
 }
