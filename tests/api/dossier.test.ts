@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { readAttachments } from '../../server/utils/dossier/pdf-attachments'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, login, mailTo, url, useTestServer } from '../support/api'
 import { sha256 } from '../support/files'
-import { flipInFirstPage, pdfTool } from '../support/pdf-tools'
+import { flipInFirstPage, pdfText, pdfTool } from '../support/pdf-tools'
 import { pairSpeed, speedOver, timesOver } from '../support/hand'
 
 await useTestServer()
@@ -79,15 +79,7 @@ describe('the demo\'s ratified dossier', () => {
 
   it('prints every figure of the pair as the database gives it, read back with poppler\'s pdftotext', async () => {
     // The text of the sealed PDF (Debian's poppler-utils, a reader independent of the product), whitespace folded.
-    const file = resolve(inject('dataDir'), `dossier-${dossierId}.pdf`)
-    writeFileSync(file, pdf)
-    const text = await new Promise<string>((done, fail) => {
-      const p = spawn('pdftotext', ['-enc', 'UTF-8', file, '-'])
-      let out = ''
-      p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
-      p.on('error', fail)
-      p.on('close', code => (code === 0 ? done(out.replace(/\s+/g, ' ')) : fail(new Error(`pdftotext exited ${code}`))))
-    })
+    const text = await pdfText(pdf, `dossier-${dossierId}.pdf`)
     const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
     const sheet = (await call('GET', `/api/events/${eventId}/run-sheet`, { cookie: cookie.organiser })).body
     const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: cookie.organiser })).body
@@ -193,19 +185,6 @@ describe('the demo\'s ratified dossier', () => {
   })
 })
 
-/** The text of a PDF as poppler's pdftotext reads it, whitespace folded. */
-async function pdfText(bytes: Uint8Array) {
-  const file = resolve(inject('dataDir'), `text-${sha256(bytes).slice(0, 12)}.pdf`)
-  writeFileSync(file, bytes)
-  return new Promise<string>((done, fail) => {
-    const p = spawn('pdftotext', ['-enc', 'UTF-8', file, '-'])
-    let out = ''
-    p.stdout.on('data', (c: Buffer) => (out += c.toString('utf8')))
-    p.on('error', fail)
-    p.on('close', () => done(out.replace(/\s+/g, ' ')))
-  })
-}
-
 describe('the record holder\'s certificate', { shuffle: false }, () => {
   it('is one page, signed like the dossier, with the figure in both units as the record book has it', async () => {
     const record = (await call('GET', '/api/record-book')).body.records
@@ -215,7 +194,7 @@ describe('the record holder\'s certificate', { shuffle: false }, () => {
     const cert = new Uint8Array(await res.arrayBuffer())
     expect((await PDFDocument.load(cert)).getPageCount()).toBe(1)
     expect((await pdfTool('pdfsig', [], cert, 'certificate.pdf')).out).toContain('Signature is Valid.')
-    const text = await pdfText(cert)
+    const text = await pdfText(cert, 'certificate-text.pdf')
     expect(text).toContain('Record certificate')
     expect(text).toContain(`${record.speedKmh} km/h = ${record.speedMph} mph`)
     for (const field of [record.class, record.distance, record.machine, record.rider, record.team, record.date])
@@ -249,7 +228,7 @@ describe('the record holder\'s certificate', { shuffle: false }, () => {
       'Status': 'homologated', 'Homologation reference': 'TEST-HOM-0001',
     })
     const cert = new Uint8Array(await (await fetch(before.certificateUrl)).arrayBuffer())
-    const text = await pdfText(cert)
+    const text = await pdfText(cert, 'certificate-homologated.pdf')
     expect(text).toContain('reference TEST-HOM-0001, 2026-11-30')
   })
 })

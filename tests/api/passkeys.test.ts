@@ -59,7 +59,7 @@ describe('passkeys sign exactly the content', { shuffle: false }, () => {
     expect(report.assertion.credentialId).toBe(keys.scrutineer.credentialId)
   })
 
-  it('someone else\'s passkey, or none, signs nothing; the password stays the fallback', async () => {
+  it('without a passkey or a password nothing is signed; the password stays the fallback', async () => {
     const entryId = await newEntry(event.eventId, 'Password Runner', {}, { team: event.cookie.team })
     const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
     await call('PATCH', `/api/inspections/${started.body.id}`, { cookie: event.cookie.scrutineer, body: FIGURES })
@@ -88,6 +88,12 @@ describe('passkeys sign exactly the content', { shuffle: false }, () => {
     const draft = { attemptId, runsSeen: 'both runs', position: 'at the exit trap', conditions: 'calm, dry' }
     const options = await call('POST', `/api/events/${event.eventId}/statements/signing-options`, { cookie: event.cookie.official, body: draft })
     expect(options.status).toBe(200)
+    // Someone else's passkey (the scrutineer's) answering the official's challenge signs nothing.
+    const foreign = await call('POST', `/api/events/${event.eventId}/statements`, {
+      cookie: event.cookie.official, body: { ...draft, typedName: 'Test official', passkey: keys.scrutineer.assert(options.body) },
+    })
+    expect(foreign.status).toBe(422)
+    expect(foreign.body.data.issues[0]).toMatchObject({ path: 'passkey', message: 'is not one of your passkeys; nothing was signed' })
     const created = await call('POST', `/api/events/${event.eventId}/statements`, {
       cookie: event.cookie.official, body: { ...draft, typedName: 'Test official', passkey: keys.official.assert(options.body) },
     })

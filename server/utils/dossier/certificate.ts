@@ -9,6 +9,13 @@ const homologated = (h: { reference: string, homologatedOn: string }): [string, 
   ['Homologated', `by the sanctioning body, reference ${h.reference}, ${h.homologatedOn}`]
 
 /**
+ * Certificates already made, by dossier and homologation: a public page links them, so a download does
+ * not render and sign again (a few dozen are kept; each is a few tens of kB).
+ */
+const made = new Map<string, { pdf: Uint8Array, name: string }>()
+const MADE_KEPT = 50
+
+/**
  * The record holder's certificate: one page, black on white, for a ratified dossier: machine, rider,
  * team, class, distance, the figure in both units, date and place, who witnessed and who ratified, and
  * the dossier it rests on by its SHA-256. Signed with the installation's certificate like the dossier
@@ -23,6 +30,9 @@ export async function recordCertificate(dossierId: number) {
     .innerJoin(tables.users, eq(tables.users.id, tables.decisions.decidedBy))
     .where(eq(tables.dossiers.id, dossierId))
   if (!row || row.decision.decision !== 'ratified') throw notFound('No ratified record for this dossier')
+  const cacheKey = `${dossierId}:${row.h?.signatureId ?? 0}`
+  const cached = made.get(cacheKey)
+  if (cached) return cached
   const m = row.d.manifest as Manifest
   const counted = m.runs.filter(r => r.counted)
   const lastRun = Math.max(...counted.map(r => Date.parse(r.startedAt)))
@@ -68,5 +78,8 @@ export async function recordCertificate(dossierId: number) {
   const key = useSealKey()
   const unsigned = await doc.save({ useObjectStreams: false })
   const pdf = await signPdf(unsigned, [key.certificatePem, ...key.chainPem], key.certificateKey)
-  return { pdf, name: `trapline-certificate-attempt-${row.d.attemptId}-v${row.d.version}.pdf` }
+  const certificate = { pdf, name: `trapline-certificate-attempt-${row.d.attemptId}-v${row.d.version}.pdf` }
+  if (made.size >= MADE_KEPT) made.delete(made.keys().next().value!)
+  made.set(cacheKey, certificate)
+  return certificate
 }
