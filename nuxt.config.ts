@@ -69,6 +69,12 @@ export default defineNuxtConfig({
     // server/utils/ is grouped in folders by subject (auth, database, event-day, dossier…); all are auto-imported.
     imports: { dirs: ['./server/utils/**'] },
     ...(process.env.TRAPLINE_OUTPUT_DIR ? { output: { dir: process.env.TRAPLINE_OUTPUT_DIR } } : {}),
+    // Built on Node 20, the tracer leaves out the files these packages name under "module-sync" (a
+    // known gap of @vercel/nft), which Node 20 then asks for (exceljs reaches them through get-intrinsic).
+    externals: {
+      traceInclude: ['async-function', 'async-generator-function', 'generator-function']
+        .map(p => `node_modules/${p}/require.mjs`),
+    },
     // The dossier's fonts, read at run time: shipped inside the build, not looked up in node_modules.
     serverAssets: [
       { baseName: 'fonts-inter', dir: '../node_modules/@fontsource/inter/files', pattern: 'inter-latin-{400,700}-normal.woff' },

@@ -3,6 +3,7 @@ import {
   bigint,
   bigserial,
   boolean,
+  check,
   date,
   index,
   integer,
@@ -249,6 +250,8 @@ export const standingRecords = pgTable(
     speed: numeric('speed').notNull(),
     unit: recordUnit('unit').notNull().default('km/h'),
     setOn: date('set_on'),
+    /** For a vacant class: the minimum the organiser sets, which a first record must reach; not a record. */
+    minimum: boolean('minimum').notNull().default(false),
     note: text('note').notNull().default(''),
     /** A result ratified at this event stands from the moment of its ratification; null for one entered by hand. */
     dossierId: integer('dossier_id').references(() => dossiers.id),
@@ -277,11 +280,17 @@ export const entries = pgTable('entries', {
     .notNull()
     .references(() => riders.id),
   className: text('class_name').notNull(),
+  /** The first distance the entry claims (kept for the references that name one). */
   distanceId: integer('distance_id')
     .notNull()
     .references(() => measuredDistances.id),
+  /**
+   * Every distance the entry claims, the first first: one pass over the course yields a result for each
+   * (the flying kilometre inside the flying mile). Checked against the course and the profile on entry.
+   */
+  distanceIds: integer('distance_ids').array().notNull(),
   createdAt: createdAt(),
-})
+}, t => [check('entries_first_claim', sql`${t.distanceIds}[1] = ${t.distanceId}`)])
 
 /** A pair of runs under the profile frozen when the attempt opened. */
 export const attempts = pgTable('attempts', {
@@ -307,6 +316,8 @@ export const runs = pgTable(
       .notNull()
       .references(() => attempts.id),
     direction: runDirection('direction').notNull(),
+    /** A flying pass, or a standing start from rest at the start line; a distance counts runs of its own kind. */
+    start: startKind('start').notNull().default('flying'),
     startedAt: timestamp('started_at', { withTimezone: true }).notNull(),
     status: runStatus('status').notNull().default('open'),
     abortedReason: text('aborted_reason'),
@@ -593,6 +604,10 @@ export const dossiers = pgTable(
     attemptId: integer('attempt_id')
       .notNull()
       .references(() => attempts.id),
+    /** The measured distance whose result the dossier claims; each claimed distance has its own dossier. */
+    distanceId: integer('distance_id')
+      .notNull()
+      .references(() => measuredDistances.id),
     version: integer('version').notNull(),
     manifest: jsonb('manifest').notNull(),
     manifestSha256: text('manifest_sha256').notNull(),
@@ -611,7 +626,7 @@ export const dossiers = pgTable(
     createdAt: createdAt(),
   },
   t => [
-    uniqueIndex('dossiers_attempt_version').on(t.attemptId, t.version),
+    uniqueIndex('dossiers_attempt_distance_version').on(t.attemptId, t.distanceId, t.version),
     index('dossiers_pdf_sha256').on(t.pdfSha256),
   ],
 )
@@ -660,6 +675,20 @@ export const mailOutbox = pgTable('mail_outbox', {
   claimedUntil: timestamp('claimed_until', { withTimezone: true }),
   sentAt: timestamp('sent_at', { withTimezone: true }),
   createdAt: createdAt(),
+})
+
+/** The team withdraws a submitted claim before the officials decide, with its reason. Append-only. */
+export const withdrawals = pgTable('withdrawals', {
+  id: serial('id').primaryKey(),
+  dossierId: integer('dossier_id')
+    .notNull()
+    .references(() => dossiers.id)
+    .unique(),
+  reason: text('reason').notNull(),
+  withdrawnBy: integer('withdrawn_by')
+    .notNull()
+    .references(() => users.id),
+  withdrawnAt: timestamp('withdrawn_at', { withTimezone: true }).notNull().defaultNow(),
 })
 
 export type User = typeof users.$inferSelect

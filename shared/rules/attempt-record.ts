@@ -9,7 +9,8 @@ type StandingRecord = NonNullable<AttemptInput['record']>
 /** The smallest exact speed (m/s) whose published figure counts against the record. */
 function thresholdSpeed(profile: RuleProfile, record: StandingRecord) {
   const { decimals, rounding } = profile.figures.value
-  const { percent, inclusive } = profile.margin.value
+  // A vacant class's minimum is reached, not exceeded by a margin (common practice, not settled).
+  const { percent, inclusive } = record.minimum ? { percent: 0, inclusive: true } : profile.margin.value
   const needed = mul(record.value, add(q(1n), div(q(BigInt(Math.round(percent * 1e6))), q(100_000_000n))))
   const ulp = q(1n, 10n ** BigInt(decimals))
   const figure = inclusive ? ceilTo(needed, decimals) : add(floorTo(needed, decimals), ulp)
@@ -48,7 +49,15 @@ function publishedFigure(profile: RuleProfile, speedMs: Q, unit: StandingRecord[
   return q(BigInt(text.replace('.', '')), 10n ** BigInt(decimals))
 }
 
-function marginRule(profile: RuleProfile) {
+function marginRule(profile: RuleProfile, record?: StandingRecord) {
+  if (record?.minimum) {
+    return {
+      name: 'Vacant class',
+      value: 'a first record must reach the minimum the organiser set',
+      source: 'the organiser\'s minimum for the vacant class',
+      certainty: 'common practice' as const,
+    }
+  }
   const { percent } = profile.margin.value
   const value = percent ? `at least ${percent} % over the standing record` : 'exceed the standing record'
   return ruleOf(profile, 'margin', 'Improvement needed', value)
@@ -60,6 +69,14 @@ function notBeatenFinding(profile: RuleProfile, fig: Q, record: StandingRecord, 
   const achieved = `${toFixed(fig, decimals)} ${unit}`
   const standing = `${toFixed(record.value, decimals)} ${unit}`
   const overOld = cmp(fig, record.value) > 0
+  if (record.minimum) {
+    return {
+      code: 'record.minimum-not-reached',
+      severity: 'fail',
+      message: `${achieved} does not reach the minimum of ${standing} set for this vacant class.`,
+      rule: marginRule(profile, record),
+    }
+  }
   return {
     code: overOld ? 'record.margin-not-met' : 'record.not-beaten',
     severity: 'fail',
@@ -102,7 +119,7 @@ export function compareWithRecord(
       severity: 'warn',
       message: `No return run can lift the result to ${required.text} ${unit} after a first run at `
         + `${unit === 'mph' ? first.mph : first.kmh} ${unit}.`,
-      rule: marginRule(profile),
+      rule: marginRule(profile, record),
     })
   }
   return { required, beatsRecord, returnTargetS, findings }

@@ -24,7 +24,11 @@ export interface AttemptInput {
   profile: RuleProfile
   distanceM: Q
   runs: RunInput[]
-  record?: { value: Q, unit: Exclude<SpeedUnit, 'm/s'> }
+  /**
+   * The standing record, or for a vacant class the minimum the organiser set (`minimum`): a first record
+   * must reach the minimum itself, with no margin over it.
+   */
+  record?: { value: Q, unit: Exclude<SpeedUnit, 'm/s'>, minimum?: boolean }
   /** The event's time zone, for rules that count calendar days. */
   timeZone?: string
   /** Decimals of the return-run target time (the timing resolution); 3 unless told. */

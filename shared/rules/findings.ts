@@ -22,10 +22,12 @@ export interface Finding {
 
 /**
  * Whether an official may set a finding aside: any failing finding about how the runs were made or
- * measured; never whether the result beats the record, which is arithmetic, not judgement.
+ * measured; never whether the result beats the record, which is arithmetic, not judgement, nor whether
+ * the machine fits its class, which the scrutineer's measurements decide.
  */
 export const mayBeSetAside = (f: Pick<Finding, 'code' | 'severity'>) =>
   f.severity === 'fail' && !f.code.startsWith('record.') && !f.code.startsWith('qualifier.')
+  && !f.code.startsWith('class.')
 
 /** A finding that stops the result: failing and not set aside. */
 export const blocks = (f: Finding) => f.severity === 'fail' && !f.setAside

@@ -3,6 +3,8 @@ import { cmp, fromDecimal } from './exact'
 /** A ratified result as the record book reads it from its sealed dossier. */
 export interface RatifiedResult<T = unknown> {
   attemptId: number
+  /** The rule profile the record is kept under (records of different profiles never compare). */
+  profile?: string
   className: string
   distanceLabel: string
   /** The result in km/h as published (the same exact value gives the mph figure). */
@@ -26,19 +28,21 @@ export interface RecordBook<T> {
   notCarriedForward: (RatifiedResult<T> & { bestOfDay: RatifiedResult<T> })[]
 }
 
-const key = (r: RatifiedResult<unknown>) => `${r.className}\u0000${r.distanceLabel}`
+const key = (r: RatifiedResult<unknown>) => `${r.profile ?? ''}\u0000${r.className}\u0000${r.distanceLabel}`
+/** One claim: an attempt's result over one distance (one pass may claim several distances). */
+const claim = (r: RatifiedResult<unknown>) => `${r.attemptId}\u0000${r.distanceLabel}`
 const faster = (a: RatifiedResult<unknown>, b: RatifiedResult<unknown>) =>
   cmp(fromDecimal(a.kmh), fromDecimal(b.kmh)) > 0
 
 /**
- * The record book from the ratified results: one result per attempt (its latest ratified version);
+ * The record book from the ratified results: one result per attempt and distance (its latest ratified version);
  * where the profile says so, only the best per class, distance and day goes forward; then the
  * fastest per class and distance stands, the earlier holder keeping it on a tie.
  */
 export function buildRecordBook<T>(ratified: RatifiedResult<T>[]): RecordBook<T> {
-  const byAttempt = new Map<number, RatifiedResult<T>>()
-  for (const r of [...ratified].sort((a, b) => a.order - b.order)) byAttempt.set(r.attemptId, r)
-  const results = [...byAttempt.values()].sort((a, b) => a.order - b.order)
+  const byClaim = new Map<string, RatifiedResult<T>>()
+  for (const r of [...ratified].sort((a, b) => a.order - b.order)) byClaim.set(claim(r), r)
+  const results = [...byClaim.values()].sort((a, b) => a.order - b.order)
   const bestOfDay = new Map<string, RatifiedResult<T>>()
   for (const r of results) {
     const day = `${key(r)}\u0000${r.date}`
@@ -60,6 +64,7 @@ export function buildRecordBook<T>(ratified: RatifiedResult<T>[]): RecordBook<T>
   }
   const records = [...holders.values()]
     .map(chain => ({ ...chain.at(-1)!, history: chain.slice(0, -1).reverse() }))
-    .sort((a, b) => a.className.localeCompare(b.className) || a.distanceLabel.localeCompare(b.distanceLabel))
+    .sort((a, b) => (a.profile ?? '').localeCompare(b.profile ?? '') || a.className.localeCompare(b.className)
+      || a.distanceLabel.localeCompare(b.distanceLabel))
   return { records, notCarriedForward }
 }

@@ -176,7 +176,14 @@ export const entrySchema = z
       .optional(),
     riderId: id.optional(),
     className: z.string().trim().min(1).max(80),
-    distanceId: id,
+    /** The measured distances the entry claims, timed on the same passes (the first is its main claim). */
+    distanceIds: z.array(id).min(1, { error: 'claim at least one measured distance' }).max(8).optional(),
+    /** One distance, as before several could be claimed. */
+    distanceId: id.optional(),
+  })
+  .refine(x => !!x.distanceIds !== (x.distanceId !== undefined), {
+    error: 'claim at least one measured distance',
+    path: ['distanceIds'],
   })
   .refine(x => !!x.machine !== !!x.machineId, {
     error: 'give a new machine or pick one already entered',
@@ -192,6 +199,8 @@ export type EntryInput = z.infer<typeof entrySchema>
 export const startRunSchema = z.object({
   entryId: id,
   direction: z.enum(DIRECTIONS),
+  /** A flying pass, or a standing start from rest at the start line; by default what the entry's claims take. */
+  start: z.enum(START_KINDS).optional(),
   startedAt: isoDateTime.optional(),
 })
 export type StartRunInput = z.infer<typeof startRunSchema>
@@ -268,3 +277,7 @@ export const csvImportSchema = z.object({
 export type CsvImportInput = z.infer<typeof csvImportSchema>
 
 export const idParams = z.object({ id })
+
+/** Which claimed distance of an attempt a readiness check or a dossier is about; by default its first. */
+export const claimedDistanceSchema = z.object({ distanceId: id.optional() })
+export type ClaimedDistanceInput = z.infer<typeof claimedDistanceSchema>

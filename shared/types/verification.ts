@@ -8,5 +8,9 @@ export interface Verification {
   pdfSignature: { valid: boolean, problem: string | null, subject: string | null } | null
   dossier?: { id: number, attemptId: number, version: number } | null
   /** What became of the dossier, when this server issued it. */
-  standing: { state: 'current' | 'superseded' | 'ratified' | 'refused', latestVersion: number, words: string } | null
+  standing: {
+    state: 'current' | 'superseded' | 'ratified' | 'refused' | 'withdrawn'
+    latestVersion: number
+    words: string
+  } | null
 }

@@ -40,6 +40,9 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/statements/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/dossiers/[id]/certificate': { expect: all(200) }, // public: the record book links it
   'GET /api/record-book.csv': { expect: all(200) },
+  'GET /api/record-book.xlsx': { expect: all(200) },
+  // The team's own ratified demo dossier: past the role check, the empty body answers 422.
+  'POST /api/dossiers/[id]/withdrawal': { expect: { ...eventMembers(403), admin: 404, team: 422 }, body: {} },
   'POST /api/dossiers/[id]/homologation': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/dossiers/[id]/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/home': { expect: signedIn(200) },

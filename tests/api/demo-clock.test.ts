@@ -57,10 +57,10 @@ async function signIn(email: string) {
 
 describe('the demo seeded two years ahead', () => {
   it('has its runs on the day before the seeding day and a complete, ratified day', async () => {
-    // The seed seals, submits and ratifies the streamliner's dossier only when nothing is missing;
-    // the ratified record in the book shows that it did.
+    // The seed seals, submits and ratifies the streamliner's dossiers (the mile and the kilometre of one pair)
+    // only when nothing is missing; the two ratified records in the book show that it did.
     await expect.poll(async () => (await (await fetch(`${base}/api/record-book`)).json()).records.length, { timeout: 30_000 })
-      .toBe(1)
+      .toBe(2)
     const team = await signIn('team@trapline.test')
     const events = await (await fetch(`${base}/api/events`, { headers: { cookie: team } })).json() as any[]
     const event = events.find(e => e.name === DEMO_EVENT_NAME)

@@ -4,28 +4,29 @@ import { electricMotorcycle } from '#shared/inspection/templates'
 import { call, DEMO_PASSWORD, demoEmail, login } from './api'
 
 /**
- * A new entry of the second demo team over the flying kilometre, owned by the test that makes it:
- * its runs and attempts touch no other test's.
+ * A new entry of the second demo team over the flying kilometre (or the distances named in `who.claims`),
+ * owned by the test that makes it: its runs and attempts touch no other test's.
  */
 export async function newEntry(
   eventId: number,
   machineName: string,
   rider: { licenceExpires?: string } = {},
-  who: { team?: string } = {},
+  who: { team?: string, claims?: string[], entry?: { className?: string, division?: string } } = {},
 ) {
   const team2 = who.team ?? await login('team2@trapline.test')
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
-  const kilometre = setup.distances.find((d: { label: string }) => d.label === 'Flying kilometre').id
+  const distanceId = (label: string) => setup.distances.find((d: { label: string }) => d.label === label).id
+  const claims = who.claims ? { distanceIds: who.claims.map(distanceId) } : { distanceId: distanceId('Flying kilometre') }
   const entry = await call('POST', `/api/events/${eventId}/entries`, {
     cookie: team2,
     body: {
-      machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: 'partial' },
+      machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: who.entry?.division ?? 'partial' },
       rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: rider.licenceExpires ?? '2099-12-31' },
-      className: 'Electric, partially streamlined',
-      distanceId: kilometre,
+      className: who.entry?.className ?? 'Electric, partially streamlined',
+      ...claims,
     },
   })
-  expect(entry.status).toBe(201)
+  expect(entry.status, JSON.stringify(entry.body)).toBe(201)
   return entry.body.id as number
 }
 
@@ -61,7 +62,13 @@ export async function clearedEntry(
   eventId: number,
   machineName: string,
   rider: { licenceExpires?: string } = {},
-  who: { team?: string, scrutineer?: string, scrutineerPassword?: string } = {},
+  who: {
+    team?: string
+    scrutineer?: string
+    scrutineerPassword?: string
+    claims?: string[]
+    entry?: { className?: string, division?: string }
+  } = {},
 ) {
   const entryId = await newEntry(eventId, machineName, rider, who)
   const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))

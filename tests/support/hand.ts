@@ -5,6 +5,8 @@ import { create, all, type BigNumber } from 'mathjs'
 // (NIST SP 811, appendix B); published figures are truncated to three decimals (common practice).
 const math = create(all, { number: 'BigNumber', precision: 64 })
 const big = (x: string | number) => math.bignumber(String(x))
+/** An exact decimal of the hand computations. */
+export const decimal = big
 
 /** Seconds after midnight of a time of day written hh:mm:ss.ffff. */
 export function secondsOfDay(time: string): BigNumber {

@@ -53,4 +53,20 @@ describe('the record book', () => {
     const book = buildRecordBook([result(1, '401.000', '2026-08-14'), { ...result(1, '400.900', '2026-08-14') }])
     expect(book.records.map(r => r.kmh)).toEqual(['400.900'])
   })
+
+  it('keeps one result per attempt and distance: one pass claims the kilometre and the mile', () => {
+    // Domain notes: several traps along one course let one pass yield several distances; each is its own record.
+    const km = { ...result(1, '402.100', '2026-08-14'), distanceLabel: 'Flying kilometre' }
+    const book = buildRecordBook([result(1, '401.000', '2026-08-14'), km])
+    expect(book.records.map(r => [r.distanceLabel, r.kmh])).toEqual([['Flying kilometre', '402.100'], ['Flying mile', '401.000']])
+    expect(book.notCarriedForward).toEqual([])
+  })
+
+  it('never compares records kept under different rule profiles', () => {
+    // Common practice: a club record and an international record of the same class and distance are separate books.
+    const club = { ...result(2, '450.000', '2026-08-14', false), profile: 'Club, two runs same direction' }
+    const book = buildRecordBook([{ ...result(1, '401.000', '2026-08-14', false), profile: 'International motorcycle' }, club])
+    expect(book.records.map(r => [r.profile, r.kmh])).toEqual([['Club, two runs same direction', '450.000'], ['International motorcycle', '401.000']])
+    expect(book.records.every(r => r.history.length === 0)).toBe(true)
+  })
 })

@@ -213,8 +213,9 @@ async function signDemoStatements({ people, event, attempt }: DemoFacts) {
 
 /**
  * The rest of the demo day, through the same code as the app: certificates and licences attached,
- * two witness statements, the timing sheet signed, and the streamliner's dossier sealed, submitted
- * and ratified. The second team's attempt stays on the way (one run, nothing signed).
+ * two witness statements, the timing sheet signed, and the streamliner's dossiers (the mile and the
+ * kilometre from the same pair) sealed, submitted and ratified, the mile homologated. The second
+ * team's attempt stays on the way (one run, nothing signed).
  */
 async function seedDemoDossier() {
   const facts = await demoFacts()
@@ -228,10 +229,22 @@ async function seedDemoDossier() {
     password: demo.password,
     typedName: people.timekeeper.name,
   })
-  const dossier = await issueDossier(event.id, attempt.id, people.team.id)
-  await submitDossier(dossier.id, people.team.id)
   const reasons = 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, '
     + 'two statements.'
   const decision = { decision: 'ratified' as const, reasons, password: demo.password, typedName: people.official.name }
-  await decideDossier(dossier.id, decision, people.official)
+  // One dossier per claimed distance, from the same pair of runs: the mile, then the kilometre.
+  const dossiers = []
+  for (const distanceId of facts.streamliner.entry.distanceIds) {
+    const dossier = await issueDossier(event.id, attempt.id, people.team.id, distanceId)
+    await submitDossier(dossier.id, people.team.id)
+    await decideDossier(dossier.id, decision, people.official)
+    dossiers.push(dossier)
+  }
+  // The sanctioning body has since homologated the mile (an invented reference).
+  await homologate(dossiers[0]!.id, {
+    reference: 'DEMO-HOM-0031',
+    homologatedOn: addDays(event.endsOn, -1),
+    password: demo.password,
+    typedName: people.official.name,
+  }, people.official)
 }

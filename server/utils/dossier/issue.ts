@@ -1,7 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto'
 import { mkdir, rm, writeFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import { desc, eq } from 'drizzle-orm'
+import { and, desc, eq } from 'drizzle-orm'
 import { buildManifest, PERSONAL_EVIDENCE, publicManifest, type Manifest } from './manifest'
 import type { Readiness } from './readiness'
 import { renderDossier, type Attachment } from './render'
@@ -9,11 +9,11 @@ import { renderDossier, type Attachment } from './render'
 const sha256Hex = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
 /** Issues a new sealed dossier version for a ready attempt; refuses naming what is missing. */
-export async function issueDossier(eventId: number, attemptId: number, userId: number) {
+export async function issueDossier(eventId: number, attemptId: number, userId: number, distanceId?: number) {
   await attemptOfEvent(eventId, attemptId)
-  const r = await readinessOf(eventId, attemptId)
+  const r = await readinessOf(eventId, attemptId, distanceId)
   refuseUnlessReady(r)
-  const previous = await latestDossier(attemptId)
+  const previous = await latestDossier(attemptId, r.distance.id)
   const version = (previous?.version ?? 0) + 1
   const manifest = await buildManifest(r, version, new Date())
   const attach = await evidenceToAttach(manifest)
@@ -28,6 +28,7 @@ export async function issueDossier(eventId: number, attemptId: number, userId: n
     publicManifestSha256: open.manifestSha,
     eventId,
     attemptId,
+    distanceId: r.distance.id,
     version,
     manifest,
     manifestSha256: officials.manifestSha,
@@ -112,11 +113,12 @@ async function storeDossier(pdf: Uint8Array, values: NewDossier) {
   return row!
 }
 
-export async function latestDossier(attemptId: number) {
+/** The latest version of an attempt's dossier for one claimed distance. */
+export async function latestDossier(attemptId: number, distanceId: number) {
   const [row] = await useDb()
     .select()
     .from(tables.dossiers)
-    .where(eq(tables.dossiers.attemptId, attemptId))
+    .where(and(eq(tables.dossiers.attemptId, attemptId), eq(tables.dossiers.distanceId, distanceId)))
     .orderBy(desc(tables.dossiers.version))
     .limit(1)
   return row ?? null

@@ -41,6 +41,13 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       standingRecord: live.standingRecord,
       required: live.required,
       findings: live.findings.map(manifestFinding),
+      /** Every distance the same passes claim, each with its own dossier: this one and the others. */
+      claims: live.distances.map(d => ({
+        label: d.label,
+        start: d.start,
+        nominalM: d.nominalM,
+        kmh: d.result?.kmh ?? null,
+      })),
     },
     timingSheet: live.sheet.history.map(h => ({
       kind: h.kind,

@@ -15,12 +15,16 @@ export interface ReadinessItem {
   finding?: { code: string, runId: number | null, setAsideable: boolean }
 }
 
-/** Everything an attempt's file is judged on, read once. */
-async function loadAttemptFile(eventId: number, attemptId: number) {
+/** Everything an attempt's file for one claimed distance (by default its first) is judged on, read once. */
+async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: number) {
   const day = await loadEventDay(eventId, { history: true })
   const attempt = day.attempts.find(a => a.id === attemptId)
   if (!attempt) throw notFound('No such attempt')
-  const live = computeLive({ ...day, attempts: [attempt] })[0]!
+  const live = computeLive({ ...day, attempts: [attempt] }, { distanceId })[0]!
+  if (distanceId !== undefined && live.entry.distanceId !== distanceId) {
+    const claimed = live.distances.map(d => d.label).join(', ')
+    throw fieldInvalid('distanceId', `is not a distance this attempt claims (${claimed})`)
+  }
   const entry = day.entries.find(e => e.entry.id === attempt.entryId)!
   const counted = live.runs.filter(r => r.counted)
   const statements = (await statementsAt(eventId, null)).filter(
@@ -33,7 +37,7 @@ async function loadAttemptFile(eventId: number, attemptId: number) {
     day,
     live,
     entry,
-    distance: day.distances.find(d => d.id === entry.entry.distanceId)!,
+    distance: day.distances.find(d => d.id === live.entry.distanceId)!,
     counted,
     runDays: counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone)),
     evidence: await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId)),
@@ -127,7 +131,8 @@ function findingItems({ at, live, counted, attemptId }: AttemptFile): ReadinessI
   const all = [
     ...live.findings.map(f => ({ f, runId: null as number | null })),
     ...counted.flatMap(r => r.findings.map(f => ({ f, runId: r.id as number | null }))),
-  ].filter(({ f }) => f.severity === 'fail')
+  // The machine against its class is its own item (classItems), with the inspection in force at the end.
+  ].filter(({ f }) => f.severity === 'fail' && !f.code.startsWith('class.'))
   return all.map(({ f, runId }) => ({
     key: `finding-${f.code}-${runId ?? 'attempt'}`,
     label: `${runId ? `Run #${runId}` : 'The attempt'}: ${f.message}`,
@@ -268,8 +273,8 @@ function runAndRiderItems({ at, counted, entry, evidence, runDays }: AttemptFile
  * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
  * and engine as the live results.
  */
-export async function readinessOf(eventId: number, attemptId: number) {
-  const file = await loadAttemptFile(eventId, attemptId)
+export async function readinessOf(eventId: number, attemptId: number, distanceId?: number) {
+  const file = await loadAttemptFile(eventId, attemptId, distanceId)
   const items = [
     ...recordItems(file),
     ...findingItems(file),

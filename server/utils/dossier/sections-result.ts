@@ -29,6 +29,14 @@ function standingRecordLine(m: Manifest) {
   return `${standingRecord.speed} ${standingRecord.unit}; ${beatsRecord ? 'beaten' : 'not beaten'}${needed}`
 }
 
+/** Where the same passes claim other distances: each has its own dossier, from the same readings. */
+function claimsLine(m: Manifest): [string, string][] {
+  const others = (m.result.claims ?? []).filter(c => c.label !== m.course.distance.label)
+  if (!others.length) return []
+  const words = others.map(c => `${c.label} (${c.nominalM} m${c.kmh ? `, ${c.kmh} km/h` : ''})`).join('; ')
+  return [['Also claimed from these passes', `${words}: each in a dossier of its own, from the same readings`]]
+}
+
 export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
   const d = m.course.distance
   L.y -= 60
@@ -57,6 +65,7 @@ export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
     ['Time window', `${window?.ok ? 'within' : 'NOT within'}: ${window?.rule ?? ''}`],
     ['Valid under the profile', validLine(m)],
     ['Standing record', standingRecordLine(m)],
+    ...claimsLine(m),
     ['Dossier', `version ${m.dossier.version}, sealed ${utcStamp(m.dossier.issuedAt)} UTC`],
     ['Manifest SHA-256', seal.sha256],
   ])

@@ -1,10 +1,7 @@
-import Papa from 'papaparse'
-import { and, asc, desc, eq, inArray } from 'drizzle-orm'
+import { and, desc, eq, inArray } from 'drizzle-orm'
 import { cmp, fromDecimal } from '#shared/rules/exact'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
 import { localDate } from '#shared/rules/zoned'
-import { buildRecordBook } from '#shared/rules/record-book'
-import type { Manifest } from './manifest'
 import type { EventAccess } from '../auth/auth'
 import type { DecisionInput, HomologationInput } from '#shared/schemas/inspection'
 
@@ -30,15 +27,21 @@ export async function dossiersOf(attemptId: number) {
       reasons: tables.decisions.reasons,
       decidedAt: tables.decisions.decidedAt,
       signatureId: tables.decisions.signatureId,
+      withdrawal: tables.withdrawals,
+      homologation: tables.homologations,
     })
     .from(tables.dossiers)
     .leftJoin(tables.submissions, eq(tables.submissions.dossierId, tables.dossiers.id))
     .leftJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
+    .leftJoin(tables.withdrawals, eq(tables.withdrawals.dossierId, tables.dossiers.id))
+    .leftJoin(tables.homologations, eq(tables.homologations.dossierId, tables.dossiers.id))
     .where(eq(tables.dossiers.attemptId, attemptId))
     .orderBy(desc(tables.dossiers.version))
   return rows.map(r => ({
     id: r.d.id,
     version: r.d.version,
+    distanceId: r.d.distanceId,
+    distanceLabel: (r.d.manifest as { entry: { distanceLabel: string } }).entry.distanceLabel,
     manifestSha256: r.d.manifestSha256,
     pdfSha256: r.d.pdfSha256,
     pdfSize: r.d.pdfSize,
@@ -48,6 +51,10 @@ export async function dossiersOf(attemptId: number) {
     submittedAt: r.submittedAt,
     decision: r.decision
       ? { decision: r.decision, reasons: r.reasons, at: r.decidedAt, signatureId: r.signatureId }
+      : null,
+    withdrawal: r.withdrawal ? { reason: r.withdrawal.reason, at: r.withdrawal.withdrawnAt } : null,
+    homologation: r.homologation?.signatureId
+      ? { reference: r.homologation.reference, on: r.homologation.homologatedOn }
       : null,
   }))
 }
@@ -76,7 +83,7 @@ const emailsOf = async (eventId: number, role: 'official' | 'team', teamId?: num
 /** The team submits a sealed dossier: recorded first, then the officials are e-mailed the PDF. */
 export async function submitDossier(dossierId: number, userId: number) {
   const d = await dossierRow(dossierId)
-  const latest = await latestDossier(d.attemptId)
+  const latest = await latestDossier(d.attemptId, d.distanceId)
   if (latest!.id !== d.id)
     throw createError({
       statusCode: 409,
@@ -146,6 +153,9 @@ export async function decideDossier(
   if (!submitted) throw conflict('This dossier has not been submitted')
   const proof = await signerProof(user.id, input)
   const decision = await useDb().transaction(async (tx) => {
+    await tx.select({ id: tables.dossiers.id }).from(tables.dossiers).where(eq(tables.dossiers.id, dossierId))
+      .for('update')
+    await refuseIfWithdrawn(dossierId, tx)
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
       throw conflict(`This dossier was already ${existing.decision}`)
@@ -188,57 +198,6 @@ export async function decideDossier(
     })),
   )
   return decision
-}
-
-/**
- * The record book: the best ratified result per class and distance, and the ratified results a
- * best-per-day rule did not carry forward. Dates are the event's local dates of the runs.
- */
-export async function recordBook() {
-  const rows = await useDb()
-    .select({ d: tables.dossiers, h: tables.homologations })
-    .from(tables.decisions)
-    .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
-    .leftJoin(tables.homologations, eq(tables.homologations.dossierId, tables.dossiers.id))
-    .where(eq(tables.decisions.decision, 'ratified'))
-    .orderBy(asc(tables.decisions.id))
-  const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const book = buildRecordBook(rows.map(({ d, h }, order) => {
-    const m = d.manifest as Manifest
-    const lastRun = Math.max(...m.runs.filter(r => r.counted).map(r => Date.parse(r.startedAt)))
-    return {
-      attemptId: d.attemptId,
-      className: m.entry.className,
-      distanceLabel: m.entry.distanceLabel,
-      kmh: m.result.kmh!,
-      date: localDate(lastRun, m.event.timeZone),
-      bestPerDayOnly: m.profile.bestPerDayOnly?.value === true,
-      order,
-      extra: {
-        speedMph: m.result.mph!,
-        dossierUrl: `${site}/api/dossiers/${d.id}/pdf`,
-        certificateUrl: `${site}/api/dossiers/${d.id}/certificate`,
-        /** Ratified by the event's officials; homologated once the sanctioning body's reference is entered. */
-        status: h?.signatureId ? 'homologated' as const : 'ratified' as const,
-        homologation: h?.signatureId ? { reference: h.reference, on: h.homologatedOn } : null,
-        verifyUrl: `${site}/verify`,
-        machine: m.entry.machineName,
-        rider: m.entry.riderName,
-        team: m.entry.teamName,
-      },
-    }
-  }))
-  const row = (r: (typeof book.notCarriedForward)[number]['bestOfDay']) => ({
-    class: r.className,
-    distance: r.distanceLabel,
-    speedKmh: r.kmh,
-    date: r.date,
-    ...r.extra,
-  })
-  return {
-    records: book.records.map(r => ({ ...row(r), history: r.history.map(row) })),
-    notCarriedForward: book.notCarriedForward.map(r => ({ ...row(r), bestOfDay: row(r.bestOfDay) })),
-  }
 }
 
 export async function isRatified(dossierId: number) {
@@ -342,30 +301,4 @@ export async function homologate(
       .where(eq(tables.homologations.id, row.id)).returning()
     return signed!
   })
-}
-
-/**
- * The record book as CSV (RFC 4180 through papaparse): units in the headers, figures as published, one
- * row per record and one per previous holder (marked), so a spreadsheet reads the history too.
- */
-export function recordBookCsv(book: Awaited<ReturnType<typeof recordBook>>) {
-  type Row = (typeof book.records)[number]
-  const line = (r: Omit<Row, 'history'>, holder: 'current' | 'previous') => ({
-    'Class': r.class,
-    'Distance': r.distance,
-    'Speed (km/h)': r.speedKmh,
-    'Speed (mph)': r.speedMph,
-    'Date (local)': r.date,
-    'Machine': r.machine,
-    'Rider': r.rider,
-    'Team': r.team,
-    'Holder': holder,
-    'Status': r.status,
-    'Homologation reference': r.homologation?.reference ?? '',
-    'Dossier': r.dossierUrl,
-  })
-  const rows = book.records.flatMap(r => [line(r, 'current'), ...r.history.map(h => line(h, 'previous'))])
-  const fields = Object.keys(line(book.records[0] ?? ({} as Row), 'current')) as (keyof ReturnType<typeof line>)[]
-  // Headers even for an empty book.
-  return Papa.unparse({ fields, data: rows.map(r => fields.map(f => r[f])) }, { newline: '\r\n' })
 }

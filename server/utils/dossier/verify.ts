@@ -48,16 +48,22 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
 /** What became of an issued dossier: the current version or superseded, and any decision on it. */
 async function standingOf(d: typeof tables.dossiers.$inferSelect): Promise<NonNullable<Verification['standing']>> {
   const [newer] = await useDb().select({ version: tables.dossiers.version }).from(tables.dossiers)
-    .where(and(eq(tables.dossiers.attemptId, d.attemptId), gt(tables.dossiers.version, d.version)))
+    .where(and(
+      eq(tables.dossiers.attemptId, d.attemptId),
+      eq(tables.dossiers.distanceId, d.distanceId),
+      gt(tables.dossiers.version, d.version),
+    ))
     .orderBy(desc(tables.dossiers.version)).limit(1)
   const [decision] = await useDb().select().from(tables.decisions).where(eq(tables.decisions.dossierId, d.id))
+  const [withdrawal] = await useDb().select().from(tables.withdrawals).where(eq(tables.withdrawals.dossierId, d.id))
   const state = decision
     ? (decision.decision === 'ratified' ? 'ratified' : 'refused')
-    : newer ? 'superseded' : 'current'
+    : withdrawal ? 'withdrawn' : newer ? 'superseded' : 'current'
   const words = [
     decision ? `It was ${decision.decision}.` : '',
+    withdrawal ? `The team withdrew its claim: ${withdrawal.reason}` : '',
     newer ? `It is superseded: version ${newer.version} is the latest of this attempt.` : '',
-    !decision && !newer ? 'It is the latest version of this attempt, not yet decided.' : '',
+    !decision && !newer && !withdrawal ? 'It is the latest version of this attempt, not yet decided.' : '',
   ].filter(Boolean).join(' ')
   return { state, latestVersion: newer?.version ?? d.version, words }
 }

@@ -1,6 +1,8 @@
 import { evaluateAttempt, type AttemptResult } from '#shared/rules/attempt'
 import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { computeRun } from '#shared/rules/run-sheet'
+import { runCountsFor } from '#shared/rules/distances'
+import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { blocks, withSetAsides, type Finding } from '#shared/rules/findings'
@@ -58,35 +60,46 @@ type Attempt = EventDay['attempts'][number]
 /**
  * The record an attempt is measured against: the fastest for its class and distance that stood when
  * its first run started (a result ratified later does not count against it; one entered by hand always
- * stands).
+ * stands). A class with no record is vacant: the organiser's minimum for it, if one is set, stands instead.
  */
 function recordStandingAt(ix: DayIndex, attempt: Attempt, className: string, distanceLabel: string) {
   const firstRun = ix.day.runs.find(r => r.attemptId === attempt.id)
   const from = firstRun?.startedAt.getTime() ?? Number.POSITIVE_INFINITY
-  return ix.day.records
+  const standing = ix.day.records
     .filter(r => r.className === className && r.distanceLabel === distanceLabel)
     // A record set by this attempt's own ratification is never held against it.
     .filter(r => !r.setAt || (r.setAt.getTime() <= from && r.fromAttemptId !== attempt.id))
-    .reduce<typeof ix.day.records[number] | undefined>(
-      (best, r) => (!best || cmp(publishedInMs(r), publishedInMs(best)) > 0 ? r : best),
-      undefined,
-    )
+  const records = standing.filter(r => !r.minimum)
+  return (records.length ? records : standing).reduce<typeof ix.day.records[number] | undefined>(
+    (best, r) => (!best || cmp(publishedInMs(r), publishedInMs(best)) > 0 ? r : best),
+    undefined,
+  )
 }
 
-/** What an attempt is about: its entry, measured distance, course and the standing record. */
+/**
+ * What an attempt is about: its entry, the distances it claims (the first first), their course and the
+ * officials' set-asides.
+ */
 function attemptSetting(ix: DayIndex, attempt: Attempt) {
   const e = ix.entryById.get(attempt.entryId)!
-  const distance = ix.distanceById.get(e.entry.distanceId)!
-  const course = ix.courseById.get(distance.courseId)!
+  const claims = e.entry.distanceIds.map(id => ix.distanceById.get(id)).filter(d => d !== undefined)
+  const course = ix.courseById.get(claims[0]!.courseId)!
   const setAsides = ix.day.setAsides
     .filter(s => s.attemptId === attempt.id)
     .map(s => ({ ...s, at: s.createdAt.toISOString() }))
-  return { e, distance, course, setAsides, record: recordStandingAt(ix, attempt, e.entry.className, distance.label) }
+  return { e, claims, course, setAsides }
 }
 type Setting = ReturnType<typeof attemptSetting>
+type Distance = Setting['claims'][number]
 
-/** Each run of the attempt through the run-sheet engine, with its official time over the distance. */
-function computeRuns(ix: DayIndex, attempt: Attempt, { course, distance }: Setting) {
+/** One claimed distance of the attempt, with the record it is measured against. */
+function distanceSetting(ix: DayIndex, attempt: Attempt, setting: Setting, distance: Distance) {
+  return { ...setting, distance, record: recordStandingAt(ix, attempt, setting.e.entry.className, distance.label) }
+}
+type DistanceSetting = ReturnType<typeof distanceSetting>
+
+/** Each run of the attempt through the run-sheet engine: every distance of the course, every system. */
+function computeRuns(ix: DayIndex, attempt: Attempt, { course }: Setting) {
   const traps = ix.day.traps.filter(t => t.courseId === course.id)
   const distances = ix.day.distances.filter(d => d.courseId === course.id)
   return ix.day.runs.filter(r => r.attemptId === attempt.id).map((run) => {
@@ -102,17 +115,28 @@ function computeRuns(ix: DayIndex, attempt: Attempt, { course, distance }: Setti
       readings: readings.map(r => ({ id: r.id, trapId: r.trapId, systemId: r.systemId, ticks: r.ticks.toString() })),
       weather: weather ?? null,
     })
-    return { run, c, official: c.official[distance.id], readings, weather }
+    return { run, c, readings, weather }
   })
 }
-type ComputedRun = ReturnType<typeof computeRuns>[number]
+
+/**
+ * The runs as one distance sees them, with their official time over it: a run of the other start kind
+ * (a flying pass for a standing-start distance, or the reverse) has none.
+ */
+function runsFor(computed: ReturnType<typeof computeRuns>, distance: Distance) {
+  return computed.map(r => ({
+    ...r,
+    official: runCountsFor(distance.start, r.run.start) ? r.c.official[distance.id] : undefined,
+  }))
+}
+type ComputedRun = ReturnType<typeof runsFor>[number]
 
 /**
  * The instant a run left the measured distance: the time of day at its last trap (the exit trap out,
  * the entry trap back) on the system whose time counts, on the run's date in the event's zone, rolling
  * over midnight when the reading is earlier in the day than the start.
  */
-function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Setting['distance']) {
+function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Distance) {
   const lastTrap = r.run.direction === 'out' ? distance.exitTrapId : distance.entryTrapId
   const reading = r.readings.find(g => g.trapId === lastTrap && g.systemId === r.official!.systemId)
   if (!reading) return undefined
@@ -132,7 +156,12 @@ function impoundCheckIn(ix: DayIndex, attempt: Attempt) {
 }
 
 /** The pair by the profile, from the first two runs that finished with an official time. */
-function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: Setting, counted: ComputedRun[]) {
+function evaluateCounted(
+  ix: DayIndex,
+  attempt: Attempt,
+  { distance, record }: DistanceSetting,
+  counted: ComputedRun[],
+) {
   if (!counted.length) return null
   return evaluateAttempt({
     profile: attempt.profile,
@@ -144,7 +173,7 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
       finishedAtMs: leftDistanceAt(ix, r, distance),
     })),
     // Compared in the unit the record was published in, at its exact decimal.
-    record: record ? { value: fromDecimal(record.speed), unit: record.unit } : undefined,
+    record: record ? { value: fromDecimal(record.speed), unit: record.unit, minimum: record.minimum } : undefined,
     timeZone: ix.day.event.timeZone,
     timeDecimals: ix.timeDecimals,
     impoundCheckInMs: impoundCheckIn(ix, attempt),
@@ -154,7 +183,7 @@ function evaluateCounted(ix: DayIndex, attempt: Attempt, { distance, record }: S
 /** One run as the pages show it. */
 function liveRun(
   ix: DayIndex,
-  { distance, setAsides }: Setting,
+  { distance, setAsides }: DistanceSetting,
   r: ComputedRun,
   counted: boolean,
   withReadings: boolean,
@@ -164,9 +193,12 @@ function liveRun(
     ? c.systems.find(s => s.systemId === official.systemId)!.distances.find(d => d.distanceId === distance.id)!
     : null
   const chartSystem = c.systems.find(s => s.role === 'primary') ?? c.systems[0]
+  // A finding about another measured distance (its cross-check) belongs to that distance's result.
+  const own = c.findings.filter(f => !f.distanceId || f.distanceId === distance.id)
   return {
     id: run.id,
     direction: run.direction,
+    start: run.start,
     startedAt: run.startedAt.toISOString(),
     status: run.status,
     abortedReason: run.abortedReason,
@@ -182,6 +214,7 @@ function liveRun(
           time: formatTimeOfDay(g.ticks, ix.tpsOf.get(g.systemId)!),
         }))
       : [],
+    // Every distance of the course, as the timekeeper resolves them; the findings are the distance's own.
     crossChecks: c.crossChecks,
     wind: c.wind,
     weather: weather
@@ -192,7 +225,7 @@ function liveRun(
           pressureHpa: weather.pressureHpa,
         }
       : null,
-    findings: withSetAsides(c.findings, run.id, setAsides),
+    findings: withSetAsides(own, run.id, setAsides),
   }
 }
 
@@ -201,7 +234,12 @@ function liveRun(
  * nominal, or longer beyond the tolerance) and its gradient under the attempt's profile; the rider's
  * licence on each day a counted run was made, in the event's zone.
  */
-function settingFindings(ix: DayIndex, attempt: Attempt, { e, distance, course }: Setting, counted: ComputedRun[]) {
+function settingFindings(
+  ix: DayIndex,
+  attempt: Attempt,
+  { e, distance, course }: DistanceSetting,
+  counted: ComputedRun[],
+) {
   const trap = (id: number) => ix.day.traps.find(t => t.id === id)!
   const survey = checkMeasuredDistance(
     attempt.profile,
@@ -210,7 +248,7 @@ function settingFindings(ix: DayIndex, attempt: Attempt, { e, distance, course }
     distance.nominalM,
     course.surveyToleranceMm,
   )
-  const findings: Finding[] = [...survey.findings]
+  const findings: Finding[] = [...survey.findings, ...classFindings(ix, attempt, e, counted)]
   const zone = ix.day.event.timeZone
   const late = [...new Set(counted.map(r => localDate(r.run.startedAt.getTime(), zone)))]
     .filter(d => d > e.rider.licenceExpires)
@@ -223,6 +261,34 @@ function settingFindings(ix: DayIndex, attempt: Attempt, { e, distance, course }
     })
   }
   return findings
+}
+
+/**
+ * The machine against the class its entry claims, as measured at the inspection in force when the first
+ * counted run started (the latest signed before it): propulsion and division as entered, mass and
+ * capacity as measured, figures side by side. A profile with no class list asks nothing.
+ */
+function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted: ComputedRun[]): Finding[] {
+  const c = findClass(classesOf(attempt.profile), e.entry.className)
+  if (!c) return []
+  const at = counted[0]!.run.startedAt.getTime()
+  const signed = ix.day.inspected.filter(i => i.machineId === e.machine.id && i.signedAt.getTime() <= at)
+  const inForce = signed.at(-1)?.inspectionId
+  const figure = (key: string) => signed.find(i => i.inspectionId === inForce && i.itemKey === key)?.value ?? null
+  const problems = classProblems(c, {
+    power: e.machine.power as 'electric' | 'combustion',
+    division: (e.machine.division as Division | null) ?? null,
+    massKg: figure('mass'),
+    capacityCm3: figure('engine-capacity'),
+  })
+  if (!problems.length) return []
+  return [{
+    code: 'class.outside',
+    severity: 'fail',
+    message: `The machine is outside its class ${c.label}${inForce ? ` (inspection #${inForce})` : ''}: `
+      + `${problems.join('; ')}.`,
+    rule: { name: 'Class', value: c.label, source: attempt.profile.classes!.source, certainty: c.certainty },
+  }]
 }
 
 /** The pair's figures, window and margin as the pages show them. */
@@ -255,13 +321,18 @@ function liveResult(ix: DayIndex, evaluation: AttemptResult | null, findings: Fi
   }
 }
 
-function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
-  const setting = attemptSetting(ix, attempt)
+/** The result of one claimed distance from the attempt's runs: its pair, window, record and findings. */
+function liveDistance(
+  ix: DayIndex,
+  attempt: Attempt,
+  setting: DistanceSetting,
+  computed: ReturnType<typeof computeRuns>,
+  withReadings: boolean,
+) {
   const { e, distance, record } = setting
-  const runs = computeRuns(ix, attempt, setting)
+  const runs = runsFor(computed, distance)
   const counted = runs.filter(r => r.run.status !== 'aborted' && r.official)
   const pair = new Set(counted.slice(0, 2).map(x => x.run.id))
-  const { profile } = attempt
   const evaluation = evaluateCounted(ix, attempt, setting, counted)
   const liveRuns = runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings))
   const findings = withSetAsides(
@@ -275,7 +346,6 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
     && ![...findings, ...liveRuns.filter(r => r.counted).flatMap(r => r.findings)]
       .some(f => blocks(f) && !f.code.startsWith('record.'))
   return {
-    id: attempt.id,
     entry: {
       id: e.entry.id,
       teamId: e.entry.teamId,
@@ -283,20 +353,51 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean) {
       machineName: e.machine.name,
       riderName: e.rider.name,
       className: e.entry.className,
+      distanceId: distance.id,
       distanceLabel: distance.label,
       distanceM: distance.nominalM,
+      distanceStart: distance.start,
     },
-    profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
-    standingRecord: record ? { speed: record.speed, unit: record.unit } : null,
+    standingRecord: record ? { speed: record.speed, unit: record.unit, minimum: record.minimum } : null,
     runs: liveRuns,
     ...liveResult(ix, evaluation, findings, valid),
+  }
+}
+
+/**
+ * An attempt as the pages show it: the result of the distance asked for (else the first it claims) at
+ * the top, and the result of every claimed distance in `distances`, all from the same readings.
+ */
+function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean, distanceId?: number) {
+  const setting = attemptSetting(ix, attempt)
+  const computed = computeRuns(ix, attempt, setting)
+  const results = setting.claims.map(d => liveDistance(
+    ix, attempt, distanceSetting(ix, attempt, setting, d), computed, withReadings,
+  ))
+  const shown = results.find(r => r.entry.distanceId === distanceId) ?? results[0]!
+  const { profile } = attempt
+  return {
+    id: attempt.id,
+    ...shown,
+    profile: { id: profile.id, version: profile.version, name: profile.name, decimals: profile.figures.value.decimals },
+    distances: results.map(({ entry, runs, findings: _, ...r }) => ({
+      distanceId: entry.distanceId,
+      label: entry.distanceLabel,
+      nominalM: entry.distanceM,
+      start: entry.distanceStart,
+      countedRunIds: runs.filter(x => x.counted).map(x => x.id),
+      ...r,
+    })),
     sheet: sheetState(ix.day, attempt.id),
     impoundCheckedInAt: ix.day.impounds.find(i => i.attemptId === attempt.id)?.checkedInAt.toISOString() ?? null,
   }
 }
 
-/** Computes every run and attempt of the event from its stored readings with the shared engine. */
-export function computeLive(day: EventDay, options: { readings?: boolean } = {}) {
+/**
+ * Computes every run and attempt of the event from its stored readings with the shared engine; with
+ * `distanceId`, an attempt claiming that distance shows its result at the top.
+ */
+export function computeLive(day: EventDay, options: { readings?: boolean, distanceId?: number } = {}) {
   const ix = indexDay(day)
-  return day.attempts.map(attempt => liveAttempt(ix, attempt, !!options.readings))
+  return day.attempts.map(attempt => liveAttempt(ix, attempt, !!options.readings, options.distanceId))
 }

@@ -104,6 +104,31 @@ function setAsideRows(eventId: number) {
     .orderBy(asc(t.setAsides.id))
 }
 
+/**
+ * The figures a class is judged on (mass, engine capacity) of every signed inspection of the event,
+ * with the machine it cleared and when it was signed, oldest first.
+ */
+function inspectedFigureRows(eventId: number) {
+  const t = tables
+  return useDb()
+    .select({
+      inspectionId: t.inspections.id,
+      machineId: t.entries.machineId,
+      signedAt: t.signatures.signedAt,
+      itemKey: t.inspectionAnswers.itemKey,
+      value: t.inspectionAnswers.value,
+    })
+    .from(t.inspections)
+    .innerJoin(t.entries, eq(t.entries.id, t.inspections.entryId))
+    .innerJoin(t.signatures, eq(t.signatures.id, t.inspections.signatureId))
+    .leftJoin(t.inspectionAnswers, and(
+      eq(t.inspectionAnswers.inspectionId, t.inspections.id),
+      inArray(t.inspectionAnswers.itemKey, ['mass', 'engine-capacity']),
+    ))
+    .where(eq(t.inspections.eventId, eventId))
+    .orderBy(asc(t.signatures.signedAt))
+}
+
 /** Impound check-ins after qualifying runs. */
 function impoundRows(eventId: number) {
   const t = tables
@@ -125,7 +150,7 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   if (!event) throw notFound('No such event')
   const courseIds = db.select({ id: t.courses.id }).from(t.courses).where(eq(t.courses.eventId, eventId))
   const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures,
-    setAsides, impounds] = await Promise.all([
+    setAsides, impounds, inspected] = await Promise.all([
     db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
     db.select().from(t.traps).where(inArray(t.traps.courseId, courseIds)).orderBy(asc(t.traps.positionM)),
     db.select().from(t.measuredDistances).where(inArray(t.measuredDistances.courseId, courseIds))
@@ -140,9 +165,10 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
     sheetSignatureRows(eventId),
     setAsideRows(eventId),
     impoundRows(eventId),
+    inspectedFigureRows(eventId),
   ])
   const day = { event, courses, traps, distances, systems, records, attempts, runs, readings, signatures, entries }
-  return { ...day, setAsides, impounds, weather: weather.map(w => w.weather) }
+  return { ...day, setAsides, impounds, inspected, weather: weather.map(w => w.weather) }
 }
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>

@@ -12,10 +12,16 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
   const trapLabel = new Map(day.traps.map(t => [t.id, t.label]))
   const system = new Map(day.systems.map(s => [s.id, s]))
   const runs = day.runs.filter(r => r.attemptId === attemptId)
+  const { distanceId: _, distanceStart: __, ...entry } = live.entry
+  // Fields added later appear only where they say something, so a sheet signed before them still hashes
+  // as it was signed: the start of a standing-start run, the results of an entry claiming several distances.
+  const more = live.distances.length > 1
+    ? { results: live.distances.map(d => ({ distance: d.label, result: d.result, window: d.window })) }
+    : {}
   return {
     attempt: attemptId,
     event: { id: day.event.id, name: day.event.name, timeZone: day.event.timeZone },
-    entry: live.entry,
+    entry,
     profile: attempt.profile,
     timingSystems: day.systems.map(s => ({
       id: s.id,
@@ -28,6 +34,7 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
     runs: runs.map(r => ({
       id: r.id,
       direction: r.direction,
+      ...(r.start === 'flying' ? {} : { start: r.start }),
       startedAt: r.startedAt.toISOString(),
       status: r.status,
       abortedReason: r.abortedReason,
@@ -49,6 +56,7 @@ export function timingSheetContent(day: EventDay, attemptId: number) {
     result: live.result,
     window: live.window,
     findings: live.findings.map(f => f.code),
+    ...more,
   }
 }
 

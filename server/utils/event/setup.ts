@@ -1,7 +1,8 @@
-import { and, eq, inArray } from 'drizzle-orm'
+import { and, eq, inArray, ne } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import { classesOf, findClass, type RecordClass } from '#shared/rules/classes'
+import { claimProblems, defaultRunStart } from '#shared/rules/distances'
 import type { RuleProfile } from '#shared/rules/profile'
 import type {
   ClassesAdaptInput,
@@ -135,15 +136,36 @@ export async function eventClassLabel(eventId: number, label: string, db: Tx | D
   return found.label
 }
 
-/** A team enters a machine and rider (new or already entered by the same team) for a class and distance. */
-export async function addEntry(eventId: number, teamId: number, input: EntryInput) {
+/**
+ * The distances an entry claims, checked against the course and the event's profile: distances of this
+ * event, each one the profile lists, all on one course, a standing start beginning at the start line.
+ */
+async function claimedDistances(eventId: number, ids: number[]) {
   const db = useDb()
-  const [distance] = await db
-    .select({ id: tables.measuredDistances.id })
+  const rows = await db
+    .select({ d: tables.measuredDistances, entryTrapPositionM: tables.traps.positionM })
     .from(tables.measuredDistances)
     .innerJoin(tables.courses, eq(tables.courses.id, tables.measuredDistances.courseId))
-    .where(and(eq(tables.measuredDistances.id, input.distanceId), eq(tables.courses.eventId, eventId)))
-  if (!distance) throw unprocessable('distanceId', 'is not a measured distance of this event')
+    .innerJoin(tables.traps, eq(tables.traps.id, tables.measuredDistances.entryTrapId))
+    .where(and(inArray(tables.measuredDistances.id, ids), eq(tables.courses.eventId, eventId)))
+  const unknown = ids.filter(id => !rows.some(r => r.d.id === id))
+  if (unknown.length) {
+    const named = unknown.map(i => `#${i}`).join(', ')
+    throw unprocessable('distanceIds', `${named} is not a measured distance of this event`)
+  }
+  const [event] = await db.select({ profile: tables.events.profile }).from(tables.events)
+    .where(eq(tables.events.id, eventId))
+  const claims = ids.map(id => rows.find(r => r.d.id === id)!)
+    .map(({ d, entryTrapPositionM }) => ({ ...d, entryTrapPositionM }))
+  const problems = claimProblems(event!.profile, claims)
+  if (problems.length) throw unprocessable('distanceIds', problems.map(p => p.message).join('; '))
+  return ids
+}
+
+/** A team enters a machine and rider (new or already entered by the same team) for a class and distances. */
+export async function addEntry(eventId: number, teamId: number, input: EntryInput) {
+  const db = useDb()
+  const distanceIds = await claimedDistances(eventId, input.distanceIds ?? [input.distanceId!])
   return db.transaction(async (tx) => {
     let machineId = input.machineId
     if (machineId) {
@@ -180,7 +202,7 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
     const className = await eventClassLabel(eventId, input.className, tx)
     const [entry] = await tx
       .insert(tables.entries)
-      .values({ eventId, teamId, machineId, riderId, className, distanceId: input.distanceId })
+      .values({ eventId, teamId, machineId, riderId, className, distanceId: distanceIds[0]!, distanceIds })
       .returning()
     return entry!
   })
@@ -256,17 +278,35 @@ async function newAttempt(tx: Tx, eventId: number, entryId: number) {
 export async function startRun(eventId: number, input: StartRunInput, userId: number) {
   return useDb().transaction(async (tx) => {
     const entry = await lockClearedEntry(tx, eventId, input.entryId)
+    const start = input.start ?? defaultRunStart(await claimStarts(tx, entry.distanceIds))
     const attempt = (await openAttempt(tx, eventId, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
+    await refuseMixedStarts(tx, attempt.id, start)
     const [run] = await tx
       .insert(tables.runs)
       .values({
         eventId,
         attemptId: attempt.id,
         direction: input.direction,
+        start,
         startedAt: input.startedAt ? new Date(input.startedAt) : new Date(),
         createdBy: userId,
       })
       .returning()
     return run!
   })
+}
+
+const claimStarts = (tx: Tx, ids: number[]) =>
+  tx.select({ start: tables.measuredDistances.start }).from(tables.measuredDistances)
+    .where(inArray(tables.measuredDistances.id, ids))
+
+/** The runs of one attempt are all flying passes or all standing starts: a pair is made of one kind. */
+async function refuseMixedStarts(tx: Tx, attemptId: number, start: 'flying' | 'standing') {
+  const [other] = await tx.select({ id: tables.runs.id, start: tables.runs.start }).from(tables.runs)
+    .where(and(eq(tables.runs.attemptId, attemptId), ne(tables.runs.start, start), ne(tables.runs.status, 'aborted')))
+  if (other) {
+    const kind = other.start === 'standing' ? 'standing start' : 'flying pass'
+    throw unprocessable('start', `run #${other.id} of this attempt is a ${kind}; finish or abort the attempt's `
+      + 'pair before a run of the other kind')
+  }
 }

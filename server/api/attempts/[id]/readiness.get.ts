@@ -1,7 +1,18 @@
-// What the dossier of this attempt still needs, each item with where to fix it.
+import { claimedDistanceSchema } from '#shared/schemas/event-day'
+
+// What the dossier of this attempt (for one claimed distance) still needs, each item with where to fix it.
 export default defineEventHandler(async (event) => {
   const access = await requireRoleOn(event, 'attempt', 'any')
   await assertOwnAttempt(access, access.recordId)
-  const r = await readinessOf(access.eventId, access.recordId)
-  return { attemptId: r.attemptId, ready: r.ready, items: r.items, result: r.live.result, entry: r.live.entry }
+  const { distanceId } = validQuery(event, claimedDistanceSchema)
+  const r = await readinessOf(access.eventId, access.recordId, distanceId)
+  return {
+    attemptId: r.attemptId,
+    distanceId: r.distance.id,
+    ready: r.ready,
+    items: r.items,
+    result: r.live.result,
+    entry: r.live.entry,
+    distances: r.live.distances.map(d => ({ distanceId: d.distanceId, label: d.label, start: d.start })),
+  }
 })

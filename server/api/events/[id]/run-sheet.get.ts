@@ -14,6 +14,8 @@ export default defineEventHandler(async (event) => {
       riderName: e.rider.name,
       className: e.entry.className,
       distanceId: e.entry.distanceId,
+      /** What its claims take: flying passes, standing starts, or either (claims of both kinds). */
+      starts: [...new Set(e.entry.distanceIds.map(id => day.distances.find(d => d.id === id)!.start))],
     })),
     traps: day.traps,
     systems: day.systems,
