@@ -1,5 +1,8 @@
 import { beforeAll, expect, it } from 'vitest'
-import { call, useTestServer } from '../support/api'
+import { call, url, useTestServer } from '../support/api'
+import { clearedEntry } from '../support/entries'
+import { form, pdf } from '../support/files'
+import { kilometreRun, minutesAgo } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 
 await useTestServer()
@@ -48,4 +51,40 @@ it('the class list changes on its own, keeping the profile\'s other adapted valu
   const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.organiser })).body
   expect(setup.event.profile.window.value.minutes).toBe(45) // the adapted window stays
   expect(setup.event.profile.version).toBe(window.body.version + 1)
+})
+
+it('a machine outside its class is a blocking finding; a class by mass asks for the scale\'s certificate', async () => {
+  // Electric automobiles go by mass (up to 500 kg / 500–1000 kg / over 1000 kg: from memory of Appendix D's
+  // classes). The test machine weighs 181.5 kg at its inspection (tests/support/entries.ts).
+  const car = await newTestEvent('intl-automobile', 'UTC', 'Electric automobile, up to 500 kg')
+  const who = { team: car.cookie.team, scrutineer: car.cookie.scrutineer, scrutineerPassword: 'first-password-1' }
+  const place = { eventId: car.eventId, timeZone: 'UTC', timekeeper: car.cookie.timekeeper, traps: car.traps, systems: car.systems }
+  const inClass = await clearedEntry(car.eventId, 'Light Car', {}, { ...who, entry: { className: 'Electric automobile, up to 500 kg' } })
+  const heavy = await clearedEntry(car.eventId, 'Misclassed Car', {}, { ...who, entry: { className: 'Electric automobile, over 1000 kg' } })
+  const live = async (attemptId: number) => (await call('GET', `/api/events/${car.eventId}/live`, { cookie: car.cookie.team })).body
+    .find((a: any) => a.id === attemptId)
+  const wrong = await kilometreRun(place, heavy, 'out', minutesAgo(20), { primary: [0, 10], backup: [0, 10] })
+  const outside = (await live(wrong.attemptId)).findings.find((f: any) => f.code === 'class.outside')
+  expect(outside).toMatchObject({ severity: 'fail' })
+  expect(outside.message).toContain('mass: measured 181.5 kg')
+  // Not an official's to set aside: the scrutineer's measurement decides.
+  const setAside = await call('POST', `/api/attempts/${wrong.attemptId}/set-asides`, {
+    cookie: car.cookie.official,
+    body: { code: 'class.outside', runId: null, reason: 'the scale was surely wrong that day', typedName: 'Test official', password: 'first-password-1' },
+  })
+  expect(setAside.status).toBe(422)
+  expect(setAside.body.data.issues[0].path).toBe('code')
+
+  // Left the line now, after the inspection that cleared it (the one readiness judges the run on).
+  const right = await kilometreRun(place, inClass, 'out', Math.ceil(Date.now() / 1000) * 1000, { primary: [0, 10], backup: [0, 10] })
+  expect((await live(right.attemptId)).findings.map((f: any) => f.code)).not.toContain('class.outside')
+  const scale = async () => (await call('GET', `/api/attempts/${right.attemptId}/readiness`, { cookie: car.cookie.team })).body
+    .items.find((i: any) => i.key === 'scale')
+  expect((await scale()).met).toBe(false)
+  const inspections = (await call('GET', `/api/events/${car.eventId}/inspections`, { cookie: car.cookie.scrutineer })).body
+  const inspectionId = inspections.find((e: any) => e.id === inClass).inspectionId
+  const body = form({ kind: 'scale-certificate', inspectionId }, { name: 'scale.pdf', bytes: pdf('scale certificate'), type: 'application/pdf' })
+  const up = await fetch(url(`/api/events/${car.eventId}/evidence`), { method: 'POST', headers: { cookie: car.cookie.scrutineer }, body })
+  expect(up.status, await up.clone().text()).toBe(201)
+  expect(await scale()).toMatchObject({ met: true, detail: `scale.pdf, on inspection #${inspectionId}` })
 })

@@ -8,9 +8,9 @@ type Role = 'organiser' | 'timekeeper' | 'scrutineer' | 'official' | 'team'
  * An event of the test's own under a library rule profile, in a time zone of its choosing: a course
  * with a flying kilometre between two traps, two calibrated timing systems, its own people (one per
  * role, the team's named "Test Team") and a standing record of 400.000 km/h for the partially
- * streamlined electric class. Invented set-up, for the test only.
+ * streamlined electric class (or the class named). Invented set-up, for the test only.
  */
-export async function newTestEvent(profileId: string, timeZone: string) {
+export async function newTestEvent(profileId: string, timeZone: string, recordClass = 'Electric, partially streamlined') {
   const admin = await login(demoEmail('admin'))
   const today = localDate(Date.now(), timeZone)
   const organiserEmail = unique('organiser')
@@ -41,7 +41,7 @@ export async function newTestEvent(profileId: string, timeZone: string) {
   const primary = await post('timing-systems', { name: 'Test primary', role: 'primary', ticksPerSecond: 10_000, ...calibration })
   const backup = await post('timing-systems', { name: 'Test backup', role: 'backup', ticksPerSecond: 1000, ...calibration })
   await post('records', {
-    className: 'Electric, partially streamlined', distanceLabel: 'Flying kilometre', speed: '400.000', unit: 'km/h',
+    className: recordClass, distanceLabel: 'Flying kilometre', speed: '400.000', unit: 'km/h',
   })
   const organiserLogin: [string, string] = [organiserEmail, 'organiser-password-1']
   return { eventId, timeZone, cookie, organiserLogin, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }

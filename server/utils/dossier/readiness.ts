@@ -191,7 +191,8 @@ async function inspectedValue(inspectionId: number, itemKey: string) {
  * as measured at the inspection in force, side by side with the class's limits. A profile that lists no
  * classes (a copy frozen before classes were data) asks nothing here.
  */
-async function classItems({ attempt, entry, clearance, at }: AttemptFile): Promise<ReadinessItem[]> {
+async function classItems(file: AttemptFile): Promise<ReadinessItem[]> {
+  const { attempt, entry, clearance, at } = file
   const classes = classesOf(attempt.profile)
   if (!classes.length) return []
   const item = { key: 'class', label: `The machine fits its class (${entry.entry.className})`, fix: `${at}/entries` }
@@ -208,6 +209,24 @@ async function classItems({ attempt, entry, clearance, at }: AttemptFile): Promi
     ...item,
     met: !problems.length,
     detail: problems.length ? problems.join('; ') : 'propulsion, division, mass and capacity within the class',
+  }, ...scaleItems(file, !!c.massKg)]
+}
+
+/**
+ * Where the class goes by mass, the mass was weighed on a certified scale: the scale's certificate is
+ * attached to the inspection in force (domain notes: mass measured on a calibrated scale, with the
+ * scale's certificate as evidence).
+ */
+function scaleItems({ clearance, evidence, at }: AttemptFile, byMass: boolean): ReadinessItem[] {
+  if (!byMass) return []
+  const id = clearance.inspectionId
+  const cert = id ? evidence.find(e => e.kind === 'scale-certificate' && e.inspectionId === id) : undefined
+  return [{
+    key: 'scale',
+    label: 'The class goes by mass: the certificate of the scale it was weighed on',
+    fix: id ? `${at}/evidence?kind=scale-certificate&target=inspectionId:${id}` : `${at}/inspections`,
+    met: !!cert,
+    detail: cert ? `${cert.originalName}, on inspection #${id}` : `none attached to inspection #${id ?? '—'}`,
   }]
 }
 

@@ -265,15 +265,18 @@ function settingFindings(
 
 /**
  * The machine against the class its entry claims, as measured at the inspection in force when the first
- * counted run started (the latest signed before it): propulsion and division as entered, mass and
+ * counted run started (the latest signed before it, else its first): propulsion and division as entered, mass and
  * capacity as measured, figures side by side. A profile with no class list asks nothing.
  */
 function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted: ComputedRun[]): Finding[] {
   const c = findClass(classesOf(attempt.profile), e.entry.className)
   if (!c) return []
   const at = counted[0]!.run.startedAt.getTime()
-  const signed = ix.day.inspected.filter(i => i.machineId === e.machine.id && i.signedAt.getTime() <= at)
-  const inForce = signed.at(-1)?.inspectionId
+  const machine = ix.day.inspected.filter(i => i.machineId === e.machine.id)
+  // The inspection in force then; for a run typed in before any inspection (which the inspection item of
+  // readiness refuses on its own), the machine's first inspection still says what it measures.
+  const inForce = (machine.filter(i => i.signedAt.getTime() <= at).at(-1) ?? machine[0])?.inspectionId
+  const signed = machine
   const figure = (key: string) => signed.find(i => i.inspectionId === inForce && i.itemKey === key)?.value ?? null
   const problems = classProblems(c, {
     power: e.machine.power as 'electric' | 'combustion',

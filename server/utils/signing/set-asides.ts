@@ -15,16 +15,28 @@ export const setAsideContent = (s: SetAsideRow, officialName: string) => ({
   official: officialName,
 })
 
-/** The finding as the live results give it now: of the attempt, or of one of its counted runs. */
+/**
+ * The finding as the live results give it now: of the attempt, or of one of its counted runs, over any
+ * distance the attempt claims (the first where it stands).
+ */
 async function currentFinding(eventId: number, attemptId: number, input: SetAsideInput) {
   const day = await loadEventDay(eventId)
   const attempt = day.attempts.find(a => a.id === attemptId)
   if (!attempt) throw notFound('No such attempt')
-  const live = computeLive({ ...day, attempts: [attempt] })[0]!
-  const run = input.runId === null ? null : live.runs.find(r => r.id === input.runId && r.counted)
-  if (input.runId !== null && !run) throw fieldInvalid('runId', 'is not a counted run of this attempt')
-  const finding = (run ? run.findings : live.findings).find(f => f.code === input.code)
-  if (!finding) throw fieldInvalid('code', `is not a finding of this ${run ? 'run' : 'attempt'} now`)
+  const first = computeLive({ ...day, attempts: [attempt] })[0]!
+  const views = [first, ...first.distances.slice(1)
+    .map(d => computeLive({ ...day, attempts: [attempt] }, { distanceId: d.distanceId })[0]!)]
+  const found = views.map((live) => {
+    const run = input.runId === null ? null : live.runs.find(r => r.id === input.runId && r.counted)
+    const findings = run ? run.findings : input.runId === null ? live.findings : []
+    return { live, run, finding: findings.find(f => f.code === input.code) }
+  })
+  if (input.runId !== null && !found.some(x => x.run)) {
+    throw fieldInvalid('runId', 'is not a counted run of this attempt')
+  }
+  const { finding, live } = found.find(x => x.finding) ?? { finding: undefined, live: first }
+  const where = input.runId === null ? 'attempt' : 'run'
+  if (!finding) throw fieldInvalid('code', `is not a finding of this ${where} now`)
   if (!mayBeSetAside(finding)) {
     throw fieldInvalid('code', 'cannot be set aside: only a failing finding about how the runs were made or '
       + 'measured can be, never whether the result beats the record')
