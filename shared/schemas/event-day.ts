@@ -101,6 +101,8 @@ export const standingRecordSchema = z.object({
   unit: z.enum(RECORD_UNITS, { error: 'must be km/h or mph' }),
   setOn: day.optional(),
   note: z.string().trim().max(300).default(''),
+  /** A minimum for a vacant class (a first record must reach it), not a record. */
+  minimum: z.preprocess(v => (v === 'true' ? true : v === 'false' || v === '' ? false : v), z.boolean().default(false)),
 })
 export type StandingRecordInput = z.infer<typeof standingRecordSchema>
 

@@ -4,6 +4,7 @@ import Papa from 'papaparse'
 import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { minutesAgo, kilometreRun } from '../support/runs'
+import { newTestEvent } from '../support/test-event'
 import { pdfText } from '../support/pdf-tools'
 
 await useTestServer()
@@ -61,6 +62,18 @@ describe('the record book as a registry', () => {
     expect(km.required).toEqual({ figure: '250.000', unit: 'km/h' })
     // The mile of that class has neither record nor minimum: nothing to reach (and no mile readings yet).
     expect(live.distances.find((d: any) => d.label === 'Flying mile').standingRecord).toBeNull()
+  })
+
+  it('an organiser sets a vacant class\'s minimum in the event\'s record book', async () => {
+    const event = await newTestEvent('intl-motorcycle', 'UTC')
+    const post = (body: Record<string, unknown>) => call('POST', `/api/events/${event.eventId}/records`, { cookie: event.cookie.organiser, body })
+    // An invented minimum, for the test: 120.5 mph for the unstreamlined class over the mile.
+    const set = await post({ className: 'Electric, unstreamlined', distanceLabel: 'Flying mile', speed: '120.500', unit: 'mph', minimum: 'true' })
+    expect(set.status, JSON.stringify(set.body)).toBe(201)
+    expect(set.body.minimum).toBe(true)
+    const vacant = (await book()).vacant.filter(slot('Electric, unstreamlined', 'Flying mile'))
+    expect(vacant.map((v: any) => v.minimum)).toContainEqual({ speed: '120.500', unit: 'mph' })
+    expect((await post({ className: 'Electric, unstreamlined', distanceLabel: 'Flying mile', speed: '1', unit: 'mph', minimum: 'perhaps' })).body.data.issues[0].path).toBe('minimum')
   })
 
   it('filters by profile, class, distance, status and year, and searches; bad filters name the field', async () => {
