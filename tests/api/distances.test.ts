@@ -244,6 +244,16 @@ describe('standing start against flying pass', { shuffle: false }, () => {
     })
     expect(mixed.status).toBe(422)
     expect(mixed.body.data.issues[0].path).toBe('start')
+    // An entry that claims only the flying kilometre never starts from rest.
+    const flyingOnly = await clearedEntry(event.eventId, 'Flying Only', {}, {
+      team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: password, claims: ['Flying kilometre'],
+    })
+    const standing = await call('POST', `/api/events/${event.eventId}/runs`, {
+      cookie: event.cookie.timekeeper,
+      body: { entryId: flyingOnly, direction: 'out', start: 'standing' },
+    })
+    expect(standing.status).toBe(422)
+    expect(standing.body.data.issues[0]).toMatchObject({ path: 'start', message: 'the entry claims no standing-start distance' })
     await runThrough(place, entryId, 'back', minutesAgo(20), { 'K-out': 0, 'K-in': 9, 'Q': 15, 'Line': 19 }, 'flying')
     const a = await live(out.attemptId)
     const km = a.distances.find((d: any) => d.label === 'Flying kilometre')

@@ -278,7 +278,11 @@ async function newAttempt(tx: Tx, eventId: number, entryId: number) {
 export async function startRun(eventId: number, input: StartRunInput, userId: number) {
   return useDb().transaction(async (tx) => {
     const entry = await lockClearedEntry(tx, eventId, input.entryId)
-    const start = input.start ?? defaultRunStart(await claimStarts(tx, entry.distanceIds))
+    const claims = await claimStarts(tx, entry.distanceIds)
+    const start = input.start ?? defaultRunStart(claims)
+    if (!claims.some(c => c.start === start)) {
+      throw unprocessable('start', `the entry claims no ${start === 'standing' ? 'standing-start' : 'flying'} distance`)
+    }
     const attempt = (await openAttempt(tx, eventId, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
     await refuseMixedStarts(tx, attempt.id, start)
     const [run] = await tx
