@@ -50,6 +50,10 @@ export type SignedKind = (typeof SIGNED_KINDS)[number]
 export const RECORD_UNITS = ['km/h', 'mph'] as const
 export type RecordUnit = (typeof RECORD_UNITS)[number]
 
+/** What became of a claim (a submitted dossier): awaiting the officials, decided, or withdrawn by the team. */
+export const CLAIM_STATUSES = ['claimed', 'ratified', 'homologated', 'refused', 'withdrawn'] as const
+export type ClaimStatus = (typeof CLAIM_STATUSES)[number]
+
 /** The officials' decision on a submitted dossier. */
 export const DECISIONS = ['ratified', 'refused'] as const
 export type Decision = (typeof DECISIONS)[number]

@@ -1,4 +1,4 @@
-import { cmp, fromDecimal } from './exact'
+import { cmp, fromDecimal, ZERO } from './exact'
 import type { MeasuredDistanceSpec, RuleProfile } from './profile'
 import type { StartKind } from '../constants'
 
@@ -60,7 +60,7 @@ export function claimProblems(profile: RuleProfile, claims: ClaimedDistance[]): 
     if (!profileDistanceOf(profile, c)) {
       problems.push(`${c.label} (${c.start}, ${c.nominalM} m) is not a distance of the profile, which lists: ${listed}`)
     }
-    if (c.start === 'standing' && cmp(fromDecimal(c.entryTrapPositionM), fromDecimal('0')) !== 0) {
+    if (c.start === 'standing' && cmp(fromDecimal(c.entryTrapPositionM), ZERO) !== 0) {
       problems.push(`${c.label} is a standing start: its entry trap must be the start line (0 m), `
         + `not ${c.entryTrapPositionM} m`)
     }

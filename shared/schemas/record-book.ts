@@ -1,24 +1,20 @@
 import { z } from 'zod'
+import { CLAIM_STATUSES } from '../constants'
 
-const text = z.string().trim().max(120).optional()
+/** An empty filter means any. */
+const any = <S extends z.ZodType>(s: S) => z.preprocess(v => (v === '' ? undefined : v), s.optional())
+const text = any(z.string().trim().max(120))
 
-/** The public registry's filters and search; an empty value means any. */
+/** The public registry's filters and search. */
 export const recordBookQuerySchema = z.object({
   profile: text,
   class: text,
   distance: text,
-  status: z.enum(['claimed', 'ratified', 'homologated', 'refused', 'withdrawn']).optional(),
-  year: z.coerce.number().int().min(1900, { error: 'a year such as 2026' }).max(2999).optional(),
+  status: any(z.enum(CLAIM_STATUSES)),
+  year: any(z.coerce.number().int().min(1900, { error: 'a year such as 2026' }).max(2999)),
   q: text,
-}).transform(q => Object.fromEntries(Object.entries(q).filter(([, v]) => v !== '' && v !== undefined)))
-export type RecordBookQuery = z.infer<typeof recordBookQuerySchema> & {
-  profile?: string
-  class?: string
-  distance?: string
-  status?: string
-  year?: number
-  q?: string
-}
+})
+export type RecordBookQuery = z.infer<typeof recordBookQuerySchema>
 
 /** The team withdraws a submitted claim before the officials decide. */
 export const withdrawalSchema = z.object({

@@ -1,18 +1,16 @@
 import { asc, desc, eq, isNull } from 'drizzle-orm'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
-import { cmp, toFixed } from '#shared/rules/exact'
+import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { localDate } from '#shared/rules/zoned'
 import { buildRecordBook } from '#shared/rules/record-book'
 import { profiles } from '#shared/rules/profiles'
+import { CLAIM_STATUSES, type ClaimStatus } from '#shared/constants'
 import type { RecordBookQuery } from '#shared/schemas/record-book'
 import type { Manifest } from './manifest'
 
 /** The profile a record is kept under: the library profile an event's copy was adapted from. */
 const profileName = (p: { id: string, name: string }) =>
   profiles[p.id.replace(/-adapted$/, '') as keyof typeof profiles]?.name ?? p.name
-
-/** The status of a claim, from what became of its submitted dossier. */
-export type ClaimStatus = 'claimed' | 'ratified' | 'homologated' | 'refused' | 'withdrawn'
 
 /**
  * Every submitted dossier with what became of it, oldest first; `latest` marks the latest submitted
@@ -136,7 +134,8 @@ export async function recordBook(query: RecordBookQuery = {}) {
   const records = book.records.map(({ extra, history: displaced }) => {
     const history = displaced.map(h => h.extra)
     const oldest = [extra, ...history].at(-1)!
-    const before = holders.filter(h => sameSlot(h, extra) && cmp(fromKmh(h.speedKmh), fromKmh(oldest.speedKmh)) < 0)
+    const slower = (h: { speedKmh: string }) => cmp(fromDecimal(h.speedKmh), fromDecimal(oldest.speedKmh)) < 0
+    const before = holders.filter(h => sameSlot(h, extra) && slower(h))
     return { ...extra, history: [...history, ...before] }
   })
   const vacant = entered.filter(e => e.r.minimum).map(enteredHolder)
@@ -152,8 +151,6 @@ export async function recordBook(query: RecordBookQuery = {}) {
     choices: bookChoices(all),
   }
 }
-
-const fromKmh = (s: string) => convertSpeed(publishedInMs({ speed: s, unit: 'km/h' }), 'm/s', 'km/h')
 
 type Row = { profile: string, class: string, distance: string, date: string, status?: string } & Partial<ClaimView>
 
@@ -189,7 +186,7 @@ function bookChoices(all: { records: Row[], claims: Row[], vacant: Row[] }) {
     classes: sorted(rows.map(r => r.class)),
     distances: sorted(rows.map(r => r.distance)),
     years: sorted(rows.map(r => r.date.slice(0, 4))).reverse(),
-    statuses: ['claimed', 'ratified', 'homologated', 'refused', 'withdrawn'] as ClaimStatus[],
+    statuses: [...CLAIM_STATUSES],
   }
 }
 

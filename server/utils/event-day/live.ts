@@ -276,13 +276,10 @@ function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted:
   // The inspection in force then; for a run typed in before any inspection (which the inspection item of
   // readiness refuses on its own), the machine's first inspection still says what it measures.
   const inForce = (machine.filter(i => i.signedAt.getTime() <= at).at(-1) ?? machine[0])?.inspectionId
-  const signed = machine
-  const figure = (key: string) => signed.find(i => i.inspectionId === inForce && i.itemKey === key)?.value ?? null
   const problems = classProblems(c, {
     power: e.machine.power as 'electric' | 'combustion',
     division: (e.machine.division as Division | null) ?? null,
-    massKg: figure('mass'),
-    capacityCm3: figure('engine-capacity'),
+    ...inspectedFigures(ix.day, inForce ?? null),
   })
   if (!problems.length) return []
   return [{

@@ -172,3 +172,10 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
 }
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>
+
+/** The mass and engine capacity an inspection measured (null where it did not), from the day as loaded. */
+export function inspectedFigures(day: Pick<EventDay, 'inspected'>, inspectionId: number | null) {
+  const figure = (key: string) =>
+    day.inspected.find(i => i.inspectionId === inspectionId && i.itemKey === key)?.value ?? null
+  return { massKg: figure('mass'), capacityCm3: figure('engine-capacity') }
+}
