@@ -86,6 +86,18 @@ function attributeValue(attrs: forge.asn1.Asn1[], type: string) {
   return found ? Buffer.from(parts(parts(found)[1]!)[0]!.value as string, 'binary') : null
 }
 
+/**
+ * The DER element at the start of a zero-padded placeholder: its own length says where it ends. (A
+ * signature may itself end in a zero byte, so the padding is never stripped by its value.)
+ */
+function derPrefix(padded: Buffer): Buffer {
+  const first = padded[1] ?? 0
+  if (first < 0x80) return padded.subarray(0, 2 + first)
+  const octets = first & 0x7f
+  if (octets < 1 || octets > 4) throw new Error('not a DER length')
+  return padded.subarray(0, 2 + octets + padded.readUIntBE(2, octets))
+}
+
 const pemToDer = (pem: string) => Buffer.from(pem.replace(/-----[^-]+-----|\s/g, ''), 'base64')
 
 /** Adds the signature dictionary's placeholder to a document before it is saved (no visible widget). */
@@ -143,7 +155,7 @@ export function checkPdfSignature(pdf: Uint8Array): PdfSignatureCheck {
   const signed = Buffer.concat([bytes.subarray(a, a + b), bytes.subarray(c, c + d)])
   let cert: X509Certificate | null = null
   try {
-    const cms = fromDer(Buffer.from(hex.slice(1, -1).replace(/(00)+$/, ''), 'hex'))
+    const cms = fromDer(derPrefix(Buffer.from(hex.slice(1, -1), 'hex')))
     const signedData = ((cms.value as forge.asn1.Asn1[])[1]!.value as forge.asn1.Asn1[])[0]!
     const parts = signedData.value as forge.asn1.Asn1[]
     const tagged = (list: forge.asn1.Asn1[]) =>
