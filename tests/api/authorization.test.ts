@@ -65,6 +65,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/entries': { expect: rolesOnly(422, 'team'), body: {} },
   'GET /api/events/[id]/setup': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/live': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/live-stream': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/run-sheet': { expect: rolesOnly(200, 'timekeeper', 'organiser', 'official') },
   'POST /api/events/[id]/runs': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/events/[id]/imports': { expect: rolesOnly(422, 'timekeeper'), body: {} },

@@ -30,6 +30,10 @@ export async function call<T = any>(method: string, path: string, options: { bod
     headers['content-type'] = 'application/json'
   }
   const r = await fetch(url(path), { method, headers, body, redirect: 'manual' })
+  if (r.headers.get('content-type')?.startsWith('text/event-stream')) {
+    await r.body?.cancel() // a stream of live results never ends: its status and headers are the answer
+    return { status: r.status, body: null as T, headers: r.headers }
+  }
   const text = await r.text()
   let parsed: unknown = text
   try {
