@@ -109,7 +109,7 @@ pg_up() {
     say "starting PostgreSQL ($name) on 127.0.0.1:$port…"
     as_pg "$PGBIN/pg_ctl" -D "$dir" -w -t 60 -l "$dir/server.log" \
       -o "-c listen_addresses=127.0.0.1 -p $port -c unix_socket_directories='' -c fsync=${PG_FSYNC:-on}" start >/dev/null \
-      || die "PostgreSQL did not start; see $dir/server.log"
+      || { tail -n 20 "$dir/server.log" >&2 2>/dev/null; die "PostgreSQL did not start; see $dir/server.log"; }
   fi
   "$PGBIN/pg_isready" -h 127.0.0.1 -p "$port" -t 30 >/dev/null || die "PostgreSQL does not answer on port $port."
   require_passwords "$dir" "$port"

@@ -1,10 +1,11 @@
 // 50 clients poll GET /api/events/:id/live for a fixed time; prints p50/p95 latency, requests per
 // second, and SQL statements per request (from PostgreSQL's own commit counter), for an event with
-// 20 runs and one with 200 runs, so that a count growing with the runs would show.
+// 20 runs and one with 200 runs, so that a count growing with the runs would show. Then 200 streams of
+// pushed results held open, and how long a write takes to reach every one of them.
 import { execFileSync } from 'node:child_process'
 import { parseArgs } from 'node:util'
 
-const { values } = parseArgs({ options: { url: { type: 'string' }, db: { type: 'string' }, psql: { type: 'string' }, clients: { type: 'string', default: '50' }, seconds: { type: 'string', default: '10' } } })
+const { values } = parseArgs({ options: { url: { type: 'string' }, db: { type: 'string' }, psql: { type: 'string' }, clients: { type: 'string', default: '50' }, seconds: { type: 'string', default: '10' }, streams: { type: 'string', default: '200' } } })
 const sql = q => execFileSync(values.psql, [values.db, '-tAc', q], { encoding: 'utf8' }).trim()
 
 /** An event of its own; seedRuns gives it N runs of 5 traps × 2 timing systems = 10 readings each. */
@@ -21,7 +22,7 @@ function seedEvent(name) {
     tm as (insert into teams (event_id, name) select id, 'Bench team' from ev returning id, event_id),
     m as (insert into machines (team_id, name, power, declared_mass_kg, division) select id, 'Bench machine', 'electric', 250, 'full' from tm returning id, team_id),
     rd as (insert into riders (team_id, name, licence_no, licence_expires) select id, 'Bench rider', 'B-1', '2027-01-01' from tm returning id),
-    e as (insert into entries (event_id, team_id, machine_id, rider_id, class_name, distance_id) select tm.event_id, tm.id, m.id, rd.id, 'bench', d.id from tm, m, rd, d returning id, event_id),
+    e as (insert into entries (event_id, team_id, machine_id, rider_id, class_name, distance_id, distance_ids) select tm.event_id, tm.id, m.id, rd.id, 'bench', d.id, array[d.id] from tm, m, rd, d returning id, event_id),
     mem as (insert into memberships (event_id, user_id, role) select ev.id, u.id, 'timekeeper' from ev, users u where u.email = 'timekeeper@trapline.test' returning 1)
     select id from ev`))
 }
@@ -85,6 +86,64 @@ async function load(eventId, cookie, mode) {
   return { requests: latencies.length, errors, rps: latencies.length / elapsed, p50: pct(latencies, 50), p95: pct(latencies, 95), perRequest: statements / Math.max(1, latencies.length + errors) }
 }
 
+/** Opens a stream of live results; resolves each message's arrival (and its size) to `onMessage`. */
+async function openStream(eventId, cookie, onMessage) {
+  const controller = new AbortController()
+  const r = await fetch(`${values.url}/api/events/${eventId}/live-stream`, { headers: { cookie }, signal: controller.signal })
+  const reader = r.body.pipeThrough(new TextDecoderStream()).getReader()
+  ;(async () => {
+    let buffer = ''
+    for (;;) {
+      const { value, done } = await reader.read()
+      if (done) return
+      buffer += value
+      for (let i = buffer.indexOf('\n\n'); i >= 0; i = buffer.indexOf('\n\n')) {
+        const block = buffer.slice(0, i)
+        buffer = buffer.slice(i + 2)
+        const data = block.split('\n').find(l => l.startsWith('data:'))
+        if (data) onMessage(JSON.parse(data.slice(5)), Buffer.byteLength(block))
+      }
+    }
+  })().catch(() => {})
+  return () => controller.abort()
+}
+
+/**
+ * `clients` streams held open on the event; then a weather reading is written (in PostgreSQL, as any app
+ * server's write would be) and the time until every client has the change is measured, five times.
+ */
+async function pushed(eventId, cookie, clients) {
+  let fullBytes = 0
+  let deltaBytes = 0
+  const arrivals = []
+  let waiting = null
+  const closers = await Promise.all(Array.from({ length: clients }, () => openStream(eventId, cookie, (msg, size) => {
+    if (msg.kind === 'full') fullBytes = size
+    if (msg.kind === 'delta' && waiting) {
+      deltaBytes = size
+      arrivals.push(performance.now() - waiting.t)
+      if (arrivals.length === clients) waiting.done()
+    }
+  })))
+  await new Promise(r => setTimeout(r, 1000))
+  const lastRun = sql(`select max(id) from runs where event_id = ${eventId}`)
+  const rounds = []
+  for (let i = 0; i < 5; i++) {
+    arrivals.length = 0
+    const done = new Promise((resolve) => {
+      waiting = { t: performance.now(), done: resolve }
+    })
+    sql(`insert into weather (run_id, wind_speed_ms, wind_from_deg, entered_by) values (${lastRun}, ${1 + i / 10}, 90, (select id from users limit 1))`)
+    await Promise.race([done, new Promise(r => setTimeout(r, 10_000))])
+    waiting = null
+    arrivals.sort((a, b) => a - b)
+    rounds.push({ received: arrivals.length, last: arrivals.at(-1) ?? Infinity, p50: pct(arrivals, 50) ?? Infinity })
+    await new Promise(r => setTimeout(r, 300))
+  }
+  closers.forEach(close => close())
+  return { fullBytes, deltaBytes, rounds }
+}
+
 const cookie = await login()
 for (const runs of [20, 200]) {
   const id = seedEvent(`Bench ${runs}`)
@@ -99,4 +158,11 @@ for (const runs of [20, 200]) {
       + `${r.requests} requests (${r.errors} errors), ${r.rps.toFixed(1)} req/s, p50 ${r.p50.toFixed(1)} ms, p95 ${r.p95.toFixed(1)} ms, `
       + `${r.perRequest.toFixed(2)} SQL statements per request`)
   }
+  const streams = Number(values.streams)
+  const p = await pushed(id, cookie, streams)
+  const worst = Math.max(...p.rounds.map(r => r.last))
+  console.log(`pushed live results, ${runs} runs, ${streams} open streams: first message ${(p.fullBytes / 1024).toFixed(0)} KiB, `
+    + `a change ${(p.deltaBytes / 1024).toFixed(1)} KiB; a write reached every client in `
+    + `${p.rounds.map(r => `${r.last.toFixed(0)} ms (${r.received}/${streams}, p50 ${r.p50.toFixed(0)} ms)`).join(', ')}; `
+    + `worst ${worst.toFixed(0)} ms ${worst < 1000 ? '(within 1 s)' : '(OVER 1 s)'}`)
 }

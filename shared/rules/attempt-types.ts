@@ -3,6 +3,7 @@ import type { Finding } from './findings'
 import type { RuleProfile, WindowAnchor } from './profile'
 import { convertSpeed, type SpeedUnit } from './units'
 import type { Direction } from '../constants'
+import type { LeaveBy } from './leave-by'
 
 export type { Direction }
 
@@ -78,6 +79,8 @@ export interface AttemptResult {
   impoundDeadlineMs: number | null
   /** Longest return-run time that still gives a figure that counts, at timeDecimals. */
   returnTargetS: Q | null
+  /** After one run: when the machine must leave the line for the return run, and what that rests on. */
+  leaveBy: LeaveBy | null
   findings: Finding[]
 }
 

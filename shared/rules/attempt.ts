@@ -13,6 +13,7 @@ import {
 } from './attempt-types'
 import { evaluateWindow, finishMs, windowFindings } from './attempt-window'
 import { impoundFindings } from './attempt-impound'
+import { leaveBy } from './leave-by'
 
 export type * from './attempt-types'
 export { returnTarget } from './attempt-record'
@@ -52,6 +53,9 @@ export function evaluateAttempt(input: AttemptInput): AttemptResult {
     beatsRecord: record?.beatsRecord == null ? null : record.beatsRecord && valid,
     meetsImprovement: record?.beatsRecord ?? null,
     returnTargetS: record?.returnTargetS ?? null,
+    leaveBy: runs.length === 1
+      ? leaveBy(window, runs[0]!, record?.returnTargetS ?? null, input.timeDecimals ?? 3)
+      : null,
     impoundDeadlineMs: impound.deadlineMs,
     findings,
   }

@@ -3,6 +3,7 @@ import { call, demoEventPath, login } from '../support/api'
 import { returnTargetByHand, secondsOfDay } from '../support/hand'
 import { launchBrowser, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
+import { localDateTime } from '#shared/rules/zoned'
 
 // Two people at once, each in a browser of their own: the timekeeper in the hut, the team in the pits.
 let hut: Awaited<ReturnType<typeof launchBrowser>>
@@ -39,6 +40,16 @@ it('the timekeeper enters two runs on the run sheet; the team sees the return-ru
   const target = returnTargetByHand('1609.344', record, secondsOfDay('00:00:14.5'))
   await expect.poll(() => card.locator('[data-test="live-target"]').innerText(), { timeout: 10_000 }).toContain(`${target} s`)
   expect(await card.locator('[data-test="live-window"]').innerText()).toMatch(/window closes in\s+1 h 5\d min/i)
+  // Leave the line by: the window's close (start of the first run + 2 h, FIM world records page, seen) less the
+  // first run's run-up and the longest mile that still beats the record (the target above), in 1/10 000 s.
+  const leave = mine.leaveBy as { at: string, deadlineMs: number, runUpS: string, overDistanceS: string }
+  const tenThousandths = (s: string) => Math.round(Number(s) * 10_000)
+  expect(leave.overDistanceS).toBe(target)
+  expect(Date.parse(leave.at)).toBe(Math.floor((leave.deadlineMs * 10 - tenThousandths(leave.runUpS) - tenThousandths(target)) / 10))
+  const leaveText = await card.locator('[data-test="live-leave-by"]').innerText()
+  expect(leaveText).toContain(localDateTime(Date.parse(leave.at), 'America/Denver').slice(11, 19))
+  expect(leaveText).toContain('America/Denver')
+  expect(leaveText).toContain(`${target} s (the longest time that still beats the record)`)
 
   // Back: the mile in 14.3000 s. Mean 14.4000 s → 1609.344 / 14.4 × 3.6 = 402.336 km/h exactly.
   await enterRun(tk, 'back', ['10:30:00.0000', '10:30:02.7000', '10:30:11.5500', '10:30:14.3000'])

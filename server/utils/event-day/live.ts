@@ -317,6 +317,7 @@ function liveResult(ix: DayIndex, evaluation: AttemptResult | null, findings: Fi
     returnTargetS: evaluation?.runs.length === 1 && evaluation.returnTargetS
       ? toFixed(evaluation.returnTargetS, timeDecimals)
       : null,
+    leaveBy: evaluation?.leaveBy ? { ...evaluation.leaveBy, at: iso(evaluation.leaveBy.atMs)! } : null,
     findings,
   }
 }
@@ -388,6 +389,7 @@ function liveAttempt(ix: DayIndex, attempt: Attempt, withReadings: boolean, dist
       countedRunIds: runs.filter(x => x.counted).map(x => x.id),
       ...r,
     })),
+    timeZone: ix.day.event.timeZone,
     sheet: sheetState(ix.day, attempt.id),
     impoundCheckedInAt: ix.day.impounds.find(i => i.attemptId === attempt.id)?.checkedInAt.toISOString() ?? null,
   }
