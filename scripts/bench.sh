@@ -8,7 +8,7 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 
-# BENCH=live or BENCH=upload runs one part only.
+# BENCH=live, BENCH=bytes, BENCH=upload or BENCH=dossier runs one part only.
 if [ -z "${BENCH:-}" ]; then
   say "rules engine"
   node node_modules/vitest/vitest.mjs bench --run --project unit
@@ -38,6 +38,11 @@ for _ in $(seq 1 100); do curl -fs "http://127.0.0.1:$APP_PORT/api/health" >/dev
 if [ -z "${BENCH:-}" ] || [ "$BENCH" = live ]; then
 say "live results under load"
 node scripts/bench/live-load.mjs --url "http://127.0.0.1:$APP_PORT" --db "$DB" --psql "$PGBIN/psql"
+fi
+
+if [ -z "${BENCH:-}" ] || [ "$BENCH" = bytes ]; then
+say "bytes on the wire"
+node scripts/bench/first-visit.mjs --url "http://127.0.0.1:$APP_PORT"
 fi
 
 if [ -z "${BENCH:-}" ] || [ "$BENCH" = upload ]; then
