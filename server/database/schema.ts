@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
+  type AnyPgColumn,
   bigint,
   bigserial,
   boolean,
@@ -18,6 +19,7 @@ import {
   varchar,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
+import type { DeviceLayout } from '#shared/rules/device-file'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 // Relative, not '#shared': drizzle-kit reads this file outside Nuxt.
 import {
@@ -236,6 +238,21 @@ export const timingSystems = pgTable(
   t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role)],
 )
 
+/**
+ * How a timing system's own event list reads: its columns and separator, and which device channel is which
+ * trap. Set by the organiser or a timekeeper, kept for the next file; a setting, not a signed record.
+ */
+export const deviceLayouts = pgTable('device_layouts', {
+  timingSystemId: integer('timing_system_id')
+    .primaryKey()
+    .references(() => timingSystems.id),
+  layout: jsonb('layout').$type<DeviceLayout>().notNull(),
+  updatedBy: integer('updated_by')
+    .notNull()
+    .references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
 /** The organiser's copy of the record book: the standing record per class and distance. */
 export const standingRecords = pgTable(
   'standing_records',
@@ -350,6 +367,8 @@ export const readings = pgTable(
     ticks: bigint('ticks', { mode: 'bigint' }).notNull(),
     supersedesId: bigint('supersedes_id', { mode: 'number' }),
     reason: text('reason'),
+    /** The timing device's own file this time was imported from (evidence of kind data log). */
+    sourceEvidenceId: integer('source_evidence_id').references((): AnyPgColumn => evidence.id),
     enteredBy: integer('entered_by')
       .notNull()
       .references(() => users.id),

@@ -213,13 +213,35 @@ function runWind(input: RunInput) {
   return { wind: { ...w, headingDeg }, findings: checkWind(input.profile, w) }
 }
 
+const HALF_DAY_S = 43_200n
+
+/**
+ * A run's times of day in its order of traps, carried over midnight: a trap read more than 12 h "earlier"
+ * than the trap before it was passed after midnight (a run lasts minutes), so a day is added to it.
+ */
+export function acrossMidnight(order: TrapDef[], at: Map<number, bigint>, ticksPerSecond: number) {
+  const half = HALF_DAY_S * BigInt(ticksPerSecond)
+  const carried = new Map(at)
+  let before: bigint | undefined
+  let offset = 0n
+  for (const t of order) {
+    const read = at.get(t.id)
+    if (read === undefined) continue
+    if (before !== undefined && read + offset < before - half) offset += 2n * half
+    before = read + offset
+    carried.set(t.id, before)
+  }
+  return carried
+}
+
 /** Speeds of one run: each segment between traps and each measured distance, per timing system. */
 export function computeRun(input: RunInput): RunComputation {
   const byPosition = [...input.traps].sort((a, b) => cmp(fromDecimal(a.positionM), fromDecimal(b.positionM)))
   const order = input.direction === 'out' ? byPosition : byPosition.reverse()
   const findings: RunSheetFinding[] = []
   const systems = input.systems.map((system) => {
-    const at = new Map(input.readings.filter(r => r.systemId === system.id).map(r => [r.trapId, BigInt(r.ticks)]))
+    const read = new Map(input.readings.filter(r => r.systemId === system.id).map(r => [r.trapId, BigInt(r.ticks)]))
+    const at = acrossMidnight(order, read, system.ticksPerSecond)
     const { segments, findings: segmentFindings } = systemSegments(input, system, order, at)
     findings.push(...segmentFindings)
     return { systemId: system.id, role: system.role, segments, distances: systemDistances(input, system, at) }

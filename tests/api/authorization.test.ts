@@ -60,6 +60,8 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/distances': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/timing-systems': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/records': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/device-imports': { expect: rolesOnly(422, 'timekeeper'), body: {} },
+  'PUT /api/events/[id]/device-layouts': { expect: rolesOnly(422, 'organiser', 'timekeeper'), body: {} },
   'PUT /api/events/[id]/profile': { expect: rolesOnly(422, 'organiser'), body: {} },
   'PUT /api/events/[id]/classes': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/entries': { expect: rolesOnly(422, 'team'), body: {} },

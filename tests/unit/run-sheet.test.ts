@@ -44,3 +44,34 @@ describe('primary against backup', () => {
     expect(run(0).systems[0]!.distances[0]).toMatchObject({ timeS: '10.000', kmh: '360.000' })
   })
 })
+
+describe('a run over midnight', () => {
+  // Times of day restart at 00:00:00 (ISO 8601 time of day); a run lasts minutes, so an exit trap read at
+  // 00:00:05.000 after an entry trap at 23:59:55.000 was passed 10.000 s later, the next day.
+  const overMidnight = (direction: 'out' | 'back', first: string, second: string) => computeRun({
+    profile: profiles['intl-motorcycle'],
+    direction,
+    headingDeg: 0,
+    traps,
+    distances,
+    systems: [systems[0]!],
+    readings: [
+      { id: 1, trapId: direction === 'out' ? 1 : 2, systemId: 1, ticks: first },
+      { id: 2, trapId: direction === 'out' ? 2 : 1, systemId: 1, ticks: second },
+    ],
+  })
+
+  it('carries the later trap into the next day, either way along the course', () => {
+    // 23:59:55.000 is 86 395 000 ms; 00:00:05.000 is 5000 ms. 1000 m in 10.000 s = 360.000 km/h (1 km/h = 1/3.6 m/s).
+    for (const direction of ['out', 'back'] as const) {
+      const r = overMidnight(direction, '86395000', '5000')
+      expect(r.findings).toEqual([])
+      expect(r.systems[0]!.distances[0]).toMatchObject({ timeS: '10.000', kmh: '360.000' })
+    }
+  })
+
+  it('still refuses a trap read out of order within the same day', () => {
+    const r = overMidnight('out', '36010000', '36000000')
+    expect(r.findings.map(f => f.code)).toEqual(['reading.out-of-order'])
+  })
+})

@@ -115,7 +115,7 @@ const manifestFinding = (f: Readiness['live']['findings'][number]) => ({
 
 const trapLabels = (day: EventDay) => new Map(day.traps.map(t => [t.id, t.label]))
 
-function manifestRuns({ day, live, attemptId }: Readiness) {
+function manifestRuns({ day, live, attemptId, evidence }: Readiness) {
   return day.runs.filter(x => x.attemptId === attemptId).map((x) => {
     const lr = live.runs.find(l => l.id === x.id)!
     return {
@@ -125,7 +125,7 @@ function manifestRuns({ day, live, attemptId }: Readiness) {
       status: x.status,
       abortedReason: x.abortedReason,
       counted: lr.counted,
-      readings: manifestReadings(day, x.id),
+      readings: manifestReadings(day, x.id, evidence),
       official: lr.official,
       crossChecks: lr.crossChecks,
       weather: lr.weather,
@@ -136,8 +136,9 @@ function manifestRuns({ day, live, attemptId }: Readiness) {
 }
 
 /** Every reading of a run, superseded ones included, as the timing system's time of day. */
-function manifestReadings(day: EventDay, runId: number) {
+function manifestReadings(day: EventDay, runId: number, evidence: Evidence[]) {
   const trapLabel = trapLabels(day)
+  const file = (id: number | null) => evidence.find(e => e.id === id)
   const systems = new Map(day.systems.map(s => [s.id, s]))
   return day.readings.filter(g => g.runId === runId).map((g) => {
     const system = systems.get(g.systemId)!
@@ -150,6 +151,10 @@ function manifestReadings(day: EventDay, runId: number) {
       current: g.current,
       supersedes: g.supersedesId,
       reason: g.reason,
+      /** The timing device's own file it was imported from (a data log in the evidence, by its hash). */
+      source: g.sourceEvidenceId
+        ? { name: file(g.sourceEvidenceId)?.originalName ?? '', sha256: file(g.sourceEvidenceId)?.sha256 ?? '' }
+        : null,
       enteredBy: g.enteredBy,
       enteredAt: g.enteredAt.toISOString(),
     }
@@ -229,7 +234,8 @@ async function manifestStatements(eventId: number, attemptId: number) {
 function isForAttempt(e: Evidence, r: Readiness) {
   const runIds = new Set(r.day.runs.filter(x => x.attemptId === r.attemptId).map(x => x.id))
   return (
-    e.attemptId === r.attemptId
+    r.day.readings.some(g => g.sourceEvidenceId === e.id && runIds.has(g.runId))
+    || e.attemptId === r.attemptId
     || (e.runId !== null && runIds.has(e.runId))
     || e.entryId === r.entry.entry.id
     || e.courseId === r.distance.courseId

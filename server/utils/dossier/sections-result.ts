@@ -88,7 +88,8 @@ function renderRunHeader(L: PdfLayout, run: Run) {
 
 function readingState(g: Run['readings'][number]) {
   if (!g.current) return 'superseded'
-  return g.supersedes ? `correction of #${g.supersedes}: ${g.reason}` : 'as entered'
+  if (g.supersedes) return `correction of #${g.supersedes}: ${g.reason}`
+  return g.source ? `from the device file ${g.source.name}, SHA-256 ${g.source.sha256.slice(0, 16)}…` : 'as entered'
 }
 
 function renderRunComputation(L: PdfLayout, m: Manifest, run: Run) {

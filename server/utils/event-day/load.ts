@@ -26,6 +26,7 @@ function readingRows(eventId: number, history: boolean) {
       ticks: t.readings.ticks,
       supersedesId: t.readings.supersedesId,
       reason: t.readings.reason,
+      sourceEvidenceId: t.readings.sourceEvidenceId,
       enteredAt: t.readings.enteredAt,
       enteredBy: t.users.name,
       current,

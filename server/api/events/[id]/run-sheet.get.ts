@@ -19,5 +19,7 @@ export default defineEventHandler(async (event) => {
     })),
     traps: day.traps,
     systems: day.systems,
+    /** How each timing system's own file reads, where one was set. */
+    deviceLayouts: await deviceLayoutsOf(day.systems.map(s => s.id)),
   }
 })
