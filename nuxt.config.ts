@@ -12,7 +12,11 @@ export default defineNuxtConfig({
         { name: 'description', content: 'Timing, inspection and sealed evidence for speed-record attempts' },
         { name: 'theme-color', content: '#0b1d2a' },
       ],
-      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+      link: [
+        { rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' },
+        // Installable: the web app manifest (its service worker comes from modules/service-worker.ts).
+        { rel: 'manifest', href: '/manifest.webmanifest' },
+      ],
     },
   },
   // Latin faces only, and Inter in two weights (semibold text takes the bold face): the fonts are most of the

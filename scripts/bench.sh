@@ -25,7 +25,7 @@ migrate "$DB"
 ensure_app_role "$PG_PORT" trapline_bench
 
 export TRAPLINE_OUTPUT_DIR="$ROOT/.output-test"
-if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared nuxt.config.ts -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit)" ]; then
+if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit)" ]; then
   say "building…"
   node_modules/.bin/nuxt build >"$DATA/bench-build.log" 2>&1 || die "the build failed; see $DATA/bench-build.log"
 fi

@@ -36,7 +36,7 @@ fi
 node scripts/mail-catcher.mjs --smtp "$SMTP_PORT" --http "$INBOX_PORT" --dir "$DATA/mail" &
 pids+=($!)
 
-if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
+if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
   say "building the app (about 20 s)…"
   node_modules/.bin/nuxt build >"$DATA/build.log" 2>&1 || { tail -n 40 "$DATA/build.log" >&2; die "the build failed; see $DATA/build.log"; }
 fi

@@ -47,7 +47,7 @@ export TRAPLINE_OUTPUT_DIR="$ROOT/.output-test"
 mkdir -p "$DATA/locks"
 exec {BUILD_LOCK}>"$DATA/locks/build"
 flock "$BUILD_LOCK"
-if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared nuxt.config.ts tailwind.config.ts package-lock.json -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit 2>/dev/null)" ]; then
+if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit 2>/dev/null)" ]; then
   say "building the app for the tests…"
   build_start=$SECONDS
   node_modules/.bin/nuxt build >"$RUN_DIR/build.log" 2>&1 || { tail -n 40 "$RUN_DIR/build.log" >&2; die "the build failed."; }

@@ -12,6 +12,7 @@ import {
   numeric,
   pgEnum,
   pgTable,
+  primaryKey,
   serial,
   text,
   timestamp,
@@ -816,3 +817,25 @@ export const homologations = pgTable('homologations', {
   signatureId: integer('signature_id').references(() => signatures.id),
   createdAt: createdAt(),
 })
+
+/**
+ * A write sent with an Idempotency-Key (a device that queued it while offline, and may send it again):
+ * the first request claims the key, its answer is kept, and every later one with the same key gets that
+ * answer without writing again.
+ */
+export const idempotentRequests = pgTable(
+  'idempotent_requests',
+  {
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    key: text('key').notNull(),
+    /** Method and path: a key names one request only. */
+    request: text('request').notNull(),
+    /** Null while the first request is still at work. */
+    status: integer('status'),
+    body: jsonb('body'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [primaryKey({ columns: [t.userId, t.key] })],
+)

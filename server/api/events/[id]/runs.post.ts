@@ -1,9 +1,8 @@
 import { startRunSchema } from '#shared/schemas/event-day'
 
+// A device that queued the write offline sends an Idempotency-Key: a resend never writes twice.
 export default defineEventHandler(async (event) => {
   const { eventId, user } = await requireEventRole(event, ['timekeeper'])
   const input = await validBody(event, startRunSchema)
-  const run = await startRun(eventId, input, user.id)
-  setResponseStatus(event, 201)
-  return run
+  return onceByKey(event, user.id, 201, () => startRun(eventId, input, user.id))
 })
