@@ -84,3 +84,7 @@ export type EvidenceKind = (typeof EVIDENCE_KINDS)[number]
 /** How a pair's result is averaged. */
 export const AVERAGINGS = ['mean-of-times', 'mean-of-speeds'] as const
 export type Averaging = (typeof AVERAGINGS)[number]
+
+/** The day's papers printed from the event: results by class, start list and run order, a run sheet to fill by hand. */
+export const PAPER_SHEETS = ['results', 'start-list', 'blank-run-sheet'] as const
+export type PaperSheet = (typeof PAPER_SHEETS)[number]

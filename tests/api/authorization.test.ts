@@ -68,6 +68,13 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/events/[id]/setup': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/live': { expect: { ...eventMembers(200), admin: 200 } },
   'GET /api/events/[id]/live-stream': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/paper': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/paper.pdf': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/day.csv': { expect: { ...eventMembers(200), admin: 200 } },
+  'GET /api/events/[id]/day.xlsx': { expect: { ...eventMembers(200), admin: 200 } },
+  // The streamliner's run: its team and every other role at the event; the site administrator holds none.
+  'GET /api/runs/[id]/time-slip': { expect: { ...eventMembers(200), admin: 404 } },
+  'GET /api/runs/[id]/time-slip.pdf': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/events/[id]/run-sheet': { expect: rolesOnly(200, 'timekeeper', 'organiser', 'official') },
   'POST /api/events/[id]/runs': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/events/[id]/imports': { expect: rolesOnly(422, 'timekeeper'), body: {} },
