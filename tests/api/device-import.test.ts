@@ -2,8 +2,11 @@ import { beforeAll, expect, it } from 'vitest'
 import { call, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { form, pdf } from '../support/files'
+import { pdfText } from '../support/pdf-tools'
+import { makeReady } from '../support/ready-attempt'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
+import { eventClockTime } from '../support/runs'
 
 await useTestServer()
 
@@ -126,4 +129,44 @@ it('names the field when the file is not a data log or a channel maps to no trap
   const bad = await importFile(file.id, false, { layout: { ...layout(), channels: [{ channel: '1', trapId: 2_000_000 }] } })
   expect(bad.status).toBe(422)
   expect(bad.body.data.issues[0]).toEqual({ path: 'layout.channels.0.trapId', message: 'no such trap at this event' })
+})
+
+it('names the device file and its SHA-256 beside each reading it gave, in the sealed dossier', async () => {
+  // An entry of its own, inspected now, and two runs after that: out, and back nine minutes later. The device
+  // gives the primary's times; the backup's are typed, the same to 1/1000 s. 1000 m in 8.9000 s is
+  // 404.494 km/h (truncated), over the test event's record of 400.000 km/h.
+  const entryId = await clearedEntry(event.eventId, 'Sealed Sprite', {}, {
+    team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1',
+  })
+  const zone = event.timeZone
+  const out = Math.ceil(Date.now() / 60_000) * 60_000 + 60_000
+  const back = out + 9 * 60_000
+  const start = async (direction: 'out' | 'back', atMs: number) => (await call('POST', `/api/events/${event.eventId}/runs`, {
+    cookie: event.cookie.timekeeper, body: { entryId, direction, startedAt: new Date(atMs).toISOString() },
+  })).body.id as number
+  const ids = { out: await start('out', out), back: await start('back', back) }
+  const clockAt = (ms: number) => eventClockTime(ms, zone)
+  const passings = [[1, out + 60_000], [2, out + 68_900], [2, back + 60_000], [1, back + 68_900]] as const
+  const text = ['Seq;Channel;Time', ...passings.map(([ch, ms], i) => `${i + 1};${ch};${clockAt(ms)}`)].join('\n')
+  const file = await storeFile(text, 'sealed-sprite-device.txt')
+  const written = await importFile(file.id, true, { firstDay: localDate(out + 60_000, zone) })
+  expect(written.status, JSON.stringify(written.body)).toBe(201)
+  expect(written.body.written).toBe(4)
+  for (const [i, [ch, ms]] of passings.entries()) {
+    const r = await call('POST', `/api/runs/${i < 2 ? ids.out : ids.back}/readings`, {
+      cookie: event.cookie.timekeeper,
+      body: { trapId: event.traps[ch === 1 ? 'K-in' : 'K-out'], systemId: event.systems.backup, time: clockAt(ms).slice(0, -1) },
+    })
+    expect(r.status, JSON.stringify(r.body)).toBe(201)
+  }
+  const live = (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.team })).body
+  const attempt = live.find((a: any) => a.runs.some((r: any) => r.id === ids.out))
+  expect(attempt.result.kmh).toBe('404.494')
+  await makeReady(event, attempt.id, [ids.out, ids.back], entryId)
+  const issued = await call('POST', `/api/attempts/${attempt.id}/dossiers`, { cookie: event.cookie.team })
+  expect(issued.status, JSON.stringify(issued.body)).toBe(201)
+  const bytes = new Uint8Array(await (await fetch(url(`/api/dossiers/${issued.body.id}/pdf`), { headers: { cookie: event.cookie.team } })).arrayBuffer())
+  const printed = await pdfText(bytes, 'device-dossier.pdf')
+  expect(printed).toContain(`from the device file sealed-sprite-device.txt, SHA-256 ${file.sha256.slice(0, 16)}`)
+  expect(printed.replace(/\s/g, '')).toContain(file.sha256) // the file itself, in the evidence list, by its whole hash
 })

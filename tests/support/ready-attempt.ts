@@ -1,0 +1,40 @@
+import { expect } from 'vitest'
+import { call, invitedPerson, url } from './api'
+import { form, pdf } from './files'
+import type { TestEvent } from './test-event'
+
+/**
+ * Brings an attempt of a test event (its two runs in) to a dossier: the course survey, both calibration
+ * certificates, the rider's licence, weather at each run, the timing sheet signed and two officials'
+ * statements. The files are invented PDFs; only what readiness asks for, nothing of the figures.
+ */
+export async function makeReady(event: TestEvent, attemptId: number, runIds: number[], entryId: number) {
+  const upload = async (who: string, fields: Record<string, string | number>, name: string) => {
+    const r = await fetch(url(`/api/events/${event.eventId}/evidence`), {
+      method: 'POST', headers: { cookie: who }, body: form(fields, { name, bytes: pdf(name) }),
+    })
+    expect(r.status, await r.clone().text()).toBe(201)
+  }
+  const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.organiser })).body
+  await upload(event.cookie.organiser, { kind: 'survey-certificate', courseId: setup.courses[0].id }, 'survey.pdf')
+  for (const role of ['primary', 'backup'] as const) {
+    await upload(event.cookie.timekeeper, { kind: 'calibration-certificate', timingSystemId: event.systems[role] }, `${role}.pdf`)
+  }
+  await upload(event.cookie.team, { kind: 'rider-licence', entryId }, 'licence.pdf')
+  for (const runId of runIds) {
+    const w = await call('POST', `/api/runs/${runId}/weather`, { cookie: event.cookie.timekeeper, body: { windSpeedMs: '1.0', windFromDeg: '0' } })
+    expect(w.status).toBe(201)
+  }
+  const signed = await call('POST', `/api/attempts/${attemptId}/signatures`, {
+    cookie: event.cookie.timekeeper, body: { password: 'first-password-1', typedName: 'Test timekeeper' },
+  })
+  expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+  const second = await invitedPerson('official', 'first-password-1', 'Second official', { eventId: event.eventId, organiser: event.cookie.organiser })
+  for (const [cookie, name] of [[event.cookie.official, 'Test official'], [second.cookie, 'Second official']] as const) {
+    const s = await call('POST', `/api/events/${event.eventId}/statements`, {
+      cookie,
+      body: { attemptId, runsSeen: 'both', position: 'timing hut', conditions: 'calm', password: 'first-password-1', typedName: name },
+    })
+    expect(s.status, JSON.stringify(s.body)).toBe(201)
+  }
+}
