@@ -19,13 +19,9 @@ export default defineNuxtConfig({
       ],
     },
   },
-  // Latin faces only, and Inter in two weights (semibold text takes the bold face): the fonts are most of the
-  // bytes of a first visit on a weak link.
+  // The fonts' faces come from modules/font-subsets.ts (Inter and Merriweather, 400 and 700, Latin; semibold
+  // text takes the bold face).
   css: [
-    '@fontsource/inter/latin-400.css',
-    '@fontsource/inter/latin-700.css',
-    '@fontsource/merriweather/latin-400.css',
-    '@fontsource/merriweather/latin-700.css',
     '~/assets/css/main.css',
   ],
   runtimeConfig: {
@@ -69,6 +65,8 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
   },
+  // Links load the next page's code when a person points at them, not every visible link's at once.
+  experimental: { defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
   compatibilityDate: '2026-06-01',
   nitro: {
     // server/utils/ is grouped in folders by subject (auth, database, event-day, dossier…); all are auto-imported.
@@ -89,9 +87,16 @@ export default defineNuxtConfig({
     ],
   },
   // Fewer, larger chunks: each response costs its headers and a round trip on a weak link.
-  vite: { build: { rollupOptions: { output: { experimentalMinChunkSize: 8192 } } } },
+  vite: { build: { rollupOptions: { output: { experimentalMinChunkSize: 20_000 } } } },
   typescript: { strict: true },
   telemetry: false,
+  hooks: {
+    // Nor does a page hint the browser to fetch every chunk it might import later (Dexie, say, which only a
+    // device that lost its link needs): on a weak link, bytes go to what the page shows.
+    'build:manifest': (manifest) => {
+      for (const chunk of Object.values(manifest)) chunk.prefetch = false
+    },
+  },
   // The linter's shared settings; project rules are in eslint.config.mjs.
   eslint: { config: { stylistic: true } },
 })

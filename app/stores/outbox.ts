@@ -39,7 +39,8 @@ export const useOutboxStore = defineStore('outbox', () => {
   let timer: ReturnType<typeof setInterval> | undefined
 
   async function load(eventId: string) {
-    items.value = await outboxDb().writes.where('eventId').equals(eventId).sortBy('seq')
+    if (!(await outboxExists())) return
+    items.value = await (await outboxDb()).writes.where('eventId').equals(eventId).sortBy('seq')
   }
 
   /** Starts watching the link (once, in the browser) and loads what the event's queue holds. */
@@ -70,7 +71,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   async function resolveUrl(url: string) {
     const m = /\{run:([\w-]+)\}/.exec(url)
     if (!m) return url
-    const known = await outboxDb().runIds.get(m[1]!)
+    const known = await (await outboxDb()).runIds.get(m[1]!)
     return known ? url.replace(m[0], String(known.id)) : null
   }
 
@@ -97,7 +98,6 @@ export const useOutboxStore = defineStore('outbox', () => {
     if (url && navigator.onLine && !items.value.length) {
       try {
         const answer = await post(url, entry.body, entry.key)
-        if (entry.kind === 'run') await outboxDb().runIds.put({ key: entry.key, id: answer.id })
         return { state: 'sent' as const, answer, seq: null }
       }
       catch (e) {
@@ -105,7 +105,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       }
     }
     if (offlineBody) entry.body = offlineBody
-    entry.seq = await outboxDb().writes.add(entry)
+    entry.seq = await (await outboxDb()).writes.add(entry)
     items.value.push(entry)
     online.value = navigator.onLine
     if (online.value) void flush()
@@ -113,8 +113,9 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   async function settle(item: QueuedWrite, patch: Partial<QueuedWrite> | null) {
-    if (patch) await outboxDb().writes.update(item.seq!, patch)
-    else await outboxDb().writes.delete(item.seq!)
+    const store = (await outboxDb()).writes
+    if (patch) await store.update(item.seq!, patch)
+    else await store.delete(item.seq!)
     items.value = patch
       ? items.value.map(i => (i.seq === item.seq ? { ...i, ...patch } : i))
       : items.value.filter(i => i.seq !== item.seq)
@@ -135,7 +136,7 @@ export const useOutboxStore = defineStore('outbox', () => {
         }
         try {
           const answer = await post(url, item.body, item.key)
-          if (item.kind === 'run') await outboxDb().runIds.put({ key: item.key, id: answer.id })
+          if (item.kind === 'run') await (await outboxDb()).runIds.put({ key: item.key, id: answer.id })
           await settle(item, null)
           sent++
         }

@@ -1,4 +1,4 @@
-import Dexie, { type EntityTable } from 'dexie'
+import type { Dexie, EntityTable } from 'dexie'
 
 /** What a queued write is: where it shows on the sheet, and what resolving a conflict can do with it. */
 export type QueuedKind = 'run' | 'reading' | 'correction' | 'weather'
@@ -30,15 +30,27 @@ type OutboxDb = Dexie & {
   runIds: EntityTable<{ key: string, id: number }, 'key'>
 }
 
-let db: OutboxDb | null = null
+const NAME = 'trapline-outbox'
+let db: Promise<OutboxDb> | null = null
 
-/** The browser's queue of writes (created on first use; never on the server). */
-export function outboxDb(): OutboxDb {
-  if (!db) {
-    db = new Dexie('trapline-outbox') as OutboxDb
-    db.version(1).stores({ writes: '++seq, eventId', runIds: 'key' })
-  }
+/**
+ * The browser's queue of writes (never on the server). Dexie is loaded on first use only: a device that
+ * never lost its link never downloads it.
+ */
+export function outboxDb(): Promise<OutboxDb> {
+  db ??= import('dexie').then(({ default: Dexie }) => {
+    const d = new Dexie(NAME) as OutboxDb
+    d.version(1).stores({ writes: '++seq, eventId', runIds: 'key' })
+    return d
+  })
   return db
+}
+
+/** Whether this browser ever kept a write (without loading Dexie to find out). */
+export async function outboxExists() {
+  if (db) return true
+  const list = await indexedDB.databases?.().catch(() => null)
+  return !list || list.some(d => d.name === NAME)
 }
 
 /** The placeholder for a run queued offline, until it has its id. */
