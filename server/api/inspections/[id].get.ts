@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm'
 
 // The scrutineers, the organiser and the officials see every inspection; a team its own only.
 export default defineEventHandler(async (event) => {
-  const { recordId, roles, teamIds } = await requireRoleOn(event, 'inspection', 'any')
+  const { recordId, roles, teamIds, eventId } = await requireRoleOn(event, 'inspection', 'any')
   const view = await inspectionView(recordId)
   const [entry] = await useDb()
     .select({ teamId: tables.entries.teamId })
@@ -10,5 +10,5 @@ export default defineEventHandler(async (event) => {
     .where(eq(tables.entries.id, view.inspection.entryId))
   if (roles.every(r => r === 'team') && !teamIds.includes(entry!.teamId))
     throw notFound('No such inspection')
-  return view
+  return { ...view, timeZone: await eventTimeZone(eventId) }
 })

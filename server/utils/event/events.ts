@@ -155,3 +155,10 @@ export async function updateEvent(eventId: number, changes: UpdateEventInput) {
   const [row] = await useDb().update(tables.events).set(changes).where(eq(tables.events.id, eventId)).returning()
   return row!
 }
+
+/** The event's time zone: pages show every instant on the event's clock, named. */
+export async function eventTimeZone(eventId: number) {
+  const [row] = await useDb().select({ timeZone: tables.events.timeZone }).from(tables.events)
+    .where(eq(tables.events.id, eventId))
+  return row?.timeZone ?? 'UTC'
+}

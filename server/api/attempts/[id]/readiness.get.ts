@@ -10,6 +10,7 @@ export default defineEventHandler(async (event) => {
     attemptId: r.attemptId,
     distanceId: r.distance.id,
     ready: r.ready,
+    timeZone: r.day.event.timeZone,
     items: r.items,
     result: r.live.result,
     entry: r.live.entry,
