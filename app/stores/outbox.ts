@@ -145,7 +145,12 @@ export const useOutboxStore = defineStore('outbox', () => {
             online.value = false
             break
           }
-          await settle(item, { state: 'conflict', message: refusalMessage(e as Refusal) })
+          const standing = ((e as Refusal).data as { data?: { current?: { id?: number | string } } })?.data?.current?.id
+          await settle(item, {
+            state: 'conflict',
+            message: refusalMessage(e as Refusal),
+            ...(standing ? { standingId: Number(standing) } : {}),
+          })
         }
       }
       if (sent) online.value = true

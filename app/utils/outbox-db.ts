@@ -21,6 +21,8 @@ export interface QueuedWrite {
   createdAt: number
   /** A reading or correction: its run (an id, or `{run:KEY}`), trap, system and the time typed. */
   cell?: { run: string, trapId: number, systemId: number, time: string }
+  /** A refusal that names the time standing now in the cell (its reading's id), for a correction of it. */
+  standingId?: number
   /** A new run: what the sheet shows of it until it is written. */
   run?: { entryId: number, direction: string, startedAt: string }
 }
