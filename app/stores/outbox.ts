@@ -10,6 +10,7 @@ type NewWrite = Omit<QueuedWrite, 'seq' | 'key' | 'state' | 'message' | 'created
 type Refusal = FetchError
 
 const RETRY_MS = 5000
+const RUN_REF = /\{run:([\w-]+)\}/
 
 /** The server's words for a refusal: its message, or the first field's. */
 function refusalMessage(e: Refusal) {
@@ -36,7 +37,6 @@ export const useOutboxStore = defineStore('outbox', () => {
   const sending = ref(false)
   const listeners = new Set<() => void>()
   let started = false
-  let timer: ReturnType<typeof setInterval> | undefined
 
   async function load(eventId: string) {
     if (!(await outboxExists())) return
@@ -54,13 +54,13 @@ export const useOutboxStore = defineStore('outbox', () => {
         void flush()
       })
       window.addEventListener('offline', () => (online.value = false))
-      timer = setInterval(() => {
+      // The store lives as long as the page: its retry timer too.
+      setInterval(() => {
         if (items.value.some(i => i.state === 'waiting')) void flush()
       }, RETRY_MS)
     }
     void flush()
   }
-  const stop = () => clearInterval(timer)
 
   /** Called after writes reach the server, so the sheet reads them back. */
   function onSent(fn: () => void) {
@@ -68,11 +68,16 @@ export const useOutboxStore = defineStore('outbox', () => {
     return () => listeners.delete(fn)
   }
 
+  /** The id a run reference stands for: itself, or a queued run's once it is written (else undefined). */
+  async function runIdOf(ref: string) {
+    const m = RUN_REF.exec(ref)
+    return m ? (await (await outboxDb()).runIds.get(m[1]!))?.id : Number(ref)
+  }
   async function resolveUrl(url: string) {
-    const m = /\{run:([\w-]+)\}/.exec(url)
+    const m = RUN_REF.exec(url)
     if (!m) return url
-    const known = await (await outboxDb()).runIds.get(m[1]!)
-    return known ? url.replace(m[0], String(known.id)) : null
+    const id = await runIdOf(m[0])
+    return id ? url.replace(m[0], String(id)) : null
   }
 
   /** Any queued url: plain, not matched against every route's type (the queue holds several kinds). */
@@ -170,5 +175,5 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   const waiting = computed(() => items.value.filter(i => i.state === 'waiting'))
   const conflicts = computed(() => items.value.filter(i => i.state === 'conflict'))
-  return { items, waiting, conflicts, online, sending, start, stop, write, flush, discard, sendAgain, onSent }
+  return { items, waiting, conflicts, online, sending, start, write, flush, discard, sendAgain, onSent, runIdOf }
 })

@@ -117,7 +117,7 @@ export interface Unmatched {
 
 /** A passing more than this long after its run's start belongs to no run: a run is over in minutes. */
 export const MAX_AFTER_START_MS = 30 * 60_000
-const HALF_DAY_TICKS_MS = 12 * 3_600_000
+const HALF_DAY_MS = 12 * 3_600_000
 
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/
 const DOTTED_DAY = /^(\d{2})[./](\d{2})[./](\d{4})$/
@@ -177,7 +177,7 @@ export function assignPassings(input: {
       }
       day = d
     }
-    else if (lastMs !== null && ofDayMs < lastMs - HALF_DAY_TICKS_MS) {
+    else if (lastMs !== null && ofDayMs < lastMs - HALF_DAY_MS) {
       day = addDays(day, 1)
     }
     lastMs = ofDayMs

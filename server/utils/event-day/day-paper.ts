@@ -82,15 +82,23 @@ export type DayPaper = Awaited<ReturnType<typeof dayPaper>>
  * A run's time slip: what the team carries to the impound and keeps. The run, its times at every trap by
  * each system, and its time and speed over every distance its entry claims (each from the same readings).
  */
-export async function timeSlip(eventId: number, runId: number) {
-  const day = await loadEventDay(eventId)
+export async function timeSlip(access: EventAccess & { recordId: number }) {
+  const runId = access.recordId
+  const whole = await loadEventDay(access.eventId)
+  const attemptId = whole.runs.find(r => r.id === runId)?.attemptId
+  if (!attemptId) throw notFound('No such run')
+  // A team reads its own runs' slips only: checked before anything is computed.
+  await assertOwnAttempt(access, attemptId)
+  // Only this attempt is computed (once with its readings, once more per other distance it claims).
+  const day = { ...whole, attempts: whole.attempts.filter(a => a.id === attemptId) }
   const zone = day.event.timeZone
-  const first = computeLive(day, { readings: true }).find(a => a.runs.some(r => r.id === runId))
-  if (!first) throw notFound('No such run')
-  const run = first.runs.find(r => r.id === runId)!
+  const attempt = computeLive(day, { readings: true })[0]!
+  const run = attempt.runs.find(r => r.id === runId)!
   const trapLabel = new Map(day.traps.map(t => [t.id, t.label]))
-  const distances = first.distances.map((d) => {
-    const shown = computeLive(day, { distanceId: d.distanceId }).find(a => a.id === first.id)!
+  const distances = attempt.distances.map((d) => {
+    const shown = d.distanceId === attempt.entry.distanceId
+      ? attempt
+      : computeLive(day, { distanceId: d.distanceId })[0]!
     const official = shown.runs.find(r => r.id === runId)?.official ?? null
     return { label: d.label, timeS: official?.timeS ?? null, kmh: official?.kmh ?? null, mph: official?.mph ?? null }
   })
@@ -98,7 +106,7 @@ export async function timeSlip(eventId: number, runId: number) {
     event: { name: day.event.name, venue: day.event.venue, timeZone: zone },
     run: {
       id: run.id,
-      attemptId: first.id,
+      attemptId: attempt.id,
       direction: run.direction,
       start: run.start,
       status: run.status,
@@ -106,10 +114,10 @@ export async function timeSlip(eventId: number, runId: number) {
       startedAt: localDateTime(Date.parse(run.startedAt), zone),
     },
     entry: {
-      teamName: first.entry.teamName,
-      machineName: first.entry.machineName,
-      riderName: first.entry.riderName,
-      className: first.entry.className,
+      teamName: attempt.entry.teamName,
+      machineName: attempt.entry.machineName,
+      riderName: attempt.entry.riderName,
+      className: attempt.entry.className,
     },
     readings: day.systems.map(s => ({
       system: s.name,
@@ -119,7 +127,7 @@ export async function timeSlip(eventId: number, runId: number) {
     })),
     distances,
     findings: run.findings.map(f => ({ severity: f.severity, message: f.message })),
-    sheetSigned: first.sheet.locked,
+    sheetSigned: attempt.sheet.locked,
     printedAt: localDateTime(Date.now(), zone),
   }
 }

@@ -66,8 +66,7 @@ export async function deviceLayoutsOf(systemIds: number[]) {
 /** Checks a layout against the event (its system, its traps) and keeps it. */
 export async function saveDeviceLayout(eventId: number, systemId: number, layout: DeviceLayout, userId: number) {
   const system = await eventSystem(eventId, systemId)
-  const { traps } = await loadDeviceContext(eventId, system.id)
-  checkChannels(layout, traps)
+  checkChannels(layout, await eventTraps(eventId))
   await keepLayout(system.id, layout, userId)
 }
 
@@ -105,6 +104,13 @@ async function readBlobText(sha256: string) {
   return Buffer.concat(chunks).toString('utf8')
 }
 
+/** The event's traps with their course. */
+async function eventTraps(eventId: number) {
+  const { rows } = await useDb().execute<{ id: number, course_id: number, label: string }>(sql`
+    select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id where c.event_id = ${eventId}`)
+  return rows.map(t => ({ id: t.id, courseId: t.course_id, label: t.label }))
+}
+
 type RunRow = {
   id: number
   course_id: number
@@ -128,9 +134,7 @@ async function loadDeviceContext(eventId: number, systemId: number) {
           and x.supersedes_id is null) as taken
       from runs r join attempts a on a.id = r.attempt_id join entries e on e.id = a.entry_id
       join measured_distances d on d.id = e.distance_id where r.event_id = ${eventId}`),
-    db.execute<{ id: number, course_id: number, label: string }>(sql`
-      select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id
-      where c.event_id = ${eventId}`),
+    eventTraps(eventId),
   ])
   return {
     timeZone: event[0]!.timeZone,
@@ -142,7 +146,7 @@ async function loadDeviceContext(eventId: number, systemId: number) {
       closed: r.status === 'aborted' ? 'was aborted' : r.signed ? 'belongs to a signed timing sheet' : null,
       taken: r.taken ?? [],
     })),
-    traps: traps.rows.map(t => ({ id: t.id, courseId: t.course_id, label: t.label })),
+    traps,
   }
 }
 

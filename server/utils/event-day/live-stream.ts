@@ -112,6 +112,3 @@ export async function joinLiveStream(eventId: number, send: (data: string) => vo
   }
   return leave
 }
-
-/** How many streams this server holds open (for the benchmark and the logs). */
-export const liveStreamCount = () => [...hubs.values()].reduce((n, h) => n + h.subscribers.size, 0)

@@ -1,8 +1,7 @@
 // A run's time slip as a one-page PDF (handed to the team, shown at the impound).
 export default defineEventHandler(async (event) => {
   const access = await requireRoleOn(event, 'run', 'any')
-  const slip = await timeSlip(access.eventId, access.recordId)
-  await assertOwnAttempt(access, slip.run.attemptId)
+  const slip = await timeSlip(access)
   const pdf = await timeSlipPdf(slip)
   setHeaders(event, {
     'content-type': 'application/pdf',
