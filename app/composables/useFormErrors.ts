@@ -10,6 +10,16 @@ interface Checkable {
   safeParse: (x: unknown) => { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } }
 }
 
+/** A server's message for a person, never a bare status word. */
+function plainGeneral(e: FetchError<{ message?: string, statusMessage?: string }> | undefined) {
+  if (!e?.statusCode) return 'No answer from the server: nothing was saved. Check the link and try again.'
+  const text = e.data?.message || e.data?.statusMessage || e.statusMessage || ''
+  if (!text || /^(Invalid input|Bad Request|Internal Server Error|Server Error|Unprocessable)/i.test(text)) {
+    return 'Something went wrong; nothing was saved. Try again.'
+  }
+  return text
+}
+
 /** The one place that turns a server's 422 (or any error) into messages beside the fields. */
 export function useFormErrors() {
   const fields = ref<Record<string, string>>({})
@@ -22,16 +32,17 @@ export function useFormErrors() {
     clear()
     const e = error as FetchError<{ data?: { issues?: Issue[] }, message?: string, statusMessage?: string }>
     const issues = e?.data?.data?.issues
-    if (e?.statusCode === 422 && issues?.length) {
-      fields.value = Object.fromEntries(issues.map(i => [i.path, i.message]))
-    }
-    else {
-      general.value
-        = e?.data?.message
-          || e?.data?.statusMessage
-          || e?.statusMessage
-          || 'Something went wrong; nothing was saved. Try again.'
-    }
+    // Cleared first and set after this tick, so the same message after a second send shows again.
+    void nextTick(() => {
+      if ((e?.statusCode === 422 || e?.statusCode === 413) && issues?.length) {
+        fields.value = Object.fromEntries(issues.map(i => [i.path, i.message]))
+        // Also above the button, each with its field named: a field this form does not show is never lost.
+        general.value = `Nothing was saved. ${issues.map(i => `${fieldLabel(i.path)} ${i.message}`).join('; ')}.`
+      }
+      else {
+        general.value = plainGeneral(e)
+      }
+    })
   }
   /** Checks one field with a shared zod schema as the person leaves it. */
   function check(schema: Checkable, value: unknown, path: string) {

@@ -428,6 +428,8 @@ export const signatures = pgTable(
       .notNull()
       .references(() => users.id),
     typedName: text('typed_name').notNull(),
+    /** The signer's own words on why the typed name differs from the name on their account. */
+    nameNote: text('name_note'),
     content: jsonb('content').notNull(),
     contentSha256: text('content_sha256').notNull(),
     /** Why a signed record is superseded or reopened. */

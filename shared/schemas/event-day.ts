@@ -257,6 +257,8 @@ export const signSheetSchema = z.object({
   password: z.string().max(200).optional(),
   passkey: passkeyResponseSchema.optional(),
   typedName: z.string().trim().min(2, { error: 'type your full name' }).max(120),
+  /** Why the typed name differs from the name on the signer's account, where it does. */
+  nameNote: z.string().trim().max(200).optional(),
   reason: z.string().trim().max(300).optional(),
 })
 export type SignSheetInput = z.infer<typeof signSheetSchema>

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
-import { recordId } from './fields'
+import { numberOrRequired, recordId } from './fields'
 import { decimalsOf, fromInput, MAX_DECIMAL_CHARS } from '../rules/exact'
 import { BUS_KINDS, DECISIONS, ITEM_RESULTS } from '../constants'
 
@@ -69,7 +69,7 @@ export type AnswerInput = z.infer<typeof answerSchema>
 export const figuresSchema = z
   .object({
     busVoltageV: z.coerce
-      .number({ error: 'must be a number' })
+      .number({ error: numberOrRequired })
       .positive({ error: 'must be greater than zero' })
       .max(2000, { error: 'must be at most 2000 V' })
       .optional(),
@@ -138,7 +138,7 @@ export type SuspensionInput = z.infer<typeof suspensionSchema>
 
 /** The post-run check after a record run: the mass re-measured (kg), what was seen, signed. */
 export const postRunCheckSchema = signSheetSchema.extend({
-  massKg: z.coerce.number({ error: 'must be a number' }).positive().max(100_000),
+  massKg: z.coerce.number({ error: numberOrRequired }).positive().max(100_000),
   note: z.string().trim().max(1000).default(''),
 })
 export type PostRunCheckInput = z.infer<typeof postRunCheckSchema>

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './messages'
 import { PAPER_SHEETS } from '../constants'
 
 /** Which day's paper, in the event's zone (today's when left out), and which sheet of it. */

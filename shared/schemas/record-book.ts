@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import './messages'
 import { CLAIM_STATUSES } from '../constants'
 
 /** An empty filter means any. */

@@ -167,6 +167,7 @@ export async function decideDossier(
       eventId: d.eventId,
       signerId: user.id,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content,
     })
     const [row] = await tx
@@ -295,6 +296,7 @@ export async function homologate(
       eventId: d.eventId,
       signerId: user.id,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content: homologationContent(row, user.name, d.pdfSha256),
     })
     const [signed] = await tx.update(tables.homologations).set({ signatureId: sig.id })

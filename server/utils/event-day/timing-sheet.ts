@@ -101,6 +101,7 @@ export async function signTimingSheet(input: {
   password?: string
   passkey?: AuthenticationResponseJSON
   typedName: string
+  nameNote?: string
   reopen?: string
   drawingPng?: string
 }) {
@@ -127,6 +128,7 @@ export async function signTimingSheet(input: {
       eventId: input.eventId,
       signerId: input.userId,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content,
       reason: input.reopen,
       supersedesId: previous?.s.id,

@@ -1,15 +1,14 @@
-import { and, eq, inArray, ne } from 'drizzle-orm'
+import { and, eq, inArray } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import { classesOf, findClass, type RecordClass } from '#shared/rules/classes'
-import { claimProblems, defaultRunStart } from '#shared/rules/distances'
+import { claimProblems } from '#shared/rules/distances'
 import type { RuleProfile } from '#shared/rules/profile'
 import type {
   ClassesAdaptInput,
   DistanceInput,
   EntryInput,
   ProfileAdaptInput,
-  StartRunInput,
 } from '#shared/schemas/event-day'
 
 const unprocessable = fieldInvalid
@@ -206,111 +205,4 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
       .returning()
     return entry!
   })
-}
-
-/** The entry, locked for the start of a run; only an entry cleared by a signed inspection may run. */
-async function lockClearedEntry(tx: Tx, eventId: number, entryId: number) {
-  const [entry] = await tx
-    .select()
-    .from(tables.entries)
-    .where(and(eq(tables.entries.id, entryId), eq(tables.entries.eventId, eventId)))
-    .for('update')
-  if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
-  const clearance = (await clearanceOf([entry.id])).get(entry.id)!
-  if (!clearance.cleared) throw conflict(`This entry is not cleared to run: ${clearance.why}`, clearance)
-  return entry
-}
-
-/**
- * Under a profile with a qualifying run (club procedure), whether the attempt is over and the entry
- * must qualify again: its record run was aborted, or its qualifying run did not beat the record.
- */
-async function mustQualifyAgain(eventId: number, attempt: typeof tables.attempts.$inferSelect, runs: RunRow[]) {
-  const rule = attempt.profile.qualifying?.value
-  if (!rule) return false
-  const mine = runs.filter(r => r.attemptId === attempt.id).sort((a, b) => +a.startedAt - +b.startedAt)
-  const qualifier = mine.find(r => r.status !== 'aborted')
-  if (!qualifier) return false
-  const abortedAfter = mine.some(r => r.status === 'aborted' && r.startedAt > qualifier.startedAt)
-  if (rule.requalifyAfterAbort && abortedAfter) return true
-  if (!rule.mustBeatRecord) return false
-  const day = await loadEventDay(eventId)
-  const live = computeLive({ ...day, attempts: day.attempts.filter(a => a.id === attempt.id) })[0]
-  return !!live?.findings.some(f => f.code === 'qualifier.not-over-record')
-}
-type RunRow = typeof tables.runs.$inferSelect
-
-/**
- * The entry's open attempt: the latest with fewer than two runs that were not aborted and no
- * signed timing sheet, unless the profile's procedure makes the entry qualify again. Null when
- * every attempt is complete.
- */
-async function openAttempt(tx: Tx, eventId: number, entryId: number) {
-  const { attempts, runs, signatures } = tables
-  const mine = await tx.select().from(attempts).where(eq(attempts.entryId, entryId))
-  if (!mine.length) return null
-  const ids = mine.map(a => a.id)
-  const runRows = await tx.select().from(runs).where(inArray(runs.attemptId, ids))
-  const signed = await tx
-    .select({ subjectId: signatures.subjectId })
-    .from(signatures)
-    .where(and(eq(signatures.kind, 'timing-sheet'), inArray(signatures.subjectId, ids)))
-  const liveRuns = (id: number) => runRows.filter(r => r.attemptId === id && r.status !== 'aborted').length
-  const open = mine.findLast(a => liveRuns(a.id) < 2 && !signed.some(s => s.subjectId === a.id))
-  if (!open || (await mustQualifyAgain(eventId, open, runRows))) return null
-  return open
-}
-
-/** A new attempt with a frozen copy of the event's profile. */
-async function newAttempt(tx: Tx, eventId: number, entryId: number) {
-  const [event] = await tx
-    .select({ profile: tables.events.profile })
-    .from(tables.events)
-    .where(eq(tables.events.id, eventId))
-  const [attempt] = await tx.insert(tables.attempts).values({ eventId, entryId, profile: event!.profile }).returning()
-  return attempt!
-}
-
-/**
- * Starts a run for an entry. It joins the entry's open attempt (one with fewer than two runs that
- * were not aborted), or opens a new attempt with a frozen copy of the event's profile.
- */
-export async function startRun(eventId: number, input: StartRunInput, userId: number) {
-  return useDb().transaction(async (tx) => {
-    const entry = await lockClearedEntry(tx, eventId, input.entryId)
-    const claims = await claimStarts(tx, entry.distanceIds)
-    const start = input.start ?? defaultRunStart(claims)
-    if (!claims.some(c => c.start === start)) {
-      throw unprocessable('start', `the entry claims no ${start === 'standing' ? 'standing-start' : 'flying'} distance`)
-    }
-    const attempt = (await openAttempt(tx, eventId, entry.id)) ?? (await newAttempt(tx, eventId, entry.id))
-    await refuseMixedStarts(tx, attempt.id, start)
-    const [run] = await tx
-      .insert(tables.runs)
-      .values({
-        eventId,
-        attemptId: attempt.id,
-        direction: input.direction,
-        start,
-        startedAt: input.startedAt ? new Date(input.startedAt) : new Date(),
-        createdBy: userId,
-      })
-      .returning()
-    return run!
-  })
-}
-
-const claimStarts = (tx: Tx, ids: number[]) =>
-  tx.select({ start: tables.measuredDistances.start }).from(tables.measuredDistances)
-    .where(inArray(tables.measuredDistances.id, ids))
-
-/** The runs of one attempt are all flying passes or all standing starts: a pair is made of one kind. */
-async function refuseMixedStarts(tx: Tx, attemptId: number, start: 'flying' | 'standing') {
-  const [other] = await tx.select({ id: tables.runs.id, start: tables.runs.start }).from(tables.runs)
-    .where(and(eq(tables.runs.attemptId, attemptId), ne(tables.runs.start, start), ne(tables.runs.status, 'aborted')))
-  if (other) {
-    const kind = other.start === 'standing' ? 'standing start' : 'flying pass'
-    throw unprocessable('start', `run #${other.id} of this attempt is a ${kind}; finish or abort the attempt's `
-      + 'pair before a run of the other kind')
-  }
 }

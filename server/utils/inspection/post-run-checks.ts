@@ -43,6 +43,7 @@ export async function recordPostRunCheck(
       eventId,
       signerId: user.id,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content: postRunCheckContent(row, user.name),
     })
     const [signed] = await tx.update(tables.postRunChecks).set({ signatureId: sig.id })

@@ -33,6 +33,7 @@ export async function suspendMachine(
       eventId,
       signerId: user.id,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content: suspensionContent(row!, user.name),
     })
     const [signed] = await tx.update(tables.machineSuspensions).set({ signatureId: sig.id })

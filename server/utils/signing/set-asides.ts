@@ -86,6 +86,7 @@ export async function setAsideFinding(
       eventId,
       signerId: user.id,
       typedName: input.typedName,
+      nameNote: input.nameNote,
       content: setAsideContent(row!, user.name),
     })
     const [signed] = await tx.update(tables.setAsides).set({ signatureId: signature.id })

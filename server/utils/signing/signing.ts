@@ -41,6 +41,8 @@ export async function insertSignature(
     eventId: number
     signerId: number
     typedName: string
+    /** Why the typed name differs from the name on the account; required where it does. */
+    nameNote?: string | null
     content: unknown
     drawingPng?: string | null
     reason?: string | null
@@ -49,6 +51,7 @@ export async function insertSignature(
     signedAt?: Date
   },
 ) {
+  await assertSignerName(tx, input.signerId, input.typedName, input.nameNote)
   // A passkey signs the SHA-256 of exactly this content: checked here, under the caller's lock.
   const assertion = input.proof.method === 'passkey'
     ? await verifyPasskeySignature(tx, input.signerId, passkeyDigest(input.kind, input.content), input.proof.response)
@@ -63,6 +66,7 @@ export async function insertSignature(
       eventId: input.eventId,
       signerId: input.signerId,
       typedName: input.typedName,
+      nameNote: input.nameNote?.trim() || null,
       content: input.content,
       contentSha256: sha256(canonicalJson(input.content)),
       drawingPng: input.drawingPng ?? null,
@@ -72,6 +76,17 @@ export async function insertSignature(
     })
     .returning()
   return row!
+}
+
+/**
+ * The typed name is the signer's name on file (case and spacing aside), or the signer says why it differs
+ * (a name as on a licence, a married name): a signature is a deliberate act by a named person.
+ */
+async function assertSignerName(tx: Tx, signerId: number, typedName: string, nameNote?: string | null) {
+  const [user] = await tx.select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, signerId))
+  if (!user || sameName(typedName, user.name) || (nameNote?.trim().length ?? 0) >= 3) return
+  throw fieldInvalid('typedName', `is not the name on your account (${user.name}): type it as on file, `
+    + 'or say why it differs; nothing was signed')
 }
 
 /** The content each signature signed, as stored beside it. */

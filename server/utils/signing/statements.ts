@@ -74,7 +74,7 @@ async function signStatement(
     reason?: string
   },
   user: { id: number, name: string },
-  sign: { typedName: string, drawingPng?: string, proof: SignerProof },
+  sign: { typedName: string, nameNote?: string, drawingPng?: string, proof: SignerProof },
   guard?: (tx: Tx) => Promise<void>,
 ) {
   return useDb().transaction(async (tx) => {
@@ -92,6 +92,7 @@ async function signStatement(
       eventId,
       signerId: user.id,
       typedName: sign.typedName,
+      nameNote: sign.nameNote,
       content: statementContent(row, user.name),
       drawingPng: sign.drawingPng,
       reason: body.reason,

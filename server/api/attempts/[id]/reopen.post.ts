@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
     password: input.password,
     passkey: input.passkey,
     typedName: input.typedName,
+    nameNote: input.nameNote,
     reopen: input.reason,
   })
   setResponseStatus(event, 201)

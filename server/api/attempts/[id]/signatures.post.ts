@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
     password: input.password,
     passkey: input.passkey,
     typedName: input.typedName,
+    nameNote: input.nameNote,
   })
   setResponseStatus(event, 201)
   return signed

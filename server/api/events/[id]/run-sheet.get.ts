@@ -2,10 +2,17 @@
 export default defineEventHandler(async (event) => {
   const { eventId } = await requireEventRole(event, ['timekeeper', 'organiser', 'official'])
   const day = await loadEventDay(eventId, { history: true })
+  const now = Date.now()
+  const attempts = computeLive(day, { readings: true })
+  const clearance = await clearanceOf(day.entries.map(e => e.entry.id))
+  const placements = placementsOf(day, now)
+  /** A run of the entry that left the line and has neither a time nor an abort yet. */
+  const openRun = (entryId: number) => attempts.filter(a => a.entry.id === entryId)
+    .flatMap(a => a.runs).find(r => r.status !== 'aborted' && !r.official)?.id ?? null
   return {
-    now: new Date().toISOString(),
+    now: new Date(now).toISOString(),
     timeZone: day.event.timeZone,
-    attempts: computeLive(day, { readings: true }),
+    attempts,
     history: day.readings.map(r => ({ ...r, ticks: r.ticks.toString() })),
     entries: day.entries.map(e => ({
       id: e.entry.id,
@@ -16,6 +23,12 @@ export default defineEventHandler(async (event) => {
       distanceId: e.entry.distanceId,
       /** What its claims take: flying passes, standing starts, or either (claims of both kinds). */
       starts: [...new Set(e.entry.distanceIds.map(id => day.distances.find(d => d.id === id)!.start))],
+      /** Whether it may run now (a signed, passed inspection and no suspension since), and if not why. */
+      cleared: clearance.get(e.entry.id)?.cleared ?? false,
+      notClearedWhy: clearance.get(e.entry.id)?.why ?? null,
+      openRunId: openRun(e.entry.id),
+      /** Where a run out or back leaving now would go: the open attempt, or a new one and why. */
+      next: placements.get(e.entry.id)!,
     })),
     traps: day.traps,
     systems: day.systems,
