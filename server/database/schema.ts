@@ -171,8 +171,10 @@ export const traps = pgTable(
     /** Surveyed position, metres from the start line. */
     positionM: numeric('position_m', { precision: 12, scale: 3 }).notNull(),
     elevationM: numeric('elevation_m', { precision: 9, scale: 3 }).notNull(),
+    /** Set when the organiser retires it, with the reason in the set-up history; never deleted. */
+    retiredAt: timestamp('retired_at', { withTimezone: true }),
   },
-  t => [uniqueIndex('traps_course_label').on(t.courseId, t.label)],
+  t => [uniqueIndex('traps_course_label').on(t.courseId, t.label).where(sql`retired_at is null`)],
 )
 
 export const machines = pgTable('machines', {
@@ -215,8 +217,10 @@ export const measuredDistances = pgTable(
     exitTrapId: integer('exit_trap_id')
       .notNull()
       .references(() => traps.id),
+    /** Set when the organiser retires it, with the reason in the set-up history; never deleted. */
+    retiredAt: timestamp('retired_at', { withTimezone: true }),
   },
-  t => [uniqueIndex('distances_course_label').on(t.courseId, t.label)],
+  t => [uniqueIndex('distances_course_label').on(t.courseId, t.label).where(sql`retired_at is null`)],
 )
 
 export const timingSystems = pgTable(
@@ -235,8 +239,10 @@ export const timingSystems = pgTable(
     toleranceS: numeric('tolerance_s', { precision: 8, scale: 6 }).notNull(),
     calibratedOn: date('calibrated_on').notNull(),
     calibrationExpires: date('calibration_expires').notNull(),
+    /** Set when the organiser retires it, with the reason in the set-up history; never deleted. */
+    retiredAt: timestamp('retired_at', { withTimezone: true }),
   },
-  t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role)],
+  t => [uniqueIndex('timing_systems_event_role').on(t.eventId, t.role).where(sql`retired_at is null`)],
 )
 
 /**
@@ -274,13 +280,63 @@ export const standingRecords = pgTable(
     /** A result ratified at this event stands from the moment of its ratification; null for one entered by hand. */
     dossierId: integer('dossier_id').references(() => dossiers.id),
     setAt: timestamp('set_at', { withTimezone: true }),
+    /** Set when the organiser retires it, with the reason in the set-up history; never deleted. */
+    retiredAt: timestamp('retired_at', { withTimezone: true }),
   },
   t => [
     uniqueIndex('standing_records_event_class_distance')
       .on(t.eventId, t.className, t.distanceLabel)
-      .where(sql`dossier_id is null`),
+      .where(sql`dossier_id is null and retired_at is null`),
   ],
 )
+
+/** What set-up changes are corrected or retired, with the values before and after and the reason. */
+export const SETUP_SUBJECTS = ['trap', 'distance', 'timing-system', 'record', 'event', 'entry'] as const
+export type SetupSubject = (typeof SETUP_SUBJECTS)[number]
+
+/**
+ * The history of set-up and entry corrections: every change to a trap, a measured distance, a timing
+ * system, a standing record, the event or an entry, with the values before and after, who and why.
+ * Append-only, like readings.
+ */
+export const setupChanges = pgTable(
+  'setup_changes',
+  {
+    id: serial('id').primaryKey(),
+    eventId: integer('event_id')
+      .notNull()
+      .references(() => events.id),
+    subject: text('subject').$type<SetupSubject>().notNull(),
+    subjectId: integer('subject_id').notNull(),
+    action: text('action').$type<'edit' | 'retire'>().notNull(),
+    before: jsonb('before').notNull(),
+    after: jsonb('after'),
+    reason: text('reason').notNull(),
+    changedBy: integer('changed_by')
+      .notNull()
+      .references(() => users.id),
+    changedAt: timestamp('changed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [index('setup_changes_subject').on(t.eventId, t.subject, t.subjectId)],
+)
+
+/** A team's request to change its entry after its first run: decided by the organiser. */
+export const entryChangeRequests = pgTable('entry_change_requests', {
+  id: serial('id').primaryKey(),
+  entryId: integer('entry_id')
+    .notNull()
+    .references(() => entries.id),
+  changes: jsonb('changes').notNull(),
+  reason: text('reason').notNull(),
+  requestedBy: integer('requested_by')
+    .notNull()
+    .references(() => users.id),
+  requestedAt: timestamp('requested_at', { withTimezone: true }).notNull().defaultNow(),
+  status: text('status').$type<'pending' | 'approved' | 'refused'>().notNull().default('pending'),
+  decidedBy: integer('decided_by').references(() => users.id),
+  decidedAt: timestamp('decided_at', { withTimezone: true }),
+  decisionNote: text('decision_note'),
+})
 
 /** A machine and rider entered for a record: a class at a measured distance. */
 export const entries = pgTable('entries', {

@@ -158,6 +158,29 @@ export const profileAdaptSchema = z.object({
 })
 export type ProfileAdaptInput = z.infer<typeof profileAdaptSchema>
 
+/** What a team corrects in its entry: the rider and the machine as entered. */
+export const entryDetailsSchema = z.object({
+  rider: z.object({
+    name: z.string().trim().min(2).max(80),
+    licenceNo: z.string().trim().min(2).max(40),
+    licenceExpires: day,
+  }),
+  machine: z.object({
+    name: z.string().trim().min(2).max(80),
+    power: z.enum(POWER_SOURCES),
+    declaredMassKg: decimalText(1, { min: 1, max: 20_000 }),
+    division: z.enum(STREAMLINING),
+  }),
+  /** Why; required once the entry has run (the organiser reads it before approving). */
+  reason: z.string().trim().max(500).default(''),
+})
+export type EntryDetailsInput = z.infer<typeof entryDetailsSchema>
+export const changeDecisionSchema = z.object({
+  approve: z.boolean({ error: 'say whether the change is approved' }),
+  note: z.string().trim().max(500).default(''),
+})
+export type ChangeDecisionInput = z.infer<typeof changeDecisionSchema>
+
 export const entrySchema = z
   .object({
     machine: z

@@ -57,6 +57,8 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/people': { expect: organiserOnly(422), body: {} },
   'POST /api/events/[id]/courses': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/traps': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'PATCH /api/events/[id]/setup/[kind]/[itemId]': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/setup/[kind]/[itemId]/retire': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/distances': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/timing-systems': { expect: rolesOnly(422, 'organiser'), body: {} },
   'POST /api/events/[id]/records': { expect: rolesOnly(422, 'organiser'), body: {} },
@@ -118,12 +120,15 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/dossiers/verify': { expect: all(422), body: {} },
   'GET /api/record-book': { expect: all(200) },
   'GET /api/seal': { expect: all(200) },
+  'PATCH /api/entries/[id]': { expect: rolesOnly(422, 'team'), body: {} },
+  'GET /api/events/[id]/entry-changes': { expect: rolesOnly(200, 'team', 'organiser') },
+  'POST /api/change-requests/[id]/decision': { expect: rolesOnly(422, 'organiser'), body: {} },
 }
 
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { runs: 0, readings: 0, attempts: 0, inspections: 0, statements: 0, signatures: 0, evidence: 0, dossiers: 0, machines: 0, checklists: 0, unreadyAttempt: 0 }
+  const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -137,6 +142,18 @@ describe('authorization table', () => {
     // A ratified dossier, from the public record book (other test files may add newer versions).
     ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await demoMileRecord()).dossierUrl)![1])
     ids.runs = streamliner.runs[0].id
+    // The streamliner has run: a correction of its entry is a request for the organiser.
+    ids.entries = streamliner.entry.id
+    const asked = await call('PATCH', `/api/entries/${ids.entries}`, {
+      cookie: cookies.team,
+      body: {
+        rider: { name: 'Mara Quillfeather', licenceNo: 'DEMO-L-2', licenceExpires: '2099-01-01' },
+        machine: { name: 'Larkspur Fennwick streamliner', power: 'electric', declaredMassKg: '290.0', division: 'full' },
+        reason: 'licence renewed',
+      },
+    })
+    expect(asked.body.status, JSON.stringify(asked.body)).toBe('requested')
+    ids['change-requests'] = asked.body.requestId
     const overview = await call('GET', `/api/events/${eventId}`, { cookie: cookies.organiser })
     ids.machines = overview.body.teams.find((t: { name: string }) => t.name === 'Larkspur Works').machines[0].id
     ids.readings = sheet.body.history[0].id
@@ -187,9 +204,10 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
-        const r = await call(method, path.replace('[id]', String(id)).replace('[sha]', sha), { cookie: cookies[who], body: spec.body })
+        const filled = path.replace('[id]', String(id)).replace('[sha]', sha).replace('[kind]', 'traps').replace('[itemId]', '1')
+        const r = await call(method, filled, { cookie: cookies[who], body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })
     }

@@ -55,3 +55,15 @@ it('answers a revalidation with an empty 304', async () => {
   expect(again.status).toBe(304)
   expect(again.body.length).toBe(0)
 })
+
+it('sends a page that is not there as a readable page with the site\'s header, to a browser that takes brotli', async () => {
+  // A 404 answer's body must be what its headers say it is (RFC 9110, 8.4): once it reached the browser
+  // compressed twice, and showed as a network error instead of the page.
+  const missing = await raw('/no-such-page', { 'accept': 'text/html', 'accept-encoding': 'br, gzip' })
+  expect(missing.status).toBe(404)
+  const html = missing.headers['content-encoding'] === 'br'
+    ? brotliDecompressSync(missing.body).toString()
+    : missing.headers['content-encoding'] === 'gzip' ? gunzipSync(missing.body).toString() : missing.body.toString()
+  expect(html).toContain('There is no page at this address')
+  expect(html).toContain('aria-label="Main"')
+})

@@ -80,9 +80,11 @@ export async function clearedEntry(
   const id = started.body.id as number
   await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: FIGURES })
   await answerAll(id, undefined, { scrutineer })
+  // The name typed is the scrutineer's name on file: a signature names the person who gives it.
+  const { name } = (await call('GET', '/api/me', { cookie: scrutineer })).body.user as { name: string }
   const signed = await call('POST', `/api/inspections/${id}/signatures`, {
     cookie: scrutineer,
-    body: { password: who.scrutineerPassword ?? DEMO_PASSWORD, typedName: 'Selma Scrute' },
+    body: { password: who.scrutineerPassword ?? DEMO_PASSWORD, typedName: name },
   })
   expect(signed.status, JSON.stringify(signed.body)).toBe(201)
   return entryId

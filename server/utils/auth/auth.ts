@@ -88,6 +88,8 @@ const OWNER = {
   dossier: sql`select event_id from dossiers where id = `,
   machine: sql`select t.event_id from machines m join teams t on t.id = m.team_id where m.id = `,
   checklist: sql`select event_id from checklists where id = `,
+  entry: sql`select event_id from entries where id = `,
+  changeRequest: sql`select e.event_id from entry_change_requests c join entries e on e.id = c.entry_id where c.id = `,
 } as const
 
 /**

@@ -1,4 +1,4 @@
-import { asc, desc, eq, isNull } from 'drizzle-orm'
+import { and, asc, desc, eq, isNull } from 'drizzle-orm'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
 import { cmp, fromDecimal, toFixed } from '#shared/rules/exact'
 import { localDate } from '#shared/rules/zoned'
@@ -77,7 +77,7 @@ async function enteredRecords() {
     .select({ r: t.standingRecords, event: t.events.name, profile: t.events.profile })
     .from(t.standingRecords)
     .innerJoin(t.events, eq(t.events.id, t.standingRecords.eventId))
-    .where(isNull(t.standingRecords.dossierId))
+    .where(and(isNull(t.standingRecords.dossierId), isNull(t.standingRecords.retiredAt)))
     .orderBy(desc(t.standingRecords.setOn), asc(t.standingRecords.id))
 }
 type Entered = Awaited<ReturnType<typeof enteredRecords>>[number]

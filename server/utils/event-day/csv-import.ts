@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm'
+import { and, eq, isNull, sql } from 'drizzle-orm'
 import Papa from 'papaparse'
 import type { CsvImportInput } from '#shared/schemas/event-day'
 import { parseTimeOfDay } from '#shared/rules/timing'
@@ -95,8 +95,9 @@ async function loadImportContext(eventId: number) {
       where r.event_id = ${eventId}`),
     db.execute<{ id: number, course_id: number, label: string }>(sql`
       select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id
-      where c.event_id = ${eventId}`),
-    db.select().from(tables.timingSystems).where(eq(tables.timingSystems.eventId, eventId)),
+      where c.event_id = ${eventId} and t.retired_at is null`),
+    db.select().from(tables.timingSystems)
+      .where(and(eq(tables.timingSystems.eventId, eventId), isNull(tables.timingSystems.retiredAt))),
     db.execute<{ subject_id: number, kind: string }>(sql`
       select distinct on (subject_id) subject_id, kind from signatures
       where event_id = ${eventId} and kind in ('timing-sheet', 'timing-sheet-reopened')

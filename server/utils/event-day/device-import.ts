@@ -107,7 +107,8 @@ async function readBlobText(sha256: string) {
 /** The event's traps with their course. */
 async function eventTraps(eventId: number) {
   const { rows } = await useDb().execute<{ id: number, course_id: number, label: string }>(sql`
-    select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id where c.event_id = ${eventId}`)
+    select t.id, t.course_id, t.label from traps t join courses c on c.id = t.course_id
+    where c.event_id = ${eventId} and t.retired_at is null`)
   return rows.map(t => ({ id: t.id, courseId: t.course_id, label: t.label }))
 }
 

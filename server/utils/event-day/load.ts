@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, inArray, isNull, sql } from 'drizzle-orm'
 
 /** Entries with their team's name, machine and rider. */
 function entryRows(eventId: number) {
@@ -45,7 +45,7 @@ function standingRecordRows(eventId: number) {
     .select({ ...getTableColumns(t.standingRecords), fromAttemptId: t.dossiers.attemptId })
     .from(t.standingRecords)
     .leftJoin(t.dossiers, eq(t.dossiers.id, t.standingRecords.dossierId))
-    .where(eq(t.standingRecords.eventId, eventId))
+    .where(and(eq(t.standingRecords.eventId, eventId), isNull(t.standingRecords.retiredAt)))
     .orderBy(asc(t.standingRecords.id))
 }
 
@@ -153,10 +153,15 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures,
     setAsides, impounds, inspected] = await Promise.all([
     db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
-    db.select().from(t.traps).where(inArray(t.traps.courseId, courseIds)).orderBy(asc(t.traps.positionM)),
-    db.select().from(t.measuredDistances).where(inArray(t.measuredDistances.courseId, courseIds))
+    // Retired set-up items leave the day (nothing that uses them may be retired); their history stays.
+    db.select().from(t.traps).where(and(inArray(t.traps.courseId, courseIds), isNull(t.traps.retiredAt)))
+      .orderBy(asc(t.traps.positionM)),
+    db.select().from(t.measuredDistances)
+      .where(and(inArray(t.measuredDistances.courseId, courseIds), isNull(t.measuredDistances.retiredAt)))
       .orderBy(asc(t.measuredDistances.id)),
-    db.select().from(t.timingSystems).where(eq(t.timingSystems.eventId, eventId)).orderBy(asc(t.timingSystems.role)),
+    db.select().from(t.timingSystems)
+      .where(and(eq(t.timingSystems.eventId, eventId), isNull(t.timingSystems.retiredAt)))
+      .orderBy(asc(t.timingSystems.role)),
     entryRows(eventId),
     standingRecordRows(eventId),
     db.select().from(t.attempts).where(eq(t.attempts.eventId, eventId)).orderBy(asc(t.attempts.id)),

@@ -3,7 +3,16 @@ import { checkMeasuredDistance } from '#shared/rules/course'
 export default defineEventHandler(async (event) => {
   const { eventId } = await requireEventRole(event, 'any', { admin: true })
   const day = await loadEventDay(eventId)
+  // Why each item may not be corrected any more (a signed timing sheet rests on it); null where it may.
+  const locks = await setupLocks(eventId, [
+    ...day.traps.map(row => ({ kind: 'traps' as const, row })),
+    ...day.distances.map(row => ({ kind: 'distances' as const, row })),
+    ...day.systems.map(row => ({ kind: 'timing-systems' as const, row })),
+    ...day.records.filter(r => !r.dossierId).map(row => ({ kind: 'records' as const, row })),
+  ])
   return {
+    locks,
+    history: await setupHistoryOf(eventId),
     event: day.event,
     courses: day.courses.map(c => ({ ...c, traps: day.traps.filter(t => t.courseId === c.id) })),
     distances: day.distances.map((d) => {
