@@ -6,6 +6,8 @@ export interface UploadItem {
   size: number
   sent: number
   startedAt: number
+  /** When the last byte was answered: the speed shown stops there. */
+  finishedAt?: number
   state: 'sending' | 'done' | 'failed' | 'cancelled'
   message: string
   sha256?: string
@@ -45,8 +47,11 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
     const xhr = new XMLHttpRequest()
     item.xhr = xhr
     xhr.open('POST', `/api/events/${eventId.value}/evidence`)
+    // The request carries the form's fields and boundaries as well as the file: its share of the file, never
+    // more than the file itself (a bar past 100 % read as a fault).
     xhr.upload.onprogress = (e) => {
-      item.sent = e.loaded
+      const share = e.lengthComputable && e.total > 0 ? e.loaded / e.total : 0
+      item.sent = Math.min(item.size, Math.round(share * item.size))
     }
     xhr.onload = () => {
       let res: { sha256?: string, message?: string, data?: { issues?: { path: string, message: string }[] } } = {}
@@ -56,6 +61,7 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
       catch {
         /* not JSON */
       }
+      item.finishedAt = Date.now()
       if (xhr.status === 201) {
         Object.assign(item, { state: 'done', sent: item.size, sha256: res.sha256 })
         onDone()
@@ -64,7 +70,7 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
         Object.assign(item, {
           state: 'failed',
           message:
-            res.data?.issues?.map(i => `${i.path}: ${i.message}`).join('; ')
+            res.data?.issues?.map(i => `${fieldLabel(i.path)} ${i.message}`).join('; ')
             ?? res.message
             ?? `refused (${xhr.status})`,
         })
@@ -80,11 +86,11 @@ export function useUploads(eventId: Ref<string>, onDone: () => void) {
 
 /** Speed and time left of an upload, for its progress line. */
 export function uploadFigures(item: UploadItem, now: number) {
-  const seconds = Math.max(0.001, (now - item.startedAt) / 1000)
+  const seconds = Math.max(0.001, ((item.finishedAt ?? now) - item.startedAt) / 1000)
   const rate = item.sent / seconds
   const left = rate > 0 ? (item.size - item.sent) / rate : Infinity
   return {
-    percent: item.size ? Math.floor((item.sent / item.size) * 100) : 100,
+    percent: item.size ? Math.min(100, Math.floor((item.sent / item.size) * 100)) : 100,
     rate: `${formatBytes(rate)}/s`,
     left: Number.isFinite(left) ? `${Math.ceil(left)} s left` : '',
   }

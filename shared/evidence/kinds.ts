@@ -108,4 +108,4 @@ export const formatBytes = (n: number) =>
       ? `${(n / MB).toFixed(1)} MB`
       : n >= 1024
         ? `${(n / 1024).toFixed(0)} kB`
-        : `${n} B`
+        : `${Math.round(n)} B`

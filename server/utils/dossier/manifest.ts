@@ -190,6 +190,7 @@ async function manifestInspection(inspectionId: number) {
       const item = allItems(checklist).find(x => x.key === a.itemKey)
       return {
         item: a.itemKey,
+        label: item?.label ?? a.itemKey,
         result: a.result,
         enteredAs: a.enteredAs,
         note: a.note,

@@ -69,8 +69,12 @@ function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
       { title: 'Against the limit (source)', width: 220 },
     ],
     i.answers.map(a => [
-      a.item,
-      a.withinLimit === false ? 'FAIL (measured)' : a.result,
+      // The checklist's own words for the item (a dossier sealed before labels were kept shows its key).
+      (a as { label?: string }).label ?? a.item,
+      a.withinLimit === false
+        ? 'FAIL (measured)'
+        : ({ pass: 'passed', fail: 'failed', na: 'not applicable' }[a.result]
+          ?? a.result),
       a.enteredAs ?? '',
       a.limitSource
         ? `${a.withinLimit === false ? 'outside' : a.withinLimit ? 'within' : 'not judged'}`

@@ -35,7 +35,9 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
       problem: pdfSignature.problem,
       subject: pdfSignature.subject,
     },
-    dossier: issued ? { id: issued.id, attemptId: issued.attemptId, version: issued.version } : null,
+    dossier: issued
+      ? { id: issued.id, attemptId: issued.attemptId, version: issued.version, ...await namesOf(issued) }
+      : null,
     standing,
     message: sealValid
       ? `The seal is valid: signed by key ${sealKey!.keyId}${sealKey!.retiredAt ? ' (retired since)' : ''}, the PDF `
@@ -43,6 +45,25 @@ export async function verifyDossier(bytes: Uint8Array): Promise<Verification> {
       + `${issued!.version} of attempt #${issued!.attemptId}. ${standing!.words}`
       : `Not intact: ${failing.join(', ')} ${failing.length === 1 ? 'does' : 'do'} not match what was sealed.`,
   }
+}
+
+/** The machine, team, distance and event a dossier is about, as the verification names them. */
+async function namesOf(d: typeof tables.dossiers.$inferSelect) {
+  const [row] = await useDb()
+    .select({
+      machineName: tables.machines.name,
+      teamName: tables.teams.name,
+      distanceLabel: tables.measuredDistances.label,
+      eventName: tables.events.name,
+    })
+    .from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+    .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
+    .innerJoin(tables.teams, eq(tables.teams.id, tables.entries.teamId))
+    .innerJoin(tables.events, eq(tables.events.id, tables.attempts.eventId))
+    .innerJoin(tables.measuredDistances, eq(tables.measuredDistances.id, d.distanceId))
+    .where(eq(tables.attempts.id, d.attemptId))
+  return row ?? { machineName: '', teamName: '', distanceLabel: '', eventName: '' }
 }
 
 /** What became of an issued dossier: the current version or superseded, and any decision on it. */

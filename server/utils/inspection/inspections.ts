@@ -479,8 +479,13 @@ export async function inspectionView(inspectionId: number) {
       )[0]
     : null
   const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId, figures)
+  // A re-inspection shows the previous inspection's values, item by item, for the scrutineer to confirm.
+  const previous = inspection.previousId ? await answersOf([inspection.previousId]) : []
   return {
     inspection,
+    previousAnswers: previous.map(a => ({
+      itemKey: a.itemKey, result: a.result, enteredAs: a.enteredAs, note: a.note,
+    })),
     answers: answers.map(a => ({
       ...a,
       verdict: checkMeasurement(

@@ -1,0 +1,27 @@
+import { describe, expect, it } from 'vitest'
+import { convertTyped, implausibleTime } from '#shared/rules/plausible'
+
+describe('a time that cannot be a record run gets a plain warning', () => {
+  // The outright land speed record, 1227.985 km/h over the flying mile (FIA, 15 October 1997, published):
+  // 1609.344 m ÷ (1227.985 ÷ 3.6) m/s = 4.71796… s. A mile in 4.7170 s is faster; in 4.7190 s it is not.
+  it('warns above the outright record and not below it', () => {
+    expect(implausibleTime('1609.344', '4.7170')).toContain('Faster than any machine has gone on land')
+    expect(implausibleTime('1609.344', '4.7190')).toBeNull()
+    expect(implausibleTime('1609.344', '0.0001')).toContain('check the time')
+  })
+  it('warns of more than an hour, and of a time written in exponent form', () => {
+    expect(implausibleTime('1000', '3600.1')).toContain('More than an hour')
+    expect(implausibleTime('1000', '1e21')).toContain('not in exponent form')
+    expect(implausibleTime('1000', '14.5')).toBeNull()
+  })
+})
+
+describe('the unit switch converts the record typed', () => {
+  // 1 mile = 1.609344 km exactly (NIST SP 811, appendix B): 400 km/h = 248.5484… mph; 250 mph = 402.336 km/h.
+  it('converts exactly and keeps the decimals typed', () => {
+    expect(convertTyped('400.000', 'km/h', 'mph')).toBe('248.548')
+    expect(convertTyped('250', 'mph', 'km/h')).toBe('402')
+    expect(convertTyped('250.000', 'mph', 'km/h')).toBe('402.336')
+    expect(convertTyped('fast', 'mph', 'km/h')).toBeNull()
+  })
+})
