@@ -40,6 +40,8 @@ const demoEvent = (cal: DemoCalendar) => ({
   endsOn: cal.endsOn,
   timeZone: TIME_ZONE,
   profileId: 'intl-motorcycle' as const,
+  /** The demo's organiser has opened the public live board. */
+  publicBoard: true,
 })
 
 /** Traps of the fictional north course: a flying mile with a flying kilometre centred inside it. */

@@ -80,6 +80,8 @@ export const events = pgTable('events', {
   profile: jsonb('profile').$type<RuleProfile>().notNull(),
   /** Bumped by triggers whenever anything the live results read changes (drizzle/0002). */
   dataVersion: bigint('data_version', { mode: 'number' }).notNull().default(0),
+  /** The organiser opts in: a public board of runs and results, with no personal data, for spectators and press. */
+  publicBoard: boolean('public_board').notNull().default(false),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: createdAt(),
 })

@@ -9,9 +9,9 @@ const MIN_BYTES = 1024
 export default defineNitroPlugin((nitro) => {
   nitro.hooks.hook('beforeResponse', async (event, response) => {
     if (event.path.startsWith('/_nuxt/') || getResponseHeader(event, 'content-encoding')) return
-    // An error page is rendered on a second pass through this hook: compressed twice it reaches the browser
-    // unreadable. Errors are small; they go as they are.
-    if (getResponseStatus(event) >= 400) return
+    // An error page is rendered by an inner request (/__nuxt_error) whose body the error handler reads back as
+    // text: compressed there, it reached the browser as broken bytes. Errors are small; they go as they are.
+    if (getResponseStatus(event) >= 400 || event.path.startsWith('/__nuxt_error')) return
     const declared = getResponseHeader(event, 'content-type')
     const type = String(declared ?? (typeof response.body === 'object' ? 'application/json' : ''))
     if (!COMPRESSIBLE.test(type)) return

@@ -44,3 +44,17 @@ export function speed(distanceM: Q, timeS: Q): Q {
   if (cmp(timeS, q(0n)) <= 0) throw new RangeError('time must be positive')
   return div(distanceM, timeS)
 }
+
+/**
+ * A time of day as typed on a phone's number keypad, which has no colon: "182440.1000" (or "182440,1000")
+ * is 18:24:40.1000, and "92440.5" is 09:24:40.5. Anything else is given back as typed, for the schema to
+ * judge. `readAs` says how a compact time was read, to show beside the cell.
+ */
+export function readTypedTime(text: string): { time: string, readAs: string | null } {
+  const t = text.trim()
+  const m = /^(\d{5,6})(?:[.,](\d{1,6}))?$/.exec(t)
+  if (!m) return { time: t.replace(/^(\d{1,2}:\d{2}:\d{2}),(\d+)$/, '$1.$2'), readAs: null }
+  const digits = m[1]!.padStart(6, '0')
+  const time = `${digits.slice(0, 2)}:${digits.slice(2, 4)}:${digits.slice(4, 6)}${m[2] ? `.${m[2]}` : ''}`
+  return { time, readAs: `${t} read as ${time}` }
+}

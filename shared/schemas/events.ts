@@ -52,6 +52,8 @@ export const updateEventSchema = z
     startsOn: day.optional(),
     endsOn: day.optional(),
     timeZone: timeZoneName.optional(),
+    /** A public board of runs and results (no personal data), opted in by the organiser. */
+    publicBoard: z.preprocess(v => (v === 'true' ? true : v === 'false' ? false : v), z.boolean().optional()),
   })
   .refine(x => !x.startsOn || !x.endsOn || x.endsOn >= x.startsOn, {
     error: 'must not be before the first day',

@@ -121,6 +121,8 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/record-book': { expect: all(200) },
   'GET /api/seal': { expect: all(200) },
   'PATCH /api/entries/[id]': { expect: rolesOnly(422, 'team'), body: {} },
+  // The demo's organiser opened the public board: anyone reads it.
+  'GET /api/board/[id]': { expect: all(200) },
   'GET /api/events/[id]/entry-changes': { expect: rolesOnly(200, 'team', 'organiser') },
   'POST /api/change-requests/[id]/decision': { expect: rolesOnly(422, 'organiser'), body: {} },
 }

@@ -348,7 +348,12 @@ describe('submission and ratification', () => {
 
     // What became of each: the new version is the latest, not yet decided; the first is superseded by it.
     const newPdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${built.body.id}/pdf`), { headers: { cookie: cookie.team } })).arrayBuffer())
-    expect((await verify(newPdf)).body.standing).toMatchObject({ state: 'current', latestVersion: built.body.version })
+    const checked = (await verify(newPdf)).body
+    expect(checked.standing).toMatchObject({ state: 'current', latestVersion: built.body.version })
+    // The verification names what it checked: the demo's streamliner, its team, the distance and the version.
+    expect(checked.dossier).toMatchObject({
+      id: built.body.id, version: built.body.version, machineName: 'Larkspur Fennwick streamliner', teamName: 'Larkspur Works',
+    })
     const old = (await verify(pdf)).body.standing
     expect(old.latestVersion).toBe(built.body.version)
     expect(old.words).toContain(`It is superseded: version ${built.body.version} is the latest of this attempt.`)

@@ -4,9 +4,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoEmail } from '../support/api'
 import { launchBrowser, open, signIn } from '../support/browser'
 
-// Every page each role can reach from its home, in the day and the night theme, checked by axe-core
-// against WCAG 2.1 A and AA (its colour-contrast rule computes the 4.5:1 and 3:1 ratios of WCAG 2.1
-// success criterion 1.4.3). A serious or critical violation fails the test, named with its page.
+// Every page each role can reach from its home, in the day theme at a desk's width and in the night theme at
+// a phone's (390 px), checked by axe-core against WCAG 2.1 A and AA (its colour-contrast rule computes the
+// 4.5:1 and 3:1 ratios of success criterion 1.4.3). A serious or critical violation fails the test, named
+// with its page; so does a page wider than the phone (sideways scrolling; SC 1.4.10, reflow).
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => {
   ctx = await launchBrowser()
@@ -26,11 +27,13 @@ async function setTheme(browser: BrowserContext, baseUrl: string, theme: 'day' |
 
 async function violations(page: Page) {
   const result = await new AxeBuilder({ page }).withTags(WCAG).analyze()
-  return result.violations
+  const wide = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+  return (wide > 0 ? [`${wide} px wider than the window: it scrolls sideways`] : []).concat(result.violations
     .filter(v => v.impact === 'serious' || v.impact === 'critical')
     .map(v => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.slice(0, 3).map(n => n.target.join(' ')).join(', ')}`
-      + ` ${v.nodes[0]?.failureSummary?.replace(/\s+/g, ' ') ?? ''}`)
+      + ` ${v.nodes[0]?.failureSummary?.replace(/\s+/g, ' ') ?? ''}`))
 }
+const width = (theme: 'day' | 'dark') => (theme === 'dark' ? 390 : 1280)
 
 /** The pages reachable from `start` by links of this site, two clicks deep, one of each kind. */
 async function reachable(page: Page, baseUrl: string, start: string[]) {
@@ -59,8 +62,9 @@ describe.each(['day', 'dark'] as const)('the %s theme', (theme) => {
     await ctx.browser.clearCookies()
     await setTheme(ctx.browser, ctx.baseUrl, theme)
     const page = await open(ctx.browser, `${ctx.baseUrl}/`)
+    await page.setViewportSize({ width: width(theme), height: 800 })
     const problems: string[] = []
-    for (const path of ['/', '/login', '/forgot', '/calculator', '/record-book', '/verify', '/rules', '/cautions', '/no-such-page']) {
+    for (const path of ['/', '/login', '/forgot', '/calculator', '/record-book', '/verify', '/rules', '/cautions', '/board/1', '/no-such-page']) {
       await page.goto(`${ctx.baseUrl}${path}`)
       await page.waitForSelector('html[data-hydrated="true"]')
       problems.push(...(await violations(page)).map(v => `${path}: ${v}`))
@@ -72,6 +76,7 @@ describe.each(['day', 'dark'] as const)('the %s theme', (theme) => {
   it.each(roles)('every page the %s reaches has no serious or critical accessibility violation', async (role) => {
     await setTheme(ctx.browser, ctx.baseUrl, theme)
     const page = await signIn(ctx, demoEmail(role))
+    await page.setViewportSize({ width: width(theme), height: 800 })
     await setTheme(ctx.browser, ctx.baseUrl, theme)
     const pages = await reachable(page, ctx.baseUrl, ['/home'])
     expect(pages.length).toBeGreaterThan(3)

@@ -59,6 +59,9 @@ it('keeps readings and a new run offline, sends each once when the link returns,
   await page.selectOption('#sr-entry', String(entryId))
   await page.selectOption('#sr-direction', 'back')
   await page.click('button:has-text("Start the run")')
+  // The server has no time for the first run yet (its times wait on this device): starting another asks first.
+  expect(await page.locator('[data-test="confirm-start"]').innerText()).toContain(`Run #${run.body.id} of`)
+  await page.click('[data-test="confirm-start-yes"]')
   await page.locator('h2:has-text("Run (waiting to send)")').waitFor()
   await page.fill('[data-test="cell-K-out-primary"]', at(1800))
   await page.keyboard.press('Enter')
