@@ -35,6 +35,8 @@ export default defineNuxtConfig({
     dataDir: '.data',
     /** This app server's name among several sharing a data folder: its upload staging is its own. */
     serverId: 'main',
+    /** "json": one JSON line per request on standard output (production); empty: none. */
+    requestLog: '',
     /**
      * The seal's key set: a folder (a mounted secret works) with seal-ed25519.pem, seal-certificate.pem and
      * seal-certificate-key.pem, or the three PEM texts themselves. Unset: `<dataDir>/seal`, made on a first

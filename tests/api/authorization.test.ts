@@ -22,6 +22,8 @@ const rolesOnly = (status: number, ...roles: Who[]) => ({ ...eventMembers(403), 
 // Bodies are empty on purpose: past the role check a write answers 422, which shows the gate let it through.
 const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/health': { expect: all(200) },
+  'GET /api/alive': { expect: all(200) },
+  'GET /api/ready': { expect: all(200) },
   'GET /api/clock': { expect: all(200) },
   'GET /api/profiles': { expect: all(200) },
   'POST /api/calculator': { expect: all(422), body: {} },

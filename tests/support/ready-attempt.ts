@@ -8,9 +8,17 @@ import type { TestEvent } from './test-event'
  * certificates, the rider's licence, weather at each run, the timing sheet signed and two officials'
  * statements. The files are invented PDFs; only what readiness asks for, nothing of the figures.
  */
-export async function makeReady(event: TestEvent, attemptId: number, runIds: number[], entryId: number) {
+export async function makeReady(
+  event: TestEvent,
+  attemptId: number,
+  runIds: number[],
+  entryId: number,
+  options: { uploadBase?: string } = {},
+) {
+  // The files go through the server named (another app server, in the test of several), else the tests' own.
+  const at = (path: string) => (options.uploadBase ? `${options.uploadBase}${path}` : url(path))
   const upload = async (who: string, fields: Record<string, string | number>, name: string) => {
-    const r = await fetch(url(`/api/events/${event.eventId}/evidence`), {
+    const r = await fetch(at(`/api/events/${event.eventId}/evidence`), {
       method: 'POST', headers: { cookie: who }, body: form(fields, { name, bytes: pdf(name) }),
     })
     expect(r.status, await r.clone().text()).toBe(201)

@@ -4,6 +4,7 @@ import type { Readable } from 'node:stream'
 import {
   DeleteObjectCommand,
   GetObjectCommand,
+  HeadBucketCommand,
   HeadObjectCommand,
   ListObjectsV2Command,
   S3Client,
@@ -33,6 +34,11 @@ export class S3BlobStore {
   }
 
   private key = (sha: string) => `evidence/${sha}`
+
+  /** Whether the bucket answers: the readiness check of an app server. */
+  async ready() {
+    await this.client.send(new HeadBucketCommand({ Bucket: this.options.bucket }))
+  }
 
   async has(sha: string) {
     try {

@@ -1,5 +1,5 @@
-import { createReadStream } from 'node:fs'
-import { mkdir, readdir, rename, rm, stat } from 'node:fs/promises'
+import { constants, createReadStream } from 'node:fs'
+import { access, mkdir, readdir, rename, rm, stat } from 'node:fs/promises'
 import { join, resolve } from 'node:path'
 import type { Readable } from 'node:stream'
 import { S3BlobStore } from './blob-store-s3'
@@ -10,6 +10,8 @@ export interface BlobStore {
   /** Moves a complete temporary file into place under its hash; the temporary file is gone after. */
   put(sha256: string, tmpPath: string, size: number, mediaType: string): Promise<void>
   open(sha256: string): Promise<Readable>
+  /** Throws when the store cannot be written: the readiness check of an app server. */
+  ready(): Promise<void>
   remove(sha256: string): Promise<void>
   list(): AsyncIterable<string>
   /** When the file was stored; null if it is not there. */
@@ -20,6 +22,11 @@ export class LocalBlobStore implements BlobStore {
   constructor(private dir: string) {}
   private path(sha: string) {
     return join(this.dir, sha.slice(0, 2), sha)
+  }
+
+  async ready() {
+    await mkdir(this.dir, { recursive: true })
+    await access(this.dir, constants.W_OK)
   }
 
   async has(sha: string) {
