@@ -8,7 +8,7 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 
-# BENCH=live, BENCH=bytes, BENCH=upload or BENCH=dossier runs one part only.
+# BENCH=live, BENCH=bytes, BENCH=upload, BENCH=dossier or BENCH=cluster runs one part only.
 if [ -z "${BENCH:-}" ]; then
   say "rules engine"
   node node_modules/vitest/vitest.mjs bench --run --project unit
@@ -54,4 +54,17 @@ if [ -z "${BENCH:-}" ] || [ "$BENCH" = dossier ]; then
 say "a dossier with 20 evidence files of about 1 GB"
 [ -s "$DATA/bench-1g.mp4" ] || { { printf '\x00\x00\x00\x18ftypmp42\x00\x00\x00\x00mp42isom'; head -c 1073741824 /dev/urandom; } >"$DATA/bench-1g.mp4"; }
 bash scripts/bench/dossier.sh "http://127.0.0.1:$APP_PORT" "$SERVER_PID" "$DATA" "$DB" "$PGBIN/psql"
+fi
+
+if [ -z "${BENCH:-}" ] || [ "$BENCH" = cluster ]; then
+say "two app servers: 500 clients following live results, uploads through both"
+B_PORT="$(free_port 3450)"
+NUXT_DATABASE_URL="$APP_DATABASE_URL" NUXT_SESSION_PASSWORD="bench-session-password-at-least-32-characters" NUXT_SEED_DEMO=true NUXT_DATA_DIR="$DATA/bench-storage" \
+  NUXT_SERVER_ID=b PORT="$B_PORT" HOST=127.0.0.1 NUXT_MAIL_PORT=1 \
+  node "$TRAPLINE_OUTPUT_DIR/server/index.mjs" >"$DATA/bench-server-b.log" 2>&1 &
+B_PID=$!
+trap 'kill ${SERVER_PID:-0} ${B_PID:-0} 2>/dev/null || true; pg_down bench' EXIT
+for _ in $(seq 1 100); do curl -fs "http://127.0.0.1:$B_PORT/api/health" >/dev/null 2>&1 && break; sleep 0.2; done
+node scripts/bench/cluster-load.mjs --a "http://127.0.0.1:$APP_PORT" --b "http://127.0.0.1:$B_PORT" --pids "$SERVER_PID,$B_PID" \
+  --db "$DB" --psql "$PGBIN/psql"
 fi
