@@ -9,8 +9,16 @@ export async function useTestServer() {
 
 export { testFetch }
 
+let base: string | undefined
+/**
+ * Points this test file's helpers (call, login, the test event…) at another app server, as the test of
+ * several servers does with an installation of its own. Each test file has its own copy of this module.
+ */
+export const useBaseUrl = (other: string) => {
+  base = other
+}
 /** An address on the test server; usable in any hook (the test-utils context exists only inside tests). */
-export const url = (path: string) => new URL(path, inject('baseUrl')).toString()
+export const url = (path: string) => new URL(path, base ?? inject('baseUrl')).toString()
 export const DEMO_PASSWORD = demo.password
 export const demoEmail = (role: string) => demo.people.find(p => (role === 'admin' ? p.admin : p.role === role))!.email
 
