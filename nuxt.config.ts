@@ -60,6 +60,11 @@ export default defineNuxtConfig({
     // password when the server asks for them.
     mail: { host: '127.0.0.1', port: 1025, from: 'Trapline <no-reply@trapline.invalid>', tls: 'none', user: '', password: '' },
     mailRetrySeconds: 30,
+    /**
+     * The payment provider, through its official SDK: a secret key and the webhook's signing secret. host,
+     * port and protocol point the SDK at a local fake (scripts/payments-fake.mjs) for the demo and the tests.
+     */
+    payments: { secretKey: 'sk_test_trapline', webhookSecret: 'whsec_trapline_demo', host: '', port: 0, protocol: 'https' },
     /** Evidence files up to this total are attached inside a dossier PDF; larger ones are referenced by hash. */
     dossierAttachBytes: 20 * 1024 * 1024,
     session: {

@@ -35,6 +35,12 @@ if port_busy "$SMTP_PORT"; then
 fi
 node scripts/mail-catcher.mjs --smtp "$SMTP_PORT" --http "$INBOX_PORT" --dir "$DATA/mail" &
 pids+=($!)
+# The payment provider's local fake: the SDK is pointed at it; it signs its webhooks with the demo's secret.
+PAY_PORT="${TRAPLINE_PAYMENTS_PORT:-12111}"
+port_busy "$PAY_PORT" && die "port $PAY_PORT (payments fake) is taken; set TRAPLINE_PAYMENTS_PORT."
+node scripts/payments-fake.mjs --port "$PAY_PORT" --secret whsec_trapline_demo \
+  --webhook "http://127.0.0.1:$APP_PORT/api/payments/webhook" &
+pids+=($!)
 
 if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
   say "building the app (about 20 s)…"
@@ -47,6 +53,7 @@ export NUXT_MAIL_PORT="$SMTP_PORT"
 export NUXT_SITE_URL="${NUXT_SITE_URL:-http://localhost:$APP_PORT}"
 export NUXT_PUBLIC_INBOX_URL="http://127.0.0.1:$INBOX_PORT"
 export NUXT_SEED_DEMO=true
+export NUXT_PAYMENTS_HOST=127.0.0.1 NUXT_PAYMENTS_PORT="$PAY_PORT" NUXT_PAYMENTS_PROTOCOL=http
 export NUXT_DATA_DIR="$DATA"
 # Only this machine unless told otherwise (HOST=0.0.0.0): the demo's passwords are public.
 export PORT="$APP_PORT" HOST="${HOST:-127.0.0.1}"

@@ -72,7 +72,23 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
     const entries = await seedEntries(tx, event.id, course, teams, cal)
     await seedRuns(tx, { event, cal, course, systems, entries, timekeeperId: people.get('timekeeper@trapline.test')! })
     await seedMemberships(tx, event.id, people, teams)
+    await seedFees(tx, event.id, entries, people.get('team@trapline.test')!, cal)
     return true
+  })
+}
+
+/**
+ * The demo's fees (invented amounts, in euros as cents): the streamliner's entry fee paid through the provider
+ * before the event (a receipt of its own), the second team's not yet. Payment is not required before a run.
+ */
+async function seedFees(tx: Tx, eventId: number, entries: Awaited<ReturnType<typeof seedEntries>>, teamUserId: number,
+  cal: DemoCalendar) {
+  await tx.insert(t.eventFees)
+    .values({ eventId, currency: 'eur', entryMinor: 18_000, recordMinor: 4_500, requirePayment: false })
+  await tx.insert(t.payments).values({
+    eventId, entryId: entries[0].id, fee: 'entry', amountMinor: 18_000, currency: 'eur', status: 'paid',
+    providerSessionId: 'cs_demo_larkspur_entry', providerPaymentId: 'pi_demo_larkspur_entry', receiptNo: 'R-DEMO-1',
+    createdBy: teamUserId, paidAt: new Date(`${cal.startsOn}T09:00:00Z`),
   })
 }
 

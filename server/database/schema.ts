@@ -899,3 +899,69 @@ export const idempotentRequests = pgTable(
   },
   t => [primaryKey({ columns: [t.userId, t.key] })],
 )
+
+/** The event's fees, in its currency, as integer minor units (cents): never floats. */
+export const eventFees = pgTable('event_fees', {
+  eventId: integer('event_id')
+    .primaryKey()
+    .references(() => events.id),
+  /** ISO 4217, lower case as the payment provider writes it ("eur", "usd"). */
+  currency: text('currency').notNull(),
+  entryMinor: integer('entry_minor').notNull(),
+  /** The record application fee, per claim, passed on to the sanctioning body; 0 for none. */
+  recordMinor: integer('record_minor').notNull().default(0),
+  /** A late entry (made after `lateAfter`) pays this instead of the entry fee; null for no late fee. */
+  lateMinor: integer('late_minor'),
+  lateAfter: date('late_after'),
+  /** An unpaid entry may not start a run. */
+  requirePayment: boolean('require_payment').notNull().default(false),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** A fee paid (or being paid) through the payment provider's hosted checkout. */
+export const payments = pgTable('payments', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  entryId: integer('entry_id')
+    .notNull()
+    .references(() => entries.id),
+  /** What it pays: the entry (or late entry) fee, or the record application fees of its claims. */
+  fee: text('fee').$type<'entry' | 'late-entry' | 'record'>().notNull(),
+  amountMinor: integer('amount_minor').notNull(),
+  currency: text('currency').notNull(),
+  status: text('status').$type<'pending' | 'paid' | 'failed' | 'cancelled'>().notNull().default('pending'),
+  providerSessionId: text('provider_session_id').notNull().unique(),
+  providerPaymentId: text('provider_payment_id'),
+  refundedMinor: integer('refunded_minor').notNull().default(0),
+  receiptNo: text('receipt_no'),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  paidAt: timestamp('paid_at', { withTimezone: true }),
+})
+
+/** A refund the organiser asks for, confirmed by the provider's webhook. */
+export const refunds = pgTable('refunds', {
+  id: serial('id').primaryKey(),
+  paymentId: integer('payment_id')
+    .notNull()
+    .references(() => payments.id),
+  amountMinor: integer('amount_minor').notNull(),
+  reason: text('reason').notNull(),
+  providerRefundId: text('provider_refund_id').notNull().unique(),
+  status: text('status').$type<'pending' | 'succeeded' | 'failed'>().notNull().default('pending'),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** Every provider event taken, by its id: a webhook delivered twice changes nothing the second time. */
+export const paymentEvents = pgTable('payment_events', {
+  id: text('id').primaryKey(),
+  type: text('type').notNull(),
+  receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+})

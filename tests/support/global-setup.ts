@@ -1,11 +1,14 @@
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
-import { expectedServerErrors, root, startApp, startCatcher, unexpectedErrors, type Started } from './processes'
+import { expectedServerErrors, root, startApp, startCatcher, startPaymentsFake, unexpectedErrors, type Started } from './processes'
 
 // Starts the mail catcher and the built app once for all end-to-end tests, on ports checked when
 // they are bound, with folders of this run's own (scripts/test.sh gives each run one), against the
 // test database that scripts/test.sh created. Nothing here touches a running npm start or another run.
+/** The webhook signing secret the fake signs with and the app checks: a test value, never a real account's. */
+export const PAYMENTS_WEBHOOK_SECRET = 'whsec_trapline_test_secret'
+
 export default async function setup(project: TestProject) {
   // The tests' own connection is the database owner's; the app connects as trapline_app.
   const databaseUrl = process.env.TEST_DATABASE_URL
@@ -25,6 +28,7 @@ export default async function setup(project: TestProject) {
   // new one's pid here, and the teardown stops whichever is running.
   const catcherPidFile = resolve(runDir, 'mail-catcher.pid')
   writeFileSync(catcherPidFile, String(catcher.child.pid))
+  const payments = await startPaymentsFake()
   let app: Started
   try {
     app = await startApp(output, {
@@ -38,14 +42,24 @@ export default async function setup(project: TestProject) {
       NUXT_EVIDENCE_LIMITS_OTHER: String(100 * 1024),
       // A small storage quota per team, so that it can be reached in a test.
       NUXT_TEAM_QUOTA_BYTES: String(3 * 1024 * 1024),
+      // The payment provider's SDK pointed at the local fake.
+      NUXT_PAYMENTS_HOST: '127.0.0.1',
+      NUXT_PAYMENTS_PORT: String(payments.port),
+      NUXT_PAYMENTS_PROTOCOL: 'http',
+      NUXT_PAYMENTS_WEBHOOK_SECRET: PAYMENTS_WEBHOOK_SECRET,
     })
   }
   catch (e) {
     await catcher.stop()
+    await payments.stop()
     throw e
   }
   // NUXT_SITE_URL is the address in e-mails and dossiers; the app answers on 127.0.0.1 and localhost.
   const baseUrl = `http://localhost:${app.port}`
+  await fetch(`http://127.0.0.1:${payments.port}/_fake/config`, {
+    method: 'POST', body: JSON.stringify({ webhook: `http://127.0.0.1:${app.port}/api/payments/webhook` }),
+  })
+  project.provide('paymentsUrl', `http://127.0.0.1:${payments.port}`)
 
   project.provide('baseUrl', baseUrl)
   project.provide('inboxUrl', catcher.inboxUrl)
@@ -56,6 +70,7 @@ export default async function setup(project: TestProject) {
   return async () => {
     await app.stop()
     await catcher.stop()
+    await payments.stop()
     try {
       process.kill(Number(readFileSync(catcherPidFile, 'utf8')), 'SIGTERM')
     }
@@ -78,5 +93,6 @@ declare module 'vitest' {
     databaseUrl: string
     dataDir: string
     serverEnv: string
+    paymentsUrl: string
   }
 }

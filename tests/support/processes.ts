@@ -111,3 +111,8 @@ export const expectedServerErrors = (runDir: string) => {
   const file = resolve(runDir, 'expected-errors')
   return existsSync(file) ? readFileSync(file, 'utf8').split('\n').filter(Boolean).map(p => new RegExp(p)) : []
 }
+
+/** The payment provider's local fake (scripts/payments-fake.mjs), signing webhooks with the tests' secret. */
+export const startPaymentsFake = () => startListening(port => ({
+  args: ['scripts/payments-fake.mjs', '--port', String(port), '--secret', 'whsec_trapline_test_secret'],
+}), '/_fake/ready')

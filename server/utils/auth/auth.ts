@@ -89,6 +89,7 @@ const OWNER = {
   machine: sql`select t.event_id from machines m join teams t on t.id = m.team_id where m.id = `,
   checklist: sql`select event_id from checklists where id = `,
   entry: sql`select event_id from entries where id = `,
+  payment: sql`select event_id from payments where id = `,
   changeRequest: sql`select e.event_id from entry_change_requests c join entries e on e.id = c.entry_id where c.id = `,
 } as const
 

@@ -16,6 +16,7 @@ async function lockClearedEntry(tx: Tx, eventId: number, entryId: number) {
   if (!entry) throw unprocessable('entryId', 'is not an entry of this event')
   const clearance = (await clearanceOf([entry.id])).get(entry.id)!
   if (!clearance.cleared) throw conflict(`This entry is not cleared to run: ${clearance.why}`, clearance)
+  await refuseUnpaid(tx, entry)
   return entry
 }
 
