@@ -37,6 +37,11 @@ node scripts/s3-fake.mjs --port "$S3_PORT" --dir "$CLUSTER/s3" --bucket trapline
 pids+=($!)
 node scripts/mail-catcher.mjs --smtp "$SMTP_PORT" --http "$INBOX_PORT" --dir "$CLUSTER/mail" &
 pids+=($!)
+PAY_PORT="${TRAPLINE_PAYMENTS_PORT:-12111}"
+port_busy "$PAY_PORT" && die "port $PAY_PORT (payments fake) is taken"
+node scripts/payments-fake.mjs --port "$PAY_PORT" --secret whsec_trapline_demo \
+  --webhook "http://127.0.0.1:${PORTS[1]}/api/payments/webhook" &
+pids+=($!)
 
 if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
   say "building the app…"
@@ -56,6 +61,7 @@ export NUXT_STORAGE_S3_BUCKET=trapline-evidence
 export NUXT_STORAGE_S3_ACCESS_KEY_ID=S3RVER
 export NUXT_STORAGE_S3_SECRET_ACCESS_KEY=S3RVER
 export NUXT_REQUEST_LOG=json
+export NUXT_PAYMENTS_HOST=127.0.0.1 NUXT_PAYMENTS_PORT="$PAY_PORT" NUXT_PAYMENTS_PROTOCOL=http
 export HOST=127.0.0.1
 
 # The first server makes the seal's key set on a first start; the second is pointed at the same folder.

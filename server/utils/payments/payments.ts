@@ -118,7 +118,7 @@ export async function takeWebhook(raw: string, signature: string | undefined) {
   catch {
     throw createError({ statusCode: 400, statusMessage: 'The signature does not hold, or is too old' })
   }
-  return useDb().transaction(async (tx) => {
+  const taken = await useDb().transaction(async (tx) => {
     const [fresh] = await tx.insert(tables.paymentEvents).values({ id: event.id, type: event.type })
       .onConflictDoNothing().returning()
     if (!fresh) return { taken: false, duplicate: true }
@@ -150,6 +150,9 @@ export async function takeWebhook(raw: string, signature: string | undefined) {
     }
     return { taken: true, duplicate: false }
   })
+  // A receipt written with the payment goes out now, not at the next round of the outbox timer.
+  if (taken.taken) deliver().catch(() => {})
+  return taken
 }
 
 async function mailReceipt(tx: Tx, p: typeof tables.payments.$inferSelect) {
