@@ -43,6 +43,7 @@ export const SIGNED_KINDS = [
   'post-run-check',
   'checklist',
   'homologation',
+  'notice',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

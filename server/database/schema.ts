@@ -965,3 +965,20 @@ export const paymentEvents = pgTable('payment_events', {
   type: text('type').notNull(),
   receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
 })
+
+/** An official notice on the event's notice board: signed by its issuer, mailed to the teams. */
+export const notices = pgTable('notices', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  /** The attempt it concerns (a decision on it); null for the whole event (schedule, course conditions). */
+  attemptId: integer('attempt_id').references(() => attempts.id),
+  title: text('title').notNull(),
+  body: text('body').notNull(),
+  issuedBy: integer('issued_by')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  publishedAt: timestamp('published_at', { withTimezone: true }).notNull().defaultNow(),
+})

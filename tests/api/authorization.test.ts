@@ -128,6 +128,8 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/events/[id]/entry-changes': { expect: rolesOnly(200, 'team', 'organiser') },
   'POST /api/change-requests/[id]/decision': { expect: rolesOnly(422, 'organiser'), body: {} },
   'PUT /api/events/[id]/fees': { expect: rolesOnly(422, 'organiser'), body: {} },
+  'POST /api/events/[id]/notices': { expect: rolesOnly(422, 'organiser', 'official'), body: {} },
+  'GET /api/events/[id]/notices': { expect: { ...eventMembers(200), admin: 404 } },
   'GET /api/events/[id]/fees': { expect: { ...eventMembers(200), admin: 200 } },
   'POST /api/entries/[id]/checkout': { expect: rolesOnly(422, 'team'), body: {} },
   // public route: without the provider's signature a webhook is refused.

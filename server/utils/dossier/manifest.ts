@@ -59,6 +59,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     })),
     inspections: await manifestInspections(r),
     statements: await manifestStatements(day.event.id, r.attemptId),
+    notices: await manifestNotices(day.event.id, r.attemptId, issuedAt),
     evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
       id: e.id,
       kind: e.kind,
@@ -207,6 +208,21 @@ async function manifestInspection(inspectionId: number) {
       sha256: signature.sha256,
     },
   }
+}
+
+/** The official notices that concern the attempt: its own, and the event's general ones, up to the issue. */
+async function manifestNotices(eventId: number, attemptId: number, issuedAt: Date) {
+  const all = await noticesAt(eventId)
+  return all.filter(n => (n.attemptId === null || n.attemptId === attemptId) && n.publishedAt <= issuedAt).map(n => ({
+    id: n.id,
+    attemptId: n.attemptId,
+    title: n.title,
+    body: n.body,
+    issuer: n.issuer,
+    typedName: n.typedName,
+    at: n.publishedAt.toISOString(),
+    sha256: n.sha256,
+  }))
 }
 
 async function manifestStatements(eventId: number, attemptId: number) {

@@ -137,6 +137,17 @@ function renderStatement(L: PdfLayout, s: Statement) {
 export function renderStatements(L: PdfLayout, m: Manifest) {
   L.heading('Witness statements')
   for (const s of m.statements) renderStatement(L, s)
+  // A dossier sealed before notices were kept has none in its manifest.
+  const notices = (m as { notices?: Manifest['notices'] }).notices ?? []
+  if (!notices.length) return
+  L.heading('Official notices')
+  for (const n of notices) {
+    L.text(`Notice #${n.id}${n.attemptId ? ` on attempt #${n.attemptId}` : ' to the whole event'}: ${n.title}`,
+      { bold: true, gap: 1 })
+    L.text(n.body, { indent: 10, gap: 1 })
+    L.text(`Issued by ${n.typedName} (${n.issuer}), ${utcStamp(n.at)} UTC; SHA-256 ${n.sha256}`,
+      { indent: 10, color: 'grey' })
+  }
 }
 
 export function renderEvidence(L: PdfLayout, m: Manifest, attachedShas: Set<string>) {

@@ -76,6 +76,12 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x!.d.attemptId)
     title = `Homologation of dossier #${x!.d.id} (${x!.h.reference})`
   }
+  else if (s.kind === 'notice') {
+    const [n] = await useDb().select().from(tables.notices).where(eq(tables.notices.id, s.subjectId))
+    current = n ? { eventId: n.eventId, notice: n.id, attemptId: n.attemptId, title: n.title, body: n.body } : null
+    teamId = n?.attemptId ? await teamOfAttempt(n.attemptId) : 0
+    title = `Official notice #${s.subjectId}: ${n?.title ?? ''}`
+  }
   else if (s.kind === 'checklist') {
     const [c] = await useDb().select().from(tables.checklists).where(eq(tables.checklists.id, s.subjectId))
     current = checklistContent(c!)
