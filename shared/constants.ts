@@ -89,3 +89,16 @@ export type Averaging = (typeof AVERAGINGS)[number]
 /** The day's papers printed from the event: results by class, start list and run order, a run sheet to fill by hand. */
 export const PAPER_SHEETS = ['results', 'start-list', 'blank-run-sheet'] as const
 export type PaperSheet = (typeof PAPER_SHEETS)[number]
+
+/** The functions officials are appointed to at an event. */
+export const OFFICIAL_FUNCTIONS = [
+  'clerk-of-course', 'chief-timekeeper', 'chief-scrutineer', 'observer', 'steward',
+] as const
+export type OfficialFunction = (typeof OFFICIAL_FUNCTIONS)[number]
+export const OFFICIAL_FUNCTION_LABELS: Record<OfficialFunction, string> = {
+  'clerk-of-course': 'Clerk of the course',
+  'chief-timekeeper': 'Chief timekeeper',
+  'chief-scrutineer': 'Chief scrutineer',
+  'observer': 'Observer of the sanctioning body',
+  'steward': 'Steward',
+}

@@ -7,7 +7,7 @@ import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import demo from './demo-people.json'
 import * as t from './schema'
 import type { Db, Tx } from '../utils/database/db'
-import type { Direction, EventRole } from '../../shared/constants'
+import type { Direction, EventRole, OfficialFunction } from '../../shared/constants'
 
 export const DEMO_TIME_ZONE = 'America/Denver'
 const TIME_ZONE = DEMO_TIME_ZONE
@@ -73,6 +73,7 @@ export async function seedDemo(db: Db, hash: (password: string) => Promise<strin
     await seedRuns(tx, { event, cal, course, systems, entries, timekeeperId: people.get('timekeeper@trapline.test')! })
     await seedMemberships(tx, event.id, people, teams)
     await seedFees(tx, event.id, entries, people.get('team@trapline.test')!, cal)
+    await seedOfficials(tx, event.id, people, cal)
     return true
   })
 }
@@ -90,6 +91,23 @@ async function seedFees(tx: Tx, eventId: number, entries: Awaited<ReturnType<typ
     providerSessionId: 'cs_demo_larkspur_entry', providerPaymentId: 'pi_demo_larkspur_entry', receiptNo: 'R-DEMO-1',
     createdBy: teamUserId, paidAt: new Date(`${cal.startsOn}T09:00:00Z`),
   })
+}
+
+/** The demo's permit (an invented federation) and its officials in the functions the profile requires. */
+async function seedOfficials(tx: Tx, eventId: number, people: Map<string, number>, cal: DemoCalendar) {
+  await tx.insert(t.eventPermits).values({
+    eventId, issuingBody: 'Tamsel Motorcycling Federation (fictional)', number: 'TMF-P-0417', validFrom: cal.startsOn,
+    validTo: cal.endsOn,
+  })
+  const by = people.get('organiser@trapline.test')!
+  const holders: [OfficialFunction, string][] = [
+    ['clerk-of-course', 'official@trapline.test'],
+    ['chief-timekeeper', 'timekeeper@trapline.test'],
+    ['chief-scrutineer', 'scrutineer@trapline.test'],
+    ['observer', 'official2@trapline.test'],
+  ]
+  await tx.insert(t.appointments).values(holders.map(([fn, email]) =>
+    ({ eventId, function: fn, userId: people.get(email)!, appointedBy: by })))
 }
 
 async function seedPeople(tx: Tx, passwordHash: string) {

@@ -38,6 +38,7 @@ import {
   SYSTEM_ROLES,
   TOKEN_PURPOSES,
   type EventRole,
+  type OfficialFunction,
 } from '../../shared/constants'
 
 const createdAt = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
@@ -981,4 +982,34 @@ export const notices = pgTable('notices', {
     .references(() => users.id),
   signatureId: integer('signature_id').references(() => signatures.id),
   publishedAt: timestamp('published_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** The event's permit from its sanctioning body: who issued it, its number and dates (its document is evidence). */
+export const eventPermits = pgTable('event_permits', {
+  eventId: integer('event_id')
+    .primaryKey()
+    .references(() => events.id),
+  issuingBody: text('issuing_body').notNull(),
+  number: text('number').notNull(),
+  validFrom: date('valid_from').notNull(),
+  validTo: date('valid_to').notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/** A person appointed to an official function at the event; ended (never deleted) with a reason. */
+export const appointments = pgTable('appointments', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  function: text('function').$type<OfficialFunction>().notNull(),
+  userId: integer('user_id')
+    .notNull()
+    .references(() => users.id),
+  appointedBy: integer('appointed_by')
+    .notNull()
+    .references(() => users.id),
+  appointedAt: timestamp('appointed_at', { withTimezone: true }).notNull().defaultNow(),
+  endedAt: timestamp('ended_at', { withTimezone: true }),
+  endReason: text('end_reason'),
 })

@@ -1,5 +1,5 @@
+import { OFFICIAL_FUNCTION_LABELS, type Averaging, type OfficialFunction, type StartKind } from '../constants'
 import type { Rounding } from './exact'
-import type { Averaging, StartKind } from '../constants'
 import type { RecordClass } from './classes'
 
 /** How sure we are of a rule value, always printed beside it. */
@@ -61,6 +61,11 @@ export interface RuleProfile {
   qualifying: Sourced<{ mustBeatRecord: boolean, requalifyAfterAbort: boolean } | null>
   /** After a record run, the machine goes to a post-run check (mass re-measured, signed) before the dossier. */
   postRunCheck: Sourced<boolean>
+  /**
+   * The official functions someone must be appointed to before a dossier is issued (absent in copies frozen
+   * before appointments were kept: none required).
+   */
+  appointments?: Sourced<OfficialFunction[]>
   /** The record classes an entry picks from (absent in copies frozen before classes were data). */
   classes?: Sourced<RecordClass[]>
 }
@@ -80,6 +85,7 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   witnessStatements: 'Witness statements',
   qualifying: 'Qualifying run',
   postRunCheck: 'Post-run check',
+  appointments: 'Officials appointed',
   classes: 'Classes',
 }
 
@@ -126,6 +132,8 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       return `at most ${value} m/s`
     case 'bestPerDayOnly':
       return value ? 'only the best result per class each day goes forward' : 'every result goes forward'
+    case 'appointments':
+      return (value as OfficialFunction[]).map(f => OFFICIAL_FUNCTION_LABELS[f]).join('; ') || 'none'
     case 'postRunCheck':
       return value ? 'the machine is checked again after the record run (mass re-measured), signed' : 'none'
     case 'qualifying': {

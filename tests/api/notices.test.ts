@@ -43,6 +43,7 @@ it('publishes signed notices to the board and mails the teams; a team cannot pub
   expect(general.status, JSON.stringify(general.body)).toBe(201)
   const decision = await publish(event.cookie.organiser, {
     title: 'Return run allowed after the closure', body: 'The window of this attempt runs on.', attemptId, typedName: 'Test Organiser',
+    password: event.organiserLogin[1],
   })
   expect(decision.status, JSON.stringify(decision.body)).toBe(201)
   const board = (await call('GET', `/api/events/${event.eventId}/notices`, { cookie: event.cookie.team })).body

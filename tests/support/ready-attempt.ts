@@ -38,6 +38,15 @@ export async function makeReady(
   })
   expect(signed.status, JSON.stringify(signed.body)).toBe(201)
   const second = await invitedPerson('official', 'first-password-1', 'Second official', { eventId: event.eventId, organiser: event.cookie.organiser })
+  // The functions the profile requires, held by the test event's people (the clerk of the course and the
+  // observer by its officials); a function already held stays so.
+  const idOf = async (cookie: string) => (await call('GET', '/api/me', { cookie })).body.user.id as number
+  const appointees: [string, string][] = [['clerk-of-course', event.cookie.official], ['chief-timekeeper', event.cookie.timekeeper],
+    ['chief-scrutineer', event.cookie.scrutineer], ['observer', second.cookie]]
+  for (const [fn, cookie] of appointees) {
+    const r = await call('POST', `/api/events/${event.eventId}/appointments`, { cookie: event.cookie.organiser, body: { function: fn, userId: await idOf(cookie) } })
+    expect([201, 409], JSON.stringify(r.body)).toContain(r.status)
+  }
   for (const [cookie, name] of [[event.cookie.official, 'Test official'], [second.cookie, 'Second official']] as const) {
     const s = await call('POST', `/api/events/${event.eventId}/statements`, {
       cookie,

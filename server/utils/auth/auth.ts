@@ -90,6 +90,7 @@ const OWNER = {
   checklist: sql`select event_id from checklists where id = `,
   entry: sql`select event_id from entries where id = `,
   payment: sql`select event_id from payments where id = `,
+  appointment: sql`select event_id from appointments where id = `,
   changeRequest: sql`select e.event_id from entry_change_requests c join entries e on e.id = c.entry_id where c.id = `,
 } as const
 

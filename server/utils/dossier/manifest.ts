@@ -60,6 +60,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     inspections: await manifestInspections(r),
     statements: await manifestStatements(day.event.id, r.attemptId),
     notices: await manifestNotices(day.event.id, r.attemptId, issuedAt),
+    officials: await manifestOfficials(day.event.id),
     evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
       id: e.id,
       kind: e.kind,
@@ -207,6 +208,18 @@ async function manifestInspection(inspectionId: number) {
       at: new Date(signature.at).toISOString(),
       sha256: signature.sha256,
     },
+  }
+}
+
+/** The event's permit and the officials appointed (in force at the issue), as the dossier names them. */
+async function manifestOfficials(eventId: number) {
+  const { permit, appointments } = await officialsOf(eventId)
+  return {
+    permit: permit
+      ? { issuingBody: permit.issuingBody, number: permit.number, validFrom: permit.validFrom, validTo: permit.validTo }
+      : null,
+    appointments: appointments.filter(a => !a.endedAt)
+      .map(a => ({ function: a.function, label: a.label, name: a.name })),
   }
 }
 

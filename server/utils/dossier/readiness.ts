@@ -4,6 +4,7 @@ import { blocks, mayBeSetAside } from '#shared/rules/findings'
 import { massClass } from '#shared/rules/checks'
 import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
 import { fromDecimal, sub, toFixed } from '#shared/rules/exact'
+import { OFFICIAL_FUNCTION_LABELS } from '#shared/constants'
 
 export interface ReadinessItem {
   key: string
@@ -42,6 +43,7 @@ async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: 
     runDays: counted.map(r => localDate(Date.parse(r.startedAt), day.event.timeZone)),
     evidence: await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId)),
     statements,
+    officials: await officialsOf(eventId, attempt.profile.appointments?.value ?? []),
     ...(await clearances(entry.entry.id, counted)),
   }
 }
@@ -69,7 +71,8 @@ async function clearances(entryId: number, counted: { id: number, startedAt: str
 type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
-function recordItems({ at, day, live, counted, clearance, statements, attempt }: AttemptFile): ReadinessItem[] {
+function recordItems(file: AttemptFile): ReadinessItem[] {
+  const { at, day, live, counted, clearance, statements, attempt, officials } = file
   // The dossier is issued on figures somebody signed: the sheet's content now must hash as signed.
   const sheetUnchanged = live.sheet.locked
     && sha256(canonicalJson(timingSheetContent(day, attempt.id))) === live.sheet.latest?.sha256
@@ -111,6 +114,18 @@ function recordItems({ at, day, live, counted, clearance, statements, attempt }:
       met: witnesses >= needed,
       detail: `${witnesses} official(s) with a signed statement that stands`,
     },
+    // Functions the attempt's profile requires someone to hold (none in copies frozen before appointments).
+    ...((attempt.profile.appointments?.value.length ?? 0) > 0
+      ? [{
+          key: 'appointments',
+          label: 'Officials appointed to every function the profile requires',
+          fix: `${at}/people`,
+          met: officials.missing.length === 0,
+          detail: officials.missing.length
+            ? `nobody holds: ${officials.missing.map(f => OFFICIAL_FUNCTION_LABELS[f].toLowerCase()).join(', ')}`
+            : officials.appointments.filter(a => !a.endedAt).map(a => `${a.label}: ${a.name}`).join('; '),
+        }]
+      : []),
   ]
 }
 

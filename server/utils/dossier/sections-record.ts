@@ -135,6 +135,16 @@ function renderStatement(L: PdfLayout, s: Statement) {
 }
 
 export function renderStatements(L: PdfLayout, m: Manifest) {
+  // A dossier sealed before the permit and appointments were kept has neither in its manifest.
+  const officials = (m as { officials?: Manifest['officials'] }).officials
+  if (officials) {
+    L.heading('Permit and officials')
+    L.text(officials.permit
+      ? `Permit ${officials.permit.number} of ${officials.permit.issuingBody}, valid ${officials.permit.validFrom} to `
+      + `${officials.permit.validTo}.`
+      : 'No permit recorded.')
+    for (const a of officials.appointments) L.text(`${a.label}: ${a.name}`, { indent: 10, gap: 1 })
+  }
   L.heading('Witness statements')
   for (const s of m.statements) renderStatement(L, s)
   // A dossier sealed before notices were kept has none in its manifest.

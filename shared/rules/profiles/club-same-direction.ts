@@ -63,6 +63,11 @@ export const clubSameDirection: RuleProfile = {
       + 'means qualifying again',
     certainty: 'seen',
   },
+  appointments: {
+    value: ['chief-timekeeper', 'chief-scrutineer'],
+    source: 'the club’s chief timer and chief of inspection sign the record (common practice, from memory)',
+    certainty: 'common practice',
+  },
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

@@ -60,6 +60,12 @@ export const intlAutomobile: RuleProfile = {
   },
   witnessStatements: { value: 2, source: 'default of the ratification file', certainty: 'common practice' },
   qualifying: { value: null, source: 'two runs in opposite directions, no qualifying run', certainty: 'seen' },
+  appointments: {
+    value: ['clerk-of-course', 'chief-timekeeper', 'chief-scrutineer', 'observer'],
+    source: 'a clerk of the course, chief timekeeper and chief scrutineer, and an observer of the federation '
+      + '(common practice; confirm in the rulebook in force)',
+    certainty: 'common practice',
+  },
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '
