@@ -55,7 +55,7 @@ it('publishes signed notices to the board and mails the teams; a team cannot pub
   const mail = await mailTo(teamEmail, 'Official notice: Course closed')
   expect(mail.text).toContain('Wind above the limit')
   // An attempt of another event is not this event's.
-  expect((await publish(event.cookie.official, { title: 'Elsewhere', body: 'no', attemptId: 1, typedName: 'Test official' })).body.data?.issues?.[0]?.path)
+  expect((await publish(event.cookie.official, { title: 'Elsewhere', body: 'not for this event', attemptId: 1, typedName: 'Test official' })).body.data?.issues?.[0]?.path)
     .toBe('attemptId')
 })
 
