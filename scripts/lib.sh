@@ -169,3 +169,10 @@ secret_file() { # secret_file NAME: a random 64-hex secret kept under .data, mad
   [ -s "$f" ] || { node -e "process.stdout.write(require('crypto').randomBytes(32).toString('hex'))" >"$f"; chmod 600 "$f"; }
   cat "$f"
 }
+
+ensure_build() { # builds .output when it is missing or older than the sources
+  if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
+    say "building the app (about a minute)…"
+    node_modules/.bin/nuxt build >"$DATA/build.log" 2>&1 || { tail -n 40 "$DATA/build.log" >&2; die "the build failed; see $DATA/build.log"; }
+  fi
+}

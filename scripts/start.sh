@@ -42,10 +42,7 @@ node scripts/payments-fake.mjs --port "$PAY_PORT" --secret whsec_trapline_demo \
   --webhook "http://127.0.0.1:$APP_PORT/api/payments/webhook" &
 pids+=($!)
 
-if [ ! -f .output/server/index.mjs ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer .output/server/index.mjs -print -quit 2>/dev/null)" ]; then
-  say "building the app (about 20 s)…"
-  node_modules/.bin/nuxt build >"$DATA/build.log" 2>&1 || { tail -n 40 "$DATA/build.log" >&2; die "the build failed; see $DATA/build.log"; }
-fi
+ensure_build
 
 export NUXT_DATABASE_URL="$APP_DATABASE_URL"
 export NUXT_SESSION_PASSWORD="$(secret_file session-secret)"

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { idParams } from '#shared/schemas/event-day'
 
-// The public board of an event whose organiser opted in: runs, speeds and results for spectators and the
+// public route: the public board of an event whose organiser opted in: runs, speeds and results for spectators and the
 // press. No personal data: machines, teams (organisations) and classes; no rider, no person, no note.
 export default defineEventHandler(async (event) => {
   const { id } = validParams(event, idParams)

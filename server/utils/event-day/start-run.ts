@@ -60,8 +60,7 @@ export function openAttemptOf(day: EventDay, entryId: number, live = computeLive
  * Where each entry's next run would go, out or back, if it left the line at `atMs`: what the run sheet
  * tells the timekeeper before the run starts.
  */
-export function placementsOf(day: EventDay, atMs: number) {
-  const live = computeLive(day)
+export function placementsOf(day: EventDay, atMs: number, live = computeLive(day)) {
   return new Map(day.entries.map(({ entry }) => {
     const found = openAttemptOf(day, entry.id, live)
     const profile = found?.profile ?? day.event.profile

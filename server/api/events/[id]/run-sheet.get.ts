@@ -5,7 +5,8 @@ export default defineEventHandler(async (event) => {
   const now = Date.now()
   const attempts = computeLive(day, { readings: true })
   const clearance = await clearanceOf(day.entries.map(e => e.entry.id))
-  const placements = placementsOf(day, now)
+  // The attempts as computed above (their windows and findings): not computed a second time.
+  const placements = placementsOf(day, now, attempts)
   /** A run of the entry that left the line and has neither a time nor an abort yet. */
   const openRun = (entryId: number) => attempts.filter(a => a.entry.id === entryId)
     .flatMap(a => a.runs).find(r => r.status !== 'aborted' && !r.official)?.id ?? null
