@@ -44,6 +44,10 @@ export const SIGNED_KINDS = [
   'checklist',
   'homologation',
   'notice',
+  'start-override',
+  'briefing-sign-on',
+  'protest',
+  'protest-decision',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

@@ -26,6 +26,8 @@ export function demoCalendar(today: string) {
     longLicence: addDays(runDay, 231),
     /** The second team's rider's licence runs out on the run day, before the event ends. */
     shortLicence: runDay,
+    /** Both riders' medicals are valid through the event. */
+    medical: addDays(runDay, 160),
   }
 }
 export type DemoCalendar = ReturnType<typeof demoCalendar>
@@ -105,6 +107,7 @@ async function seedOfficials(tx: Tx, eventId: number, people: Map<string, number
     ['chief-timekeeper', 'timekeeper@trapline.test'],
     ['chief-scrutineer', 'scrutineer@trapline.test'],
     ['observer', 'official2@trapline.test'],
+    ['steward', 'official2@trapline.test'],
   ]
   await tx.insert(t.appointments).values(holders.map(([fn, email]) =>
     ({ eventId, function: fn, userId: people.get(email)!, appointedBy: by })))
@@ -233,7 +236,8 @@ async function seedEntries(tx: Tx, eventId: number, c: DemoCourse, teams: Map<st
     {
       team: teams.get('Larkspur Works')!,
       machine: { name: 'Larkspur Fennwick streamliner', declaredMassKg: '286.0', division: 'full' as const },
-      rider: { name: 'Mara Quillfeather', licenceNo: 'DEMO-L-0417', licenceExpires: cal.longLicence },
+      rider: { name: 'Mara Quillfeather', licenceNo: 'DEMO-L-0417', licenceExpires: cal.longLicence,
+        medicalExpires: cal.medical },
       className: 'Electric, fully streamlined',
       // One pass timed over both: the flying kilometre lies inside the flying mile.
       distanceIds: [c.mile.id, c.km.id],
@@ -241,7 +245,8 @@ async function seedEntries(tx: Tx, eventId: number, c: DemoCourse, teams: Map<st
     {
       team: teams.get('Cinder Hollow Engineering')!,
       machine: { name: 'Cinder Wisp', declaredMassKg: '212.5', division: 'partial' as const },
-      rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0982', licenceExpires: cal.shortLicence },
+      rider: { name: 'Jory Vantreese', licenceNo: 'DEMO-L-0982', licenceExpires: cal.shortLicence,
+        medicalExpires: cal.medical },
       className: 'Electric, partially streamlined',
       distanceIds: [c.km.id],
     },

@@ -20,6 +20,7 @@ import {
   varchar,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
+import type { ProtestKind, ProtestOutcome } from '#shared/rules/protests'
 import type { DeviceLayout } from '#shared/rules/device-file'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 // Relative, not '#shared': drizzle-kit reads this file outside Nuxt.
@@ -200,6 +201,10 @@ export const riders = pgTable('riders', {
   name: text('name').notNull(),
   licenceNo: text('licence_no').notNull(),
   licenceExpires: date('licence_expires').notNull(),
+  /** The licence grade (speed bracket) where the profile grades licences. */
+  licenceGrade: text('licence_grade'),
+  /** The medical's validity, where the profile requires one. */
+  medicalExpires: date('medical_expires'),
   createdAt: createdAt(),
 })
 
@@ -399,6 +404,12 @@ export const runs = pgTable(
     status: runStatus('status').notNull().default('open'),
     abortedReason: text('aborted_reason'),
     abortedBy: integer('aborted_by').references(() => users.id),
+    /** The speed the run expected at the start line (km/h), where said or declared. */
+    expectedKmh: numeric('expected_kmh'),
+    /** The grade a licence upgrade run is made for; null for an ordinary run. */
+    licenceUpgrade: text('licence_upgrade'),
+    /** The clerk of the course's signed override this run started under, if any. */
+    overrideId: integer('override_id'),
     createdBy: integer('created_by')
       .notNull()
       .references(() => users.id),
@@ -498,7 +509,7 @@ export const signatures = pgTable(
     supersedesId: integer('supersedes_id'),
     signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
     /** How the signer proved it was them: their password again (the weaker kind), or a passkey. */
-    method: text('method').$type<'password' | 'passkey'>().notNull().default('password'),
+    method: text('method').$type<'password' | 'passkey' | 'in-person'>().notNull().default('password'),
     /**
      * A passkey's assertion over the SHA-256 of the canonical content (the record's own new id left out):
      * anyone can check later, with the stored public key, that this device signed exactly that content.
@@ -1012,4 +1023,105 @@ export const appointments = pgTable('appointments', {
   appointedAt: timestamp('appointed_at', { withTimezone: true }).notNull().defaultNow(),
   endedAt: timestamp('ended_at', { withTimezone: true }),
   endReason: text('end_reason'),
+})
+
+/**
+ * The clerk of the course lets one entry start over named start-line findings (licence, grade, medical, briefing)
+ * on one day of the event, with a signed reason. Never edited; the run that started under it names it.
+ */
+export const startOverrides = pgTable('start_overrides', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  entryId: integer('entry_id')
+    .notNull()
+    .references(() => entries.id),
+  /** The event's local day it holds for. */
+  day: date('day').notNull(),
+  codes: text('codes').array().notNull(),
+  reason: text('reason').notNull(),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+})
+
+/** A riders' (and crews') briefing held by the officials: its time and subject. */
+export const briefings = pgTable('briefings', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  title: text('title').notNull(),
+  heldAt: timestamp('held_at', { withTimezone: true }).notNull(),
+  notes: text('notes').notNull().default(''),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+})
+
+/**
+ * One attendee's sign-on to a briefing: a rider of an entry, or a person of the event (crew), signed on their
+ * own phone or in person on the organiser's device.
+ */
+export const briefingSignOns = pgTable(
+  'briefing_sign_ons',
+  {
+    id: serial('id').primaryKey(),
+    briefingId: integer('briefing_id')
+      .notNull()
+      .references(() => briefings.id),
+    riderId: integer('rider_id').references(() => riders.id),
+    userId: integer('user_id').references(() => users.id),
+    name: text('name').notNull(),
+    onDevice: text('on_device').$type<'own' | 'organiser'>().notNull(),
+    signatureId: integer('signature_id').references(() => signatures.id),
+    signedAt: timestamp('signed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  t => [
+    uniqueIndex('briefing_sign_on_rider').on(t.briefingId, t.riderId).where(sql`rider_id is not null`),
+    uniqueIndex('briefing_sign_on_user').on(t.briefingId, t.userId).where(sql`rider_id is null`),
+  ],
+)
+
+/**
+ * A protest lodged by a team against something published about an attempt, or an appeal against the
+ * stewards' decision on one (appeal_of). Decided once, with reasons, signed; never edited.
+ */
+export const protests = pgTable('protests', {
+  id: serial('id').primaryKey(),
+  eventId: integer('event_id')
+    .notNull()
+    .references(() => events.id),
+  attemptId: integer('attempt_id')
+    .notNull()
+    .references(() => attempts.id),
+  appealOf: integer('appeal_of'),
+  kind: text('kind').$type<ProtestKind>().notNull(),
+  grounds: text('grounds').notNull(),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
+  lodgedBy: integer('lodged_by')
+    .notNull()
+    .references(() => users.id),
+  lodgedAt: timestamp('lodged_at', { withTimezone: true }).notNull(),
+  /** When what is protested was published, and the deadline it gave, as computed at lodging. */
+  publishedAt: timestamp('published_at', { withTimezone: true }).notNull(),
+  deadline: timestamp('deadline', { withTimezone: true }).notNull(),
+  /** The fee the profile sets, as noted (not collected here). */
+  feeNote: text('fee_note'),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  /** The hearing and the decision, set once by the signed decision. */
+  heardAt: timestamp('heard_at', { withTimezone: true }),
+  present: text('present'),
+  hearing: text('hearing'),
+  outcome: text('outcome').$type<ProtestOutcome>(),
+  reasons: text('reasons'),
+  decidedBy: integer('decided_by').references(() => users.id),
+  decidedAt: timestamp('decided_at', { withTimezone: true }),
+  decisionSignatureId: integer('decision_signature_id').references(() => signatures.id),
 })

@@ -1,6 +1,8 @@
 import { OFFICIAL_FUNCTION_LABELS, type Averaging, type OfficialFunction, type StartKind } from '../constants'
 import type { Rounding } from './exact'
 import type { RecordClass } from './classes'
+import type { LicenceRule } from './start-line'
+import { describeProtestRule, type ProtestRule } from './protests'
 
 /** How sure we are of a rule value, always printed beside it. */
 export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settled' | 'not known'
@@ -68,6 +70,12 @@ export interface RuleProfile {
   appointments?: Sourced<OfficialFunction[]>
   /** The record classes an entry picks from (absent in copies frozen before classes were data). */
   classes?: Sourced<RecordClass[]>
+  /** How riders are licensed and checked at the start line (absent in older copies: expiry only). */
+  licence?: Sourced<LicenceRule>
+  /** Whether a rider must have signed on to the latest riders' briefing before a run. */
+  briefing?: Sourced<boolean>
+  /** Protest deadline, fee and appeal path (absent in older copies: no protests). */
+  protests?: Sourced<ProtestRule>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -87,6 +95,9 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   postRunCheck: 'Post-run check',
   appointments: 'Officials appointed',
   classes: 'Classes',
+  licence: 'Licences',
+  briefing: 'Riders\' briefing',
+  protests: 'Protests and appeals',
 }
 
 export function describeWindow(w: RunWindow): string {
@@ -147,6 +158,19 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       const list = value as RecordClass[]
       return `${list.length} classes: ${list.map(c => c.label).join('; ')}`
     }
+    case 'licence': {
+      const l = value as LicenceRule
+      const grades = l.grades?.length
+        ? `graded by speed: ${l.grades
+          .map(g => `${g.label}${g.maxKmh === null ? ' (no limit)' : ` (to ${g.maxKmh} km/h)`}`)
+          .join('; ')}; an upgrade run goes one grade up`
+        : 'a licence valid on the day of the run'
+      return `${grades}${l.medical ? '; a valid medical' : ''}`
+    }
+    case 'briefing':
+      return value ? 'each rider signs on to the latest briefing before running' : 'not required'
+    case 'protests':
+      return describeProtestRule(value as ProtestRule)
     case 'massClasses':
       return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')
     default:

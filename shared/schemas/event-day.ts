@@ -147,6 +147,11 @@ export const profileAdaptSchema = z.object({
   averaging: z.enum(AVERAGINGS).optional(),
   /** true or false, from JSON or from a form's "true"/"false". */
   postRunCheck: z.preprocess(v => (v === 'true' ? true : v === 'false' ? false : v), z.boolean().optional()),
+  /** Protests within so many minutes of publication, or by a clock time ("hh:mm") the same day. */
+  protestMinutes: z.coerce.number().int().min(1).max(24 * 60).optional(),
+  protestBy: z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { error: 'must be a time of day, hh:mm' }).optional(),
+  /** An appeal within so many minutes of the stewards' decision. */
+  appealMinutes: z.coerce.number().int().min(1).max(14 * 24 * 60).optional(),
   /** Classes of the base profile the event leaves out (by label), and classes it adds. */
   removeClasses: classesAdaptSchema.shape.removeClasses,
   addClasses: classesAdaptSchema.shape.addClasses,
@@ -158,13 +163,18 @@ export const profileAdaptSchema = z.object({
 })
 export type ProfileAdaptInput = z.infer<typeof profileAdaptSchema>
 
+/** A rider as entered: the licence, its grade where the profile grades licences, and the medical's validity. */
+export const riderSchema = z.object({
+  name: z.string().trim().min(2).max(80),
+  licenceNo: z.string().trim().min(2).max(40),
+  licenceExpires: day,
+  licenceGrade: z.string().trim().max(40).nullish().transform(x => x || null),
+  medicalExpires: day.optional().nullable().transform(x => x ?? null),
+})
+
 /** What a team corrects in its entry: the rider and the machine as entered. */
 export const entryDetailsSchema = z.object({
-  rider: z.object({
-    name: z.string().trim().min(2).max(80),
-    licenceNo: z.string().trim().min(2).max(40),
-    licenceExpires: day,
-  }),
+  rider: riderSchema,
   machine: z.object({
     name: z.string().trim().min(2).max(80),
     power: z.enum(POWER_SOURCES),
@@ -192,13 +202,7 @@ export const entrySchema = z
       })
       .optional(),
     machineId: id.optional(),
-    rider: z
-      .object({
-        name: z.string().trim().min(2).max(80),
-        licenceNo: z.string().trim().min(2).max(40),
-        licenceExpires: day,
-      })
-      .optional(),
+    rider: riderSchema.optional(),
     riderId: id.optional(),
     className: z.string().trim().min(1).max(80),
     /** The measured distances the entry claims, timed on the same passes (the first is its main claim). */
@@ -227,6 +231,10 @@ export const startRunSchema = z.object({
   /** A flying pass, or a standing start from rest at the start line; by default what the entry's claims take. */
   start: z.enum(START_KINDS).optional(),
   startedAt: isoDateTime.optional(),
+  /** The speed the run expects, km/h, for the licence grade's check; else the speed declared at inspection. */
+  expectedKmh: z.coerce.number().positive().max(2000).optional(),
+  /** A licence upgrade run into the next grade, where the profile grades licences. */
+  licenceUpgrade: z.boolean().default(false),
 })
 export type StartRunInput = z.infer<typeof startRunSchema>
 export const readingSchema = z.object({ trapId: id, systemId: id, time: timeOfDay })

@@ -92,7 +92,7 @@ export const figuresSchema = z
 export type FiguresInput = z.infer<typeof figuresSchema>
 
 /** A drawn signature, as a PNG data URL, at most about 200 kB. */
-const drawing = z
+export const drawing = z
   .string()
   .regex(/^data:image\/png;base64,[A-Za-z0-9+/=]+$/, { error: 'must be a PNG image' })
   .max(280_000)

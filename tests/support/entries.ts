@@ -10,8 +10,8 @@ import { call, DEMO_PASSWORD, demoEmail, login } from './api'
 export async function newEntry(
   eventId: number,
   machineName: string,
-  rider: { licenceExpires?: string } = {},
-  who: { team?: string, claims?: string[], entry?: { className?: string, division?: string } } = {},
+  rider: RiderFacts = {},
+  who: { team?: string, organiser?: string, claims?: string[], entry?: { className?: string, division?: string } } = {},
 ) {
   const team2 = who.team ?? await login('team2@trapline.test')
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
@@ -21,15 +21,59 @@ export async function newEntry(
     cookie: team2,
     body: {
       machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: who.entry?.division ?? 'partial' },
-      rider: { name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: rider.licenceExpires ?? '2099-12-31' },
+      // Graded where the profile grades licences ('200 mph' covers the 290 km/h declared at inspection), with a
+      // medical where it requires one.
+      rider: {
+        name: 'Test Rider', licenceNo: 'DEMO-T-1', licenceExpires: rider.licenceExpires ?? '2099-12-31',
+        licenceGrade: 'licenceGrade' in rider ? rider.licenceGrade : '200 mph',
+        medicalExpires: 'medicalExpires' in rider ? rider.medicalExpires : '2099-12-31',
+      },
       className: who.entry?.className ?? 'Electric, partially streamlined',
       ...claims,
     },
   })
   expect(entry.status, JSON.stringify(entry.body)).toBe(201)
+  if (!rider.skipBriefing) await signOnLatestBriefing(eventId, entry.body.id, who.organiser ?? organiserOf.get(eventId))
   return entry.body.id as number
 }
 
+export interface RiderFacts {
+  licenceExpires?: string
+  licenceGrade?: string | null
+  medicalExpires?: string | null
+  /** Leave the rider off the event's latest briefing (a rider who missed it). */
+  skipBriefing?: boolean
+}
+
+/** The organiser's cookie of each test event made by `newTestEvent`; the demo's organiser otherwise. */
+export const organiserOf = new Map<number, string>()
+
+/** A 1×1 PNG: the mark a rider draws when signing on in person (its look is not what is tested). */
+export const DRAWN = 'data:image/png;base64,iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAQAAAC1HAwCAAAAC0lEQVR42mNkYAAAAAYAAjCB0C8AAAAASUVORK5CYII='
+
+/**
+ * Where the event has held a riders' briefing, the entry's rider signs on to the latest, in person on the
+ * organiser's device, as every rider does before running (the demo holds one; test events none unless told).
+ */
+export async function signOnLatestBriefing(eventId: number, entryId: number, organiser?: string) {
+  const cookie = organiser ?? await login(demoEmail('organiser'))
+  const list = (await call('GET', `/api/events/${eventId}/briefings`, { cookie })).body
+  const latest = list.briefings?.[0]
+  if (!latest) return
+  const rider = await riderOfEntry(eventId, entryId, cookie)
+  expect(rider, `the rider of entry ${entryId}`).toBeTruthy()
+  if (latest.signOns.some((s: { riderId: number }) => s.riderId === rider.id)) return
+  const r = await call('POST', `/api/briefings/${latest.id}/sign-ons`, {
+    cookie, body: { onDevice: 'organiser', riderId: rider.id, typedName: rider.name, drawingPng: DRAWN },
+  })
+  expect(r.status, JSON.stringify(r.body)).toBe(201)
+}
+
+async function riderOfEntry(eventId: number, entryId: number, cookie: string) {
+  const riders = (await call('GET', `/api/events/${eventId}/briefings`, { cookie })).body.riders as
+    { id: number, name: string, entryIds: number[] }[]
+  return riders.find(r => r.entryIds.includes(entryId))!
+}
 /** The figures an electric test machine is judged against: a 400 V DC bus, declared at 290 km/h. */
 export const FIGURES = { busVoltageV: 400, busKind: 'dc', declaredSpeed: 290 }
 
@@ -61,9 +105,10 @@ export async function answerAll(inspectionId: number, failing?: string, who: { s
 export async function clearedEntry(
   eventId: number,
   machineName: string,
-  rider: { licenceExpires?: string } = {},
+  rider: RiderFacts = {},
   who: {
     team?: string
+    organiser?: string
     scrutineer?: string
     scrutineerPassword?: string
     claims?: string[]

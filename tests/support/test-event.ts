@@ -1,6 +1,7 @@
 import { expect } from 'vitest'
 import { addDays, localDate } from '#shared/rules/zoned'
 import { call, demoEmail, invitedPerson, login, setPasswordByLink, unique } from './api'
+import { organiserOf } from './entries'
 
 type Role = 'organiser' | 'timekeeper' | 'scrutineer' | 'official' | 'team'
 
@@ -44,6 +45,7 @@ export async function newTestEvent(profileId: string, timeZone: string, recordCl
     className: recordClass, distanceLabel: 'Flying kilometre', speed: '400.000', unit: 'km/h',
   })
   const organiserLogin: [string, string] = [organiserEmail, 'organiser-password-1']
+  organiserOf.set(eventId, cookie.organiser)
   return { eventId, timeZone, cookie, organiserLogin, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }
 }
 export type TestEvent = Awaited<ReturnType<typeof newTestEvent>>

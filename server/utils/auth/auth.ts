@@ -91,6 +91,8 @@ const OWNER = {
   entry: sql`select event_id from entries where id = `,
   payment: sql`select event_id from payments where id = `,
   appointment: sql`select event_id from appointments where id = `,
+  briefing: sql`select event_id from briefings where id = `,
+  protest: sql`select event_id from protests where id = `,
   changeRequest: sql`select e.event_id from entry_change_requests c join entries e on e.id = c.entry_id where c.id = `,
 } as const
 

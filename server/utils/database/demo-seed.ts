@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { allItems } from '#shared/inspection/evaluate'
-import { addDays, localMidnight } from '#shared/rules/zoned'
+import { addDays, localMidnight, localToInstant } from '#shared/rules/zoned'
 import { DEMO_TIME_ZONE, demoCalendar, demoToday, seedDemo } from '../../database/demo'
 import demo from '../../database/demo-people.json'
 import type { StagedFile } from '../evidence/uploads'
@@ -117,8 +117,8 @@ type CertificateKind = 'survey-certificate' | 'calibration-certificate' | 'rider
 async function demoFacts() {
   const db = useDb()
   const user = async (email: string) => (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
-  const [organiser, timekeeper, team, official, official2] = await Promise.all(
-    ['organiser', 'timekeeper', 'team', 'official', 'official2'].map(r => user(`${r}@trapline.test`)),
+  const [organiser, timekeeper, team, official, official2, team2] = await Promise.all(
+    ['organiser', 'timekeeper', 'team', 'official', 'official2', 'team2'].map(r => user(`${r}@trapline.test`)),
   )
   const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
   const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
@@ -136,6 +136,7 @@ async function demoFacts() {
     team: team!,
     official: official!,
     official2: official2!,
+    team2: team2!,
   }
   return { people, event: event!, course: course!, systems, streamliner: streamliner!, attempt: attempt! }
 }
@@ -211,6 +212,46 @@ async function signDemoStatements({ people, event, attempt }: DemoFacts) {
   }
 }
 
+/** The riders' briefing at 07:00 on the run day; each team signs its rider on from its own phone by 07:20. */
+async function holdDemoBriefing({ people, event }: Awaited<ReturnType<typeof demoFacts>>) {
+  const cal = demoCalendar(String(useRuntimeConfig().demoToday || '') || demoToday())
+  const at = (hhmm: string) => new Date(localToInstant(`${cal.runDay}T${hhmm}`, event.timeZone))
+  const briefing = await createBriefing(event.id, {
+    title: 'Riders\' briefing, run day',
+    heldAt: at('07:00').toISOString(),
+    notes: 'Course layout and shut-down area, return-run window, radio channels, parachute and marshal signals.',
+  }, people.organiser.id)
+  const riders = await useDb().select({ id: tables.riders.id, name: tables.riders.name, teamId: tables.riders.teamId })
+    .from(tables.entries).innerJoin(tables.riders, eq(tables.riders.id, tables.entries.riderId))
+    .where(eq(tables.entries.eventId, event.id)).orderBy(tables.entries.id)
+  for (const [i, team] of [people.team, people.team2].entries()) {
+    const rider = riders[i]!
+    await signOnBriefing(briefing.id, { riderId: rider.id, onDevice: 'own', typedName: rider.name,
+      password: demo.password }, team, { teamIds: [rider.teamId], organiser: false }, at(`07:1${i * 5}`))
+  }
+}
+
+/**
+ * Once the streamliner's result is published, the second team protests its timing; the steward hears both teams
+ * and the chief timekeeper, and dismisses it. The decision goes into the dossiers issued after it.
+ */
+async function hearDemoProtest({ people, event, attempt }: Awaited<ReturnType<typeof demoFacts>>) {
+  const [team2] = await useDb().select({ id: tables.teams.id }).from(tables.teams)
+    .where(eq(tables.teams.name, 'Cinder Hollow Engineering'))
+  const protest = await lodgeProtest(event.id, {
+    attemptId: attempt.id, kind: 'timing', typedName: people.team2.name, password: demo.password,
+    grounds: 'The back run\'s backup reading at the mile exit looks late against the primary; we ask that the '
+      + 'pair be checked before it is published as a record.',
+  }, people.team2, [team2!.id])
+  await decideProtest(protest.id, {
+    heardAt: new Date().toISOString(), present: 'Both teams; the chief timekeeper', outcome: 'dismissed',
+    hearing: 'The chief timekeeper showed both systems\' printouts; the backup\'s reading agrees with the primary '
+      + 'within the systems\' tolerances.',
+    reasons: 'The cross-check holds on both runs; nothing in the timing calls the pair into question.',
+    typedName: people.official2.name, password: demo.password,
+  }, people.official2, ['official'])
+}
+
 /**
  * The rest of the demo day, through the same code as the app: certificates and licences attached,
  * two witness statements, the timing sheet signed, and the streamliner's dossiers (the mile and the
@@ -221,6 +262,7 @@ async function seedDemoDossier() {
   const facts = await demoFacts()
   const { people, event, attempt } = facts
   await attachDemoCertificates(facts)
+  await holdDemoBriefing(facts)
   await signDemoStatements(facts)
   await signTimingSheet({
     eventId: event.id,
@@ -229,6 +271,7 @@ async function seedDemoDossier() {
     password: demo.password,
     typedName: people.timekeeper.name,
   })
+  await hearDemoProtest(facts)
   const reasons = 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, '
     + 'two statements.'
   const decision = { decision: 'ratified' as const, reasons, password: demo.password, typedName: people.official.name }

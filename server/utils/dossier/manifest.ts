@@ -1,3 +1,4 @@
+import { eq, inArray } from 'drizzle-orm'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import { allItems } from '#shared/inspection/evaluate'
 import type { Readiness } from './readiness'
@@ -61,6 +62,8 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     statements: await manifestStatements(day.event.id, r.attemptId),
     notices: await manifestNotices(day.event.id, r.attemptId, issuedAt),
     officials: await manifestOfficials(day.event.id),
+    startLine: await manifestStartLine(r),
+    protests: await manifestProtests(day.event.id, r.attemptId, issuedAt),
     evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
       id: e.id,
       kind: e.kind,
@@ -84,7 +87,10 @@ function manifestEntry({ live, entry }: Readiness) {
       declaredMassKg: machine.declaredMassKg,
       division: machine.division,
     },
-    rider: { name: rider.name, licenceNo: rider.licenceNo, licenceExpires: rider.licenceExpires },
+    rider: {
+      name: rider.name, licenceNo: rider.licenceNo, licenceExpires: rider.licenceExpires,
+      licenceGrade: rider.licenceGrade, medicalExpires: rider.medicalExpires,
+    },
   }
 }
 
@@ -223,6 +229,46 @@ async function manifestOfficials(eventId: number) {
   }
 }
 
+/**
+ * What the start line rested on: the rider's sign-ons to the event's briefings, each run's expected speed and
+ * licence upgrade, and the clerk of the course's signed overrides the runs started under.
+ */
+async function manifestStartLine(r: Readiness) {
+  const { briefings } = await briefingsOf(r.day.event.id)
+  const riderId = r.entry.rider.id
+  const runs = r.day.runs.filter(x => x.attemptId === r.attemptId)
+  const overrideIds = [...new Set(runs.flatMap(x => (x.overrideId ? [x.overrideId] : [])))]
+  const overrides = overrideIds.length
+    ? await useDb().select({ o: tables.startOverrides, typedName: tables.signatures.typedName,
+        sha256: tables.signatures.contentSha256 })
+        .from(tables.startOverrides)
+        .innerJoin(tables.signatures, eq(tables.signatures.id, tables.startOverrides.signatureId))
+        .where(inArray(tables.startOverrides.id, overrideIds))
+    : []
+  return {
+    briefings: briefings.map(b => ({
+      title: b.title,
+      heldAt: b.heldAt.toISOString(),
+      signOn: b.signOns.filter(x => x.riderId === riderId).map(x => ({
+        name: x.name, onDevice: x.onDevice, at: x.signedAt.toISOString(), sha256: x.sha256,
+      }))[0] ?? null,
+    })),
+    runs: runs.map(x => ({ id: x.id, expectedKmh: x.expectedKmh, licenceUpgrade: x.licenceUpgrade,
+      overrideId: x.overrideId })),
+    overrides: overrides.map(x => ({ id: x.o.id, day: x.o.day, codes: x.o.codes, reason: x.o.reason,
+      clerk: x.typedName, sha256: x.sha256 })),
+  }
+}
+
+/** The protests and appeals on the attempt lodged up to the issue, with their hearings and decisions. */
+async function manifestProtests(eventId: number, attemptId: number, issuedAt: Date) {
+  return (await protestsOf(eventId, [attemptId])).filter(p => p.lodgedAt <= issuedAt).map(p => ({
+    id: p.id, appealOf: p.appealOf, kind: p.kind, team: p.team, grounds: p.grounds, lodged: p.lodgedClock,
+    deadline: p.deadlineClock, feeNote: p.feeNote, heard: p.heardAt?.toISOString() ?? null, present: p.present,
+    hearing: p.hearing, outcome: p.outcome, reasons: p.reasons, decidedBy: p.decidedByName, decided: p.decidedClock,
+  }))
+}
+
 /** The official notices that concern the attempt: its own, and the event's general ones, up to the issue. */
 async function manifestNotices(eventId: number, attemptId: number, issuedAt: Date) {
   const all = await noticesAt(eventId)
@@ -285,6 +331,6 @@ export const PERSONAL_EVIDENCE = new Set(['rider-licence'])
 export function publicManifest(m: Manifest): Manifest {
   const copy = structuredClone(m)
   copy.dossier.copy = 'public'
-  copy.entry.rider = { ...copy.entry.rider, licenceNo: 'withheld in the public copy' }
+  copy.entry.rider = { ...copy.entry.rider, licenceNo: 'withheld in the public copy', medicalExpires: null }
   return copy
 }

@@ -231,4 +231,6 @@ export class PdfLayout {
 
 /** How a signature in the file was made, in words: a passkey, or the password again (the weaker kind). */
 export const signedWith = (method: string | undefined) =>
-  method === 'passkey' ? 'with a passkey' : 'password re-entered, the weaker kind'
+  method === 'passkey'
+    ? 'with a passkey'
+    : method === 'in-person' ? 'in person on the organiser\'s device' : 'password re-entered, the weaker kind'

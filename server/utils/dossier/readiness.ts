@@ -44,6 +44,7 @@ async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: 
     evidence: await useDb().select().from(tables.evidence).where(eq(tables.evidence.eventId, eventId)),
     statements,
     officials: await officialsOf(eventId, attempt.profile.appointments?.value ?? []),
+    openProtests: await openProtestsOn([attemptId]),
     ...(await clearances(entry.entry.id, counted)),
   }
 }
@@ -72,7 +73,7 @@ type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
 function recordItems(file: AttemptFile): ReadinessItem[] {
-  const { at, day, live, counted, clearance, statements, attempt, officials } = file
+  const { at, day, live, counted, clearance, statements, attempt, officials, openProtests } = file
   // The dossier is issued on figures somebody signed: the sheet's content now must hash as signed.
   const sheetUnchanged = live.sheet.locked
     && sha256(canonicalJson(timingSheetContent(day, attempt.id))) === live.sheet.latest?.sha256
@@ -126,6 +127,16 @@ function recordItems(file: AttemptFile): ReadinessItem[] {
             : officials.appointments.filter(a => !a.endedAt).map(a => `${a.label}: ${a.name}`).join('; '),
         }]
       : []),
+    {
+      key: 'protests',
+      label: 'No protest or appeal open on the attempt',
+      fix: `${at}/protests`,
+      met: openProtests.length === 0,
+      detail: openProtests.length
+        ? `open: ${openProtests.map(p => `${p.appealOf ? 'appeal' : 'protest'} #${p.id}`).join(', ')}; the stewards `
+        + 'decide first, and the decision goes into the dossier'
+        : 'none open',
+    },
   ]
 }
 

@@ -43,7 +43,7 @@ async function claimRows() {
 type ClaimRow = Awaited<ReturnType<typeof claimRows>>[number]
 
 /** A claim as the registry shows it: figures as published, the local date of its runs, its links. */
-function claimView(r: ClaimRow, site: string) {
+function claimView(r: ClaimRow, site: string, protested: Set<number>) {
   const m = r.d.manifest as Manifest
   const lastRun = Math.max(...m.runs.filter(x => x.counted).map(x => Date.parse(x.startedAt)))
   const decided = r.status === 'ratified' || r.status === 'homologated'
@@ -66,6 +66,8 @@ function claimView(r: ClaimRow, site: string) {
     certificateUrl: decided ? `${site}/api/dossiers/${r.d.id}/certificate` : null,
     verifyUrl: `${site}/verify`,
     homologation: r.h?.signatureId ? { reference: r.h.reference, on: r.h.homologatedOn } : null,
+    /** A protest or appeal on its attempt is not yet decided: the claim waits on it. */
+    underProtest: protested.has(r.d.attemptId),
   }
 }
 type ClaimView = ReturnType<typeof claimView>
@@ -110,8 +112,11 @@ const sameSlot = (a: { profile: string, class: string, distance: string }, b: ty
  */
 export async function recordBook(query: RecordBookQuery = {}) {
   const site = useRuntimeConfig().siteUrl.replace(/\/$/, '')
-  const [claims, entered] = await Promise.all([claimRows(), enteredRecords()])
-  const views = new Map(claims.map(c => [c.d.id, claimView(c, site)]))
+  const [claims, entered, open] = await Promise.all([claimRows(), enteredRecords(),
+    useDb().selectDistinct({ attemptId: tables.protests.attemptId }).from(tables.protests)
+      .where(isNull(tables.protests.decidedAt))])
+  const protested = new Set(open.map(o => o.attemptId))
+  const views = new Map(claims.map(c => [c.d.id, claimView(c, site, protested)]))
   // Records come from every ratified version (the latest ratified one of a claim stands); the claims list
   // shows what became of the latest version submitted.
   const ratified = claims.filter(c => c.status === 'ratified' || c.status === 'homologated')

@@ -145,6 +145,8 @@ export function renderStatements(L: PdfLayout, m: Manifest) {
       : 'No permit recorded.')
     for (const a of officials.appointments) L.text(`${a.label}: ${a.name}`, { indent: 10, gap: 1 })
   }
+  renderStartLine(L, m)
+  renderProtests(L, m)
   L.heading('Witness statements')
   for (const s of m.statements) renderStatement(L, s)
   // A dossier sealed before notices were kept has none in its manifest.
@@ -247,4 +249,52 @@ export async function renderSeal(L: PdfLayout, doc: PDFDocument, seal: SealFacts
   L.ensure(170)
   L.page.drawImage(qr, { x: 50, y: L.y - 160, width: 160, height: 160 })
   L.y -= 170
+}
+
+/** The rider's briefings, each run's expected speed and upgrade, and the clerk's overrides (newer dossiers only). */
+function renderStartLine(L: PdfLayout, m: Manifest) {
+  const line = (m as { startLine?: Manifest['startLine'] }).startLine
+  if (!line) return
+  L.heading('Start line and briefing')
+  const rider = m.entry.rider
+  L.text(`Rider ${rider.name}: licence ${rider.licenceNo}, valid to ${rider.licenceExpires}`
+    + `${rider.licenceGrade ? `, grade ${rider.licenceGrade}` : ''}`
+    + `${rider.medicalExpires ? `; medical valid to ${rider.medicalExpires}` : ''}.`, { gap: 2 })
+  if (!line.briefings.length) L.text('No riders\' briefing recorded at the event.', { gap: 2 })
+  for (const b of line.briefings) {
+    L.text(`${b.title}, held ${utcStamp(b.heldAt)} UTC: ${b.signOn
+      ? `signed on by ${b.signOn.name} ${b.signOn.onDevice === 'own'
+        ? 'on their own device'
+        : 'in person on the '
+          + 'organiser\'s device'}, ${utcStamp(b.signOn.at)} UTC; SHA-256 ${b.signOn.sha256}`
+      : 'the rider did not sign on'}`, { indent: 10, gap: 1 })
+  }
+  for (const r of line.runs) {
+    const parts = [r.expectedKmh ? `expected ${r.expectedKmh} km/h` : 'no expected speed',
+      r.licenceUpgrade ? `licence upgrade run to ${r.licenceUpgrade}` : '',
+      r.overrideId ? `started under override #${r.overrideId}` : ''].filter(Boolean)
+    L.text(`Run #${r.id}: ${parts.join('; ')}`, { indent: 10, gap: 1 })
+  }
+  for (const o of line.overrides) {
+    L.text(`Override #${o.id} by the clerk of the course ${o.clerk} for ${o.day}: ${o.codes.join(', ')}. `
+      + `Reason: ${o.reason}. SHA-256 ${o.sha256}`, { indent: 10, gap: 1 })
+  }
+}
+
+/** Protests and appeals on the attempt with their hearings and decisions (newer dossiers only). */
+function renderProtests(L: PdfLayout, m: Manifest) {
+  const list = (m as { protests?: Manifest['protests'] }).protests
+  if (!list) return
+  L.heading('Protests and appeals')
+  if (!list.length) L.text('None lodged on this attempt up to the issue of this dossier.')
+  for (const p of list) {
+    L.text(`${p.appealOf ? `Appeal #${p.id} against the decision on protest #${p.appealOf}` : `Protest #${p.id}`} `
+      + `by ${p.team} (${p.kind}), lodged ${p.lodged}, deadline ${p.deadline}`, { bold: true, gap: 1 })
+    L.text(`Grounds: ${p.grounds}${p.feeNote ? ` Fee: ${p.feeNote} (noted, not collected by Trapline).` : ''}`,
+      { indent: 10, gap: 1 })
+    L.text(p.outcome
+      ? `Heard ${p.heard ? utcStamp(p.heard) : ''} UTC, present: ${p.present}. ${p.hearing} `
+      + `Decision: ${p.outcome}, by ${p.decidedBy}, ${p.decided}. Reasons: ${p.reasons}`
+      : 'Not yet decided.', { indent: 10 })
+  }
 }

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, desc, eq, gt, inArray } from 'drizzle-orm'
 import { cmp, fromDecimal } from '#shared/rules/exact'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
 import { localDate } from '#shared/rules/zoned'
@@ -57,6 +57,24 @@ export async function dossiersOf(attemptId: number) {
       ? { reference: r.homologation.reference, on: r.homologation.homologatedOn }
       : null,
   }))
+}
+
+/**
+ * A claim is not ratified while a protest or appeal on its attempt is open, nor from a dossier sealed before a
+ * decision on one: the decision belongs in the file, so a new version is issued first.
+ */
+async function refuseUnderProtest(tx: Tx, d: { attemptId: number, createdAt: Date }) {
+  const open = await openProtestsOn([d.attemptId], tx)
+  if (open.length) {
+    throw conflict(`This claim is under protest (${open.map(p => `${p.appealOf ? 'appeal' : 'protest'} #${p.id}`)
+      .join(', ')}): it is ratified only once each is decided`)
+  }
+  const [later] = await tx.select({ id: tables.protests.id }).from(tables.protests)
+    .where(and(eq(tables.protests.attemptId, d.attemptId), gt(tables.protests.decidedAt, d.createdAt))).limit(1)
+  if (later) {
+    throw conflict(`Protest #${later.id} was decided after this dossier was sealed: issue a new version with the `
+      + 'decision in it, then submit that')
+  }
 }
 
 async function dossierRow(id: number) {
@@ -156,6 +174,7 @@ export async function decideDossier(
     await tx.select({ id: tables.dossiers.id }).from(tables.dossiers).where(eq(tables.dossiers.id, dossierId))
       .for('update')
     await refuseIfWithdrawn(dossierId, tx)
+    if (input.decision === 'ratified') await refuseUnderProtest(tx, d)
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
       throw conflict(`This dossier was already ${existing.decision}`)

@@ -6,7 +6,10 @@ import type { StartRunInput } from '#shared/schemas/event-day'
 
 const unprocessable = fieldInvalid
 
-/** The entry, locked for the start of a run; only an entry cleared by a signed inspection may run. */
+/**
+ * The entry, locked for the start of a run; only an entry cleared by a signed inspection, paid where the
+ * organiser requires it, and passed by the start line (licence, grade, medical, briefing) may run.
+ */
 async function lockClearedEntry(tx: Tx, eventId: number, entryId: number) {
   const [entry] = await tx
     .select()
@@ -88,12 +91,17 @@ async function newAttempt(tx: Tx, eventId: number, entryId: number) {
 export async function startRun(eventId: number, input: StartRunInput, userId: number) {
   return useDb().transaction(async (tx) => {
     const entry = await lockClearedEntry(tx, eventId, input.entryId)
+    const startedAt = input.startedAt ? new Date(input.startedAt) : new Date()
+    const line = await refuseAtStartLine(tx, entry, startedAt,
+      { expectedKmh: input.expectedKmh, upgrade: input.licenceUpgrade })
+    if (input.licenceUpgrade && !line.upgradeTo) {
+      throw unprocessable('licenceUpgrade', 'the profile grades no licences, or the rider holds the top grade')
+    }
     const claims = await claimStarts(tx, entry.distanceIds)
     const start = input.start ?? defaultRunStart(claims)
     if (!claims.some(c => c.start === start)) {
       throw unprocessable('start', `the entry claims no ${start === 'standing' ? 'standing-start' : 'flying'} distance`)
     }
-    const startedAt = input.startedAt ? new Date(input.startedAt) : new Date()
     // The day as committed: the entry's row lock above keeps a second start of it waiting until this one ends.
     const day = await loadEventDay(eventId)
     const found = openAttemptOf(day, entry.id)
@@ -104,7 +112,12 @@ export async function startRun(eventId: number, input: StartRunInput, userId: nu
     await refuseMixedStarts(tx, attemptId, start)
     const [run] = await tx
       .insert(tables.runs)
-      .values({ eventId, attemptId, direction: input.direction, start, startedAt, createdBy: userId })
+      .values({
+        eventId, attemptId, direction: input.direction, start, startedAt, createdBy: userId,
+        expectedKmh: line.expectedKmh === null ? null : String(line.expectedKmh),
+        licenceUpgrade: input.licenceUpgrade ? line.upgradeTo : null,
+        overrideId: line.findings.length ? line.override?.id ?? null : null,
+      })
       .returning()
     return { ...run!, placement: placement?.message ?? 'This run starts a new attempt.' }
   })

@@ -19,7 +19,10 @@ async function hasRun(tx: Tx, entryId: number) {
 }
 
 const detailsOf = (x: Awaited<ReturnType<typeof lockEntry>>) => ({
-  rider: { name: x.rider.name, licenceNo: x.rider.licenceNo, licenceExpires: x.rider.licenceExpires },
+  rider: {
+    name: x.rider.name, licenceNo: x.rider.licenceNo, licenceExpires: x.rider.licenceExpires,
+    licenceGrade: x.rider.licenceGrade, medicalExpires: x.rider.medicalExpires,
+  },
   machine: {
     name: x.machine.name,
     power: x.machine.power,

@@ -107,7 +107,9 @@ export async function eventOverview(access: EventAccess) {
       machines: machineRows.filter(m => m.teamId === t.id),
       riders: riderRows
         .filter(r => r.teamId === t.id)
-        .map(r => (seesLicences(t.id) ? r : { ...r, licenceNo: null, licenceExpires: null })),
+        .map(r => (seesLicences(t.id)
+          ? r
+          : { ...r, licenceNo: null, licenceExpires: null, licenceGrade: null, medicalExpires: null })),
     })),
   }
 }

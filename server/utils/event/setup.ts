@@ -71,6 +71,13 @@ export async function adaptProfile(eventId: number, input: ProfileAdaptInput) {
   if (input.witnessStatements !== undefined) p.witnessStatements = { value: input.witnessStatements, ...adapted }
   if (input.averaging !== undefined) p.averaging = { value: input.averaging, ...adapted }
   if (input.postRunCheck !== undefined) p.postRunCheck = { value: input.postRunCheck, ...adapted }
+  if (p.protests && (input.protestMinutes || input.protestBy || input.appealMinutes)) {
+    const rule = structuredClone(p.protests.value)
+    if (input.protestMinutes) rule.lodge = { kind: 'minutes', minutes: input.protestMinutes }
+    if (input.protestBy) rule.lodge = { kind: 'clock', at: input.protestBy, daysAfter: 0 }
+    if (input.appealMinutes && rule.appeal) rule.appeal.deadline = { kind: 'minutes', minutes: input.appealMinutes }
+    p.protests = { value: rule, ...adapted }
+  }
   if (input.removeClasses.length || input.addClasses.length) p.classes = { value: adaptClasses(p, input), ...adapted }
   p.id = `${base.id}-adapted`
   p.name = `${base.name} (adapted)`

@@ -20,6 +20,8 @@ export async function assertPassword(userId: number, password: string) {
  */
 /** How a signer proved it was them: the password again (checked before), or a passkey (checked with the content). */
 export type SignerProof = { method: 'password' } | { method: 'passkey', response: AuthenticationResponseJSON }
+  /** Signed in person on the device of the signed-in witness (a briefing sign-on on the organiser's tablet). */
+  | { method: 'in-person' }
 
 /** The signer's proof: a passkey's response is checked later against the content; a password here and now. */
 export async function signerProof(
@@ -43,6 +45,8 @@ export async function insertSignature(
     typedName: string
     /** Why the typed name differs from the name on the account; required where it does. */
     nameNote?: string | null
+    /** The name the typed one must match, where the signer signs as another named person (a rider). */
+    nameOnFile?: string
     content: unknown
     drawingPng?: string | null
     reason?: string | null
@@ -51,7 +55,7 @@ export async function insertSignature(
     signedAt?: Date
   },
 ) {
-  await assertSignerName(tx, input.signerId, input.typedName, input.nameNote)
+  await assertSignerName(tx, input.signerId, input.typedName, input.nameNote, input.nameOnFile)
   // A passkey signs the SHA-256 of exactly this content: checked here, under the caller's lock.
   const assertion = input.proof.method === 'passkey'
     ? await verifyPasskeySignature(tx, input.signerId, passkeyDigest(input.kind, input.content), input.proof.response)
@@ -82,11 +86,13 @@ export async function insertSignature(
  * The typed name is the signer's name on file (case and spacing aside), or the signer says why it differs
  * (a name as on a licence, a married name): a signature is a deliberate act by a named person.
  */
-async function assertSignerName(tx: Tx, signerId: number, typedName: string, nameNote?: string | null) {
+async function assertSignerName(tx: Tx, signerId: number, typedName: string, nameNote?: string | null,
+  nameOnFile?: string) {
   const [user] = await tx.select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, signerId))
-  if (!user || sameName(typedName, user.name) || (nameNote?.trim().length ?? 0) >= 3) return
-  throw fieldInvalid('typedName', `is not the name on your account (${user.name}): type it as on file, `
-    + 'or say why it differs; nothing was signed')
+  const onFile = nameOnFile ?? user?.name
+  if (!onFile || sameName(typedName, onFile) || (nameNote?.trim().length ?? 0) >= 3) return
+  throw fieldInvalid('typedName', `is not the name on ${nameOnFile ? 'file' : 'your account'} (${onFile}): `
+    + 'type it as on file, or say why it differs; nothing was signed')
 }
 
 /** The content each signature signed, as stored beside it. */

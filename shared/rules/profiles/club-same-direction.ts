@@ -1,5 +1,6 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
+import { briefingRequired, clubLicence, clubProtests } from './officials-rules'
 
 const CLUB_PAGES = 'club record procedure pages'
 
@@ -68,6 +69,9 @@ export const clubSameDirection: RuleProfile = {
     source: 'the club’s chief timer and chief of inspection sign the record (common practice, from memory)',
     certainty: 'common practice',
   },
+  licence: clubLicence,
+  briefing: briefingRequired,
+  protests: clubProtests,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

@@ -1,4 +1,5 @@
 import type { RuleProfile } from '../profile'
+import { briefingRequired, internationalLicence, internationalProtests } from './officials-rules'
 import type { RecordClass } from '../classes'
 
 const electricCar = (words: string, massKg: { over: number, upTo: number | null }): RecordClass =>
@@ -66,6 +67,9 @@ export const intlAutomobile: RuleProfile = {
       + '(common practice; confirm in the rulebook in force)',
     certainty: 'common practice',
   },
+  licence: internationalLicence,
+  briefing: briefingRequired,
+  protests: internationalProtests,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

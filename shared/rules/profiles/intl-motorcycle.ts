@@ -1,5 +1,6 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
+import { briefingRequired, internationalLicence, internationalProtests } from './officials-rules'
 
 const FIM_PAGE = 'FIM world records page'
 
@@ -65,6 +66,9 @@ export const intlMotorcycle: RuleProfile = {
       + 'the federation for a world record (common practice; confirm in the rulebook in force)',
     certainty: 'common practice',
   },
+  licence: internationalLicence,
+  briefing: briefingRequired,
+  protests: internationalProtests,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

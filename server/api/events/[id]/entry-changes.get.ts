@@ -14,7 +14,10 @@ export default defineEventHandler(async (event) => {
       id: e.entry.id,
       teamName: e.teamName,
       hasRun: ran.has(e.entry.id),
-      rider: { name: e.rider.name, licenceNo: e.rider.licenceNo, licenceExpires: e.rider.licenceExpires },
+      rider: {
+        name: e.rider.name, licenceNo: e.rider.licenceNo, licenceExpires: e.rider.licenceExpires,
+        licenceGrade: e.rider.licenceGrade, medicalExpires: e.rider.medicalExpires,
+      },
       machine: {
         name: e.machine.name,
         power: e.machine.power,

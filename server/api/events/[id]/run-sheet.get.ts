@@ -1,12 +1,13 @@
 // The timekeeper's sheet: every reading with its corrections, newest state computed.
 export default defineEventHandler(async (event) => {
-  const { eventId } = await requireEventRole(event, ['timekeeper', 'organiser', 'official'])
+  const { eventId, user } = await requireEventRole(event, ['timekeeper', 'organiser', 'official'])
   const day = await loadEventDay(eventId, { history: true })
   const now = Date.now()
   const attempts = computeLive(day, { readings: true })
   const clearance = await clearanceOf(day.entries.map(e => e.entry.id))
   // The attempts as computed above (their windows and findings): not computed a second time.
   const placements = placementsOf(day, now, attempts)
+  const startLine = await startLineOf(useDb(), day.event, day.entries, new Date(now))
   /** A run of the entry that left the line and has neither a time nor an abort yet. */
   const openRun = (entryId: number) => attempts.filter(a => a.entry.id === entryId)
     .flatMap(a => a.runs).find(r => r.status !== 'aborted' && !r.official)?.id ?? null
@@ -30,7 +31,11 @@ export default defineEventHandler(async (event) => {
       openRunId: openRun(e.entry.id),
       /** Where a run out or back leaving now would go: the open attempt, or a new one and why. */
       next: placements.get(e.entry.id)!,
+      /** What the start line says now: licence, grade, medical, briefing, and the clerk's override of the day. */
+      startLine: startLine.get(e.entry.id)!,
     })),
+    /** Whether the person reading is the clerk of the course, who alone overrides the start line. */
+    clerk: await isClerkOfCourse(eventId, user.id),
     traps: day.traps,
     systems: day.systems,
     /** How each timing system's own file reads, where one was set. */

@@ -1,0 +1,57 @@
+import type { Sourced } from '../profile'
+import type { LicenceGrade, LicenceRule } from '../start-line'
+import type { ProtestRule } from '../protests'
+
+const MPH_TO_KMH = 1.609344 // exact by definition of the international mile (1959)
+const bracket = (mph: number): LicenceGrade =>
+  ({ label: `${mph} mph`, maxKmh: Math.round(mph * MPH_TO_KMH * 1e4) / 1e4 })
+
+/** Club practice: licences graded by speed brackets, each earned by a run in it; values to confirm per club. */
+export const clubLicence: Sourced<LicenceRule> = {
+  value: {
+    grades: [
+      bracket(125), bracket(150), bracket(175), bracket(200), bracket(250), { label: 'unlimited', maxKmh: null },
+    ],
+    medical: false,
+  },
+  source: 'dry-lake club rulebooks grade licences by speed, 25 mph steps to 200 mph then 250 mph and unlimited, '
+    + 'each step earned by an observed run in the next bracket (from memory; the club sets its own brackets)',
+  certainty: 'from memory',
+}
+
+/** International practice: a licence of the issuing federation valid on the day, with a valid medical. */
+export const internationalLicence: Sourced<LicenceRule> = {
+  value: { grades: null, medical: true },
+  source: 'an international licence of the federation, valid on the day, issued with a medical examination '
+    + '(common practice, from memory; confirm in the licence regulations in force)',
+  certainty: 'common practice',
+}
+
+export const briefingRequired: Sourced<boolean> = {
+  value: true,
+  source: 'riders attend the briefing of the clerk of the course before running (common practice)',
+  certainty: 'common practice',
+}
+
+/** Protests within 30 min of publication, appeal notice within 1 h of the decision (sporting codes, from memory). */
+export const internationalProtests: Sourced<ProtestRule> = {
+  value: {
+    lodge: { kind: 'minutes', minutes: 30 },
+    fee: 'set by the national authority that issued the permit',
+    appeal: { deadline: { kind: 'minutes', minutes: 60 }, to: 'the national court of appeal of the permit\'s issuer' },
+  },
+  source: 'international sporting and disciplinary codes: protests against a result within 30 min of its '
+    + 'publication, notice of appeal within 1 h of the stewards\' decision (from memory; confirm in the code in force)',
+  certainty: 'from memory',
+}
+
+export const clubProtests: Sourced<ProtestRule> = {
+  value: {
+    lodge: { kind: 'minutes', minutes: 60 },
+    fee: 'set by the club',
+    appeal: { deadline: { kind: 'clock', at: '12:00', daysAfter: 1 }, to: 'the club\'s board' },
+  },
+  source: 'protest within an hour of the time slip, appeal to the club\'s board by noon the next day '
+    + '(common practice, not checked against a rulebook: a setting of the profile)',
+  certainty: 'common practice',
+}

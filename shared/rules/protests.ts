@@ -1,0 +1,76 @@
+// Protest and appeal deadlines and states. Pure: instants in, instants and words out, in the event's zone.
+import { addDays, localDate, localDateTime, localToInstant } from './zoned'
+
+/**
+ * How long after publication a protest (or an appeal, after the decision) may be lodged: a number of minutes,
+ * or until a clock time in the event's zone on the day of publication (or a day after).
+ */
+export type Deadline
+  = | { kind: 'minutes', minutes: number }
+    | { kind: 'clock', at: string, daysAfter: number }
+
+export interface ProtestRule {
+  /** From the publication of what is protested (the signed timing sheet, the signed inspection). */
+  lodge: Deadline
+  /** The fee the rulebook sets: noted with the protest, not collected by Trapline. */
+  fee: string | null
+  /** The path and deadline of an appeal against the stewards' decision, or null where there is none. */
+  appeal: { deadline: Deadline, to: string } | null
+}
+
+export const PROTEST_KINDS = ['result', 'timing', 'inspection', 'entry'] as const
+export type ProtestKind = (typeof PROTEST_KINDS)[number]
+export const PROTEST_KIND_LABELS: Record<ProtestKind, string> = {
+  result: 'Against a result',
+  timing: 'Against a timing decision',
+  inspection: 'Against an inspection decision',
+  entry: 'Against another entry',
+}
+
+export const PROTEST_OUTCOMES = ['upheld', 'dismissed'] as const
+export type ProtestOutcome = (typeof PROTEST_OUTCOMES)[number]
+
+/** The instant a deadline falls, counted from the instant of publication in the event's zone. */
+export function deadlineAfter(publishedMs: number, rule: Deadline, timeZone: string): number {
+  if (rule.kind === 'minutes') return publishedMs + rule.minutes * 60_000
+  const day = addDays(localDate(publishedMs, timeZone), rule.daysAfter)
+  return localToInstant(`${day}T${rule.at}`, timeZone)
+}
+
+/** A deadline as the event's clock shows it: "00:20 on 2026-12-05 (Europe/Paris)". */
+export function clockTime(ms: number, timeZone: string): string {
+  const [day, time] = localDateTime(ms, timeZone).split(' ') as [string, string]
+  return `${time.slice(0, 5)} on ${day} (${timeZone})`
+}
+
+export function describeDeadline(rule: Deadline): string {
+  if (rule.kind === 'minutes') return `within ${rule.minutes} min`
+  const day = rule.daysAfter === 0
+    ? 'the same day'
+    : rule.daysAfter === 1 ? 'the next day' : `${rule.daysAfter} days later`
+  return `by ${rule.at} ${day}, event's clock`
+}
+
+export function describeProtestRule(r: ProtestRule): string {
+  return [
+    `protest ${describeDeadline(r.lodge)} of publication`,
+    r.fee ? `fee: ${r.fee}` : 'no fee',
+    r.appeal ? `appeal to ${r.appeal.to}, ${describeDeadline(r.appeal.deadline)} of the decision` : 'no appeal',
+  ].join('; ')
+}
+
+/** A protest or appeal, as far as its state goes. */
+export interface ProtestLike {
+  id: number
+  attemptId: number
+  appealOf: number | null
+  decidedAt: string | null
+}
+
+/**
+ * The protests and appeals still open on each attempt: lodged and not yet decided. While one is, the
+ * attempt's dossier is not issued and its claim is not ratified.
+ */
+export function openProtests<T extends ProtestLike>(list: T[], attemptId: number): T[] {
+  return list.filter(p => p.attemptId === attemptId && !p.decidedAt)
+}
