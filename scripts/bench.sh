@@ -8,10 +8,15 @@ cd "$ROOT"
 ensure_node_modules
 ensure_postgres
 
-# BENCH=live, BENCH=bytes, BENCH=upload, BENCH=dossier or BENCH=cluster runs one part only.
+# BENCH=live, BENCH=bytes, BENCH=upload, BENCH=dossier, BENCH=cluster or BENCH=planner runs one part only.
 if [ -z "${BENCH:-}" ]; then
-  say "rules engine"
+  say "rules engine and attempt planner"
   node node_modules/vitest/vitest.mjs bench --run --project unit
+fi
+if [ "${BENCH:-}" = planner ]; then
+  say "attempt planner: a full plan with sensitivity"
+  node node_modules/vitest/vitest.mjs bench --run --project unit tests/bench/planner.bench.ts
+  exit 0
 fi
 
 pg_down bench

@@ -21,6 +21,7 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { ProtestKind, ProtestOutcome } from '#shared/rules/protests'
+import type { PlanRequest } from '#shared/schemas/planner'
 import type { DeviceLayout } from '#shared/rules/device-file'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 // Relative, not '#shared': drizzle-kit reads this file outside Nuxt.
@@ -1124,4 +1125,20 @@ export const protests = pgTable('protests', {
   decidedBy: integer('decided_by').references(() => users.id),
   decidedAt: timestamp('decided_at', { withTimezone: true }),
   decisionSignatureId: integer('decision_signature_id').references(() => signatures.id),
+})
+
+/** An attempt plan saved by a team, for one of its machines where it names one: private to the team. */
+export const plans = pgTable('plans', {
+  id: serial('id').primaryKey(),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
+  machineId: integer('machine_id').references(() => machines.id),
+  name: text('name').notNull(),
+  input: jsonb('input').$type<PlanRequest>().notNull(),
+  createdBy: integer('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 })

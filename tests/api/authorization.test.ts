@@ -142,6 +142,13 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/events/[id]/protests': { expect: rolesOnly(422, 'team'), body: {} },
   'POST /api/protests/[id]/decision': { expect: rolesOnly(422, 'official', 'organiser'), body: {} },
   'POST /api/protests/[id]/appeals': { expect: rolesOnly(422, 'team'), body: {} },
+  // The planner computes for anyone; saved plans are their team's alone (the demo's plan is Larkspur Works').
+  'POST /api/planner': { expect: all(422), body: {} },
+  'GET /api/plans': { expect: signedIn(200) },
+  'POST /api/plans': { expect: signedIn(422), body: {} },
+  'GET /api/plans/[id]': { expect: { ...signedIn(404), team: 200 } },
+  'PUT /api/plans/[id]': { expect: { ...signedIn(404), team: 422 }, body: {} },
+  'GET /api/plans/[id]/comparison': { expect: { ...signedIn(404), team: 422 } },
   'GET /api/events/[id]/fees': { expect: { ...eventMembers(200), admin: 200 } },
   'POST /api/entries/[id]/checkout': { expect: rolesOnly(422, 'team'), body: {} },
   // public route: without the provider's signature a webhook is refused.
@@ -157,7 +164,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0, 'payments': 0, 'appointments': 0, 'briefings': 0, 'protests': 0 }
+  const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0, 'payments': 0, 'appointments': 0, 'briefings': 0, 'protests': 0, 'plans': 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -188,6 +195,7 @@ describe('authorization table', () => {
     // The demo's riders' briefing, and the protest the second team lodged (decided: the stewards dismissed it).
     ids.briefings = (await call('GET', `/api/events/${eventId}/briefings`, { cookie: cookies.organiser })).body.briefings[0].id
     ids.protests = (await call('GET', `/api/events/${eventId}/protests`, { cookie: cookies.organiser })).body[0].id
+    ids.plans = (await call('GET', '/api/plans', { cookie: cookies.team })).body[0].id
     ids.payments = paid.body.payments.find((p: { receiptNo: string }) => p.receiptNo === 'R-DEMO-1').id
     const overview = await call('GET', `/api/events/${eventId}`, { cookie: cookies.organiser })
     ids.machines = overview.body.teams.find((t: { name: string }) => t.name === 'Larkspur Works').machines[0].id
@@ -239,7 +247,7 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests|payments|appointments|briefings|protests)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests|payments|appointments|briefings|protests|plans)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
         const filled = path.replace('[id]', String(id)).replace('[sha]', sha).replace('[kind]', 'traps').replace('[itemId]', '1')
         const r = await call(method, filled, { cookie: cookies[who], body: spec.body })

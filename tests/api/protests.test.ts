@@ -31,6 +31,12 @@ async function publishedAttempt(zone: string, adapt: Record<string, unknown>, na
     cookie: event.cookie.organiser, body: { baseId: 'intl-motorcycle', source: 'test rulebook, art. 9', ...adapt },
   })
   expect(adapted.status, JSON.stringify(adapted.body)).toBe(200)
+  // The riders' briefing an hour ago; the rider signs on in person on the organiser's device (the entry helper).
+  const briefing = await call('POST', `/api/events/${event.eventId}/briefings`, {
+    cookie: event.cookie.organiser,
+    body: { title: 'Riders\' briefing', heldAt: new Date(Date.now() - 3_600_000).toISOString() },
+  })
+  expect(briefing.status).toBe(201)
   const entryId = await clearedEntry(event.eventId, name, {}, {
     team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1',
   })
@@ -134,7 +140,8 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
     expect(text).toContain('Decision: dismissed, by Test official')
     expect(text).toContain('Reasons: Both systems recorded the pass.')
     expect(text).toContain('Start line and briefing')
-    expect(text).toContain('No riders\' briefing recorded at the event.')
+    expect(text).toMatch(/Riders' briefing, held .* UTC: signed on by Test Rider in person on the organiser's device/)
+    expect(text).toMatch(/Run #\d+: expected 290 km\/h/)
     expect(text).toContain('Steward: Test official')
     expect((await call('GET', '/api/record-book')).body.claims.find((c: { id: number }) => c.id === v2.body.id).underProtest)
       .toBe(false)

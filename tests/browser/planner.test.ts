@@ -1,0 +1,59 @@
+import { afterAll, beforeAll, expect, it } from 'vitest'
+import { call } from '../support/api'
+import { launchBrowser, open, signIn } from '../support/browser'
+
+// The planner in the browser: figures in, the chart and tables out as one types, a finding when the course is too
+// short, then saved for the team. Invented machine figures; the physics is checked in the unit tests.
+let ctx: Awaited<ReturnType<typeof launchBrowser>>
+beforeAll(async () => {
+  ctx = await launchBrowser()
+})
+afterAll(async () => {
+  await ctx?.close()
+})
+
+it('plans from the figures to the chart without sign-in, and says when the course is too short', async () => {
+  await ctx.browser.clearCookies()
+  const page = await open(ctx.browser, `${ctx.baseUrl}/planner`)
+  await page.fill('#pl-machine-cdA', '0.12')
+  await page.fill('#pl-power', '150')
+  await page.fill('#pl-recordKmh', '330')
+  // The page computes with the same engine as the API: the result it shows is the API's, to the figure.
+  const body = {
+    machine: { massKg: 320, rotatingMassKg: 20, cdA: 0.12, crr: 0.012, efficiency: 0.92, power: { kind: 'constant', kW: 150 }, maxTractiveN: 2500 },
+    conditions: { altitudeM: 1290, temperatureC: null, pressureHpa: null, windMs: 0, windFromDeg: 0 },
+    course: { label: 'Flying mile', lengthM: 8000, headingDeg: 0, entryM: 3500, exitM: 5109.344 },
+    shutdown: { decelerationMs2: 3, marginM: 300 }, profileId: 'intl-motorcycle', recordKmh: 330, turnaroundMin: 45,
+  }
+  const api = (await call('POST', '/api/planner', { body })).body.plan
+  await expect.poll(() => page.locator('[data-test="plan-result"]').innerText()).toContain(`${api.result.kmh.toFixed(3)} km/h`)
+  expect(await page.locator('canvas').count()).toBe(1)
+  expect(await page.locator('[data-test="plan-sensitivity"] tbody tr').count()).toBe(9)
+  expect(await page.locator('[data-test="plan-window"]').innerText()).toContain('slack')
+  // A 2.6 km course with the mile from 300 m: too little run-up, and the shut-down runs off the end.
+  await page.fill('#pl-course-lengthM', '2600')
+  await page.fill('#pl-course-entryM', '300')
+  await page.fill('#pl-course-exitM', '1909.344')
+  const findings = page.locator('[data-test="plan-findings"]')
+  await expect.poll(() => findings.locator('[data-code="runup.short"]').count()).toBe(2)
+  expect(await findings.locator('[data-code="shutdown.overrun"]').count()).toBeGreaterThan(0)
+  // An exit past the end is named beside its field.
+  await page.fill('#pl-course-exitM', '2700')
+  await expect.poll(() => page.locator('#pl-course-exitM-error').innerText()).toContain('must lie inside the course')
+  await page.close()
+})
+
+it('saves the plan for the team, and opens it again', async () => {
+  const page = await signIn(ctx, 'team2@trapline.test', '/planner')
+  await page.fill('#pl-power', '120')
+  await page.fill('#pl-name', 'Browser plan')
+  await page.selectOption('#pl-team', { label: 'Cinder Hollow Engineering' })
+  await page.getByRole('button', { name: 'Save the plan' }).click()
+  await page.locator('[data-test="saved-plans"]').getByRole('button', { name: 'Browser plan' }).waitFor()
+  await page.goto(`${ctx.baseUrl}/planner`)
+  await page.waitForSelector('html[data-hydrated="true"]')
+  await page.locator('[data-test="saved-plans"]').getByRole('button', { name: 'Browser plan' }).click()
+  expect(await page.inputValue('#pl-power')).toBe('120')
+  expect(await page.inputValue('#pl-name')).toBe('Browser plan')
+  await page.close()
+})

@@ -1,0 +1,148 @@
+import { describe, expect, it } from 'vitest'
+import { profiles } from '#shared/rules/profiles'
+import { airDensity, standardAtmosphere } from '#shared/rules/planner/atmosphere'
+import { closedFormTopSpeed, resistanceN, topSpeed, type Machine } from '#shared/rules/planner/road-load'
+import { integrateRun } from '#shared/rules/planner/run'
+import { plan, scalePower, type PlanInput } from '#shared/rules/planner/plan'
+
+// The planner's physics against outside sources and hand-worked cases. Machine figures are invented for the test.
+const machine: Machine = {
+  massKg: 300, rotatingMassKg: 20, cdA: 0.12, crr: 0.012, efficiency: 0.92,
+  power: { kind: 'constant', kW: 150 }, maxTractiveN: 2500,
+}
+
+describe('the standard atmosphere', () => {
+  // ICAO Doc 7488/3 (= ISO 2533:1975) table, geopotential altitude: temperature, pressure, density (values recalled
+  // from memory of the published table, to the figures it prints).
+  const table: [number, number, number, number][] = [
+    [0, 288.15, 101_325, 1.2250],
+    [1000, 281.65, 89_874.6, 1.1116],
+    [2000, 275.15, 79_495.2, 1.0065],
+    [3000, 268.65, 70_108.5, 0.90912],
+    [5000, 255.65, 54_019.9, 0.73612],
+    [11_000, 216.65, 22_632.1, 0.36392],
+  ]
+  it.each(table)('at %i m: %f K, %f Pa, %f kg/m³', (h, t, p, rho) => {
+    const a = standardAtmosphere(h)
+    expect(a.temperatureK).toBeCloseTo(t, 6)
+    expect(Math.abs(a.pressurePa - p) / p).toBeLessThan(5e-6)
+    expect(Math.abs(a.density - rho) / rho).toBeLessThan(6e-5)
+  })
+  it('gives the density of the day by the ideal gas law', () => {
+    // 15 °C and 1013.25 hPa is the standard sea level: 1.2250 kg/m³ (ISO 2533).
+    expect(airDensity(1013.25, 15)).toBeCloseTo(1.2250, 4)
+    // A dry lake at about 1300 m on a hot day: 872.4 hPa and 27.5 °C give 872.4e2 / (287.05287 × 300.65).
+    expect(airDensity(872.4, 27.5)).toBeCloseTo(87_240 / (287.05287 * 300.65), 12)
+  })
+})
+
+describe('top speed where the power equals the road load', () => {
+  it('is the root of the cubic (Cardano), and the bisection finds the same', () => {
+    const rho = 1.1
+    const v = closedFormTopSpeed(machine, rho, 150_000)
+    // At that speed the power at the wheel is exactly the road load times the speed.
+    expect(resistanceN(machine, rho, v, 0) * v).toBeCloseTo(0.92 * 150_000, 6)
+    expect(topSpeed(machine, rho, 0)).toBeCloseTo(v, 6)
+  })
+  it('with no rolling resistance is (2·η·P / (ρ·CdA))^(1/3), worked by hand', () => {
+    // 2 × 100 000 W / (1.225 × 0.2 m²) = 816 326.53; its cube root is 93.459 m/s (336.45 km/h).
+    const v = closedFormTopSpeed({ ...machine, crr: 0, efficiency: 1, cdA: 0.2 }, 1.225, 100_000)
+    expect(v).toBeCloseTo(93.459, 3)
+  })
+})
+
+describe('the integrated run', () => {
+  it('matches uniform acceleration where only the traction limit acts (v² = 2·a·s, t = v/a)', () => {
+    // No drag, no rolling resistance, power to spare: 2500 N on 250 kg effective is 10 m/s²; after 500 m,
+    // 100 m/s in 10 s (worked by hand).
+    const m = { ...machine, massKg: 230, rotatingMassKg: 20, cdA: 0, crr: 0, power: { kind: 'constant' as const, kW: 1e5 } }
+    const run = integrateRun({ machine: m, rho: 1.2, headWindMs: 0, powerOffAtM: 500, marks: [125, 500], sampleEveryM: 50 })
+    expect(run.at[0]!.vMs).toBeCloseTo(50, 6) // √(2 × 10 × 125)
+    expect(run.at[0]!.tS).toBeCloseTo(5, 6)
+    expect(run.offVMs).toBeCloseTo(100, 6)
+    expect(run.offTS).toBeCloseTo(10, 6)
+  })
+  it('matches constant power with no resistance (v³ = 3·η·P·s / m) once traction no longer limits', () => {
+    // From 200 m on, power limits (P/v < traction): m·v²·dv/ds = P gives v³ − v₀³ = 3·P·(s − s₀)/m. Worked
+    // from the integrated speed at 200 m to 1000 m.
+    const m = { ...machine, massKg: 230, rotatingMassKg: 20, cdA: 0, crr: 0, efficiency: 1, maxTractiveN: 4000 }
+    const run = integrateRun({ machine: m, rho: 1.2, headWindMs: 0, powerOffAtM: 1000, marks: [200, 1000], sampleEveryM: 100 })
+    const v0 = run.at[0]!.vMs
+    expect(150_000 / v0).toBeLessThan(4000)
+    expect(run.at[1]!.vMs).toBeCloseTo(Math.cbrt(v0 ** 3 + (3 * 150_000 * 800) / 250), 4)
+  })
+  it('approaches the closed-form top speed on a long run, and never passes it', () => {
+    const rho = 1.0
+    const top = closedFormTopSpeed(machine, rho, 150_000)
+    const run = integrateRun({ machine, rho, headWindMs: 0, powerOffAtM: 20_000, marks: [20_000], sampleEveryM: 1000 })
+    expect(run.offVMs).toBeLessThan(top)
+    expect(run.offVMs / top).toBeGreaterThan(0.999)
+  })
+})
+
+// A course as a team would set it up: 8 km of salt, the flying mile from 3.5 km; the international motorcycle
+// profile (two runs in opposite directions, 2 h from the start of the first to the finish of the second, seen).
+const input: PlanInput = {
+  machine,
+  conditions: { altitudeM: 1290, temperatureC: 27.5, pressureHpa: 872.4, windMs: 2, windFromDeg: 0 },
+  course: { label: 'Flying mile', lengthM: 8000, headingDeg: 0, entryM: 3500, exitM: 3500 + 1609.344 },
+  shutdown: { decelerationMs2: 3, marginM: 300 },
+  profile: profiles['intl-motorcycle'],
+  recordKmh: 330,
+  turnaroundMin: 45,
+}
+
+describe('the plan', () => {
+  const p = plan(input)
+  it('runs each way with its wind component, and averages by the profile (distance over the mean time)', () => {
+    const [out, back] = p.runs
+    // Wind from 0° at 2 m/s: a 2 m/s head wind on the out run (heading 0°), a tail wind back.
+    expect(out!.headWindMs).toBeCloseTo(2, 9)
+    expect(back!.headWindMs).toBeCloseTo(-2, 9)
+    expect(back!.speedKmh).toBeGreaterThan(out!.speedKmh)
+    expect(p.result.kmh).toBeCloseTo((1609.344 / ((out!.timeS + back!.timeS) / 2)) * 3.6, 9)
+    expect(p.result.mph).toBeCloseTo(p.result.kmh / 1.609344, 9)
+  })
+  it('solves the power and the drag area that beat the record by the margin, and they give it back', () => {
+    const needed = p.needed!
+    const required = p.record!.requiredKmh
+    const withPower = plan({ ...input, machine: scalePower(machine, needed.powerFactor!) })
+    expect(withPower.result.kmh).toBeCloseTo(required, 3)
+    expect(needed.powerKW).toBeCloseTo(150 * needed.powerFactor!, 9)
+    const withDrag = plan({ ...input, machine: { ...machine, cdA: needed.cdA! } })
+    expect(withDrag.result.kmh).toBeCloseTo(required, 3)
+  })
+  it('budgets the return run inside the profile\'s window', () => {
+    const [out, back] = p.runs
+    // 120 min from the start of the first run to the finish of the second: the return run leaves by
+    // 7200 s less its own run time; it can leave once the first run, its shut-down and the turnaround are over.
+    expect(p.window.latestS).toBeCloseTo(7200 - back!.runTimeS, 9)
+    expect(p.window.earliestS).toBeCloseTo(out!.runTimeS + out!.shutdownS + 45 * 60, 9)
+    expect(p.window.slackS).toBeCloseTo(p.window.latestS! - p.window.earliestS, 9)
+    const slow = plan({ ...input, turnaroundMin: 130 })
+    expect(slow.findings.map(f => f.code)).toContain('window.short')
+  })
+  it('finds a short run-up and a shut-down that overruns the course', () => {
+    const short = plan({ ...input, course: { ...input.course, lengthM: 2600, entryM: 300, exitM: 300 + 1609.344 } })
+    const codes = short.findings.map(f => f.code)
+    expect(codes).toContain('runup.short')
+    expect(codes).toContain('shutdown.overrun')
+    // Shut-down at 3 m/s² from the exit speed: v² / (2·a) past the exit trap.
+    const out = short.runs[0]!
+    expect(out.stopM).toBeCloseTo(out.exitM + out.exitMs ** 2 / 6, 9)
+  })
+  it('shows which figure matters: more power and less drag are faster, warmer and lower pressure air too', () => {
+    const by = Object.fromEntries(p.sensitivity.map(r => [r.label, r]))
+    const base = by['As planned']!.resultKmh
+    expect(base).toBeCloseTo(p.result.kmh, 9)
+    expect(by['Power +10 %']!.resultKmh).toBeGreaterThan(base)
+    expect(by['Power −10 %']!.resultKmh).toBeLessThan(base)
+    expect(by['CdA −10 %']!.resultKmh).toBeGreaterThan(base)
+    expect(by['5 °C warmer']!.resultKmh).toBeGreaterThan(base)
+    expect(by['Pressure −20 hPa']!.resultKmh).toBeGreaterThan(base)
+    // At top speed drag dominates: 10 % more power gives about 1.1^(1/3) ≈ 3.2 % more speed (common practice),
+    // a little more since rolling resistance grows only with the speed, not its cube.
+    expect(by['Power +10 %']!.topKmh / by['As planned']!.topKmh).toBeGreaterThan(1.0322)
+    expect(by['Power +10 %']!.topKmh / by['As planned']!.topKmh).toBeLessThan(1.034)
+  })
+})
