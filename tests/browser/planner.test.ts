@@ -57,3 +57,22 @@ it('saves the plan for the team, and opens it again', async () => {
   expect(await page.inputValue('#pl-name')).toBe('Browser plan')
   await page.close()
 })
+
+it('compares the demo team\'s plan with its attempt\'s measured runs', async () => {
+  const page = await signIn(ctx, 'team@trapline.test', '/planner')
+  await page.locator('[data-test="saved-plans"]').getByRole('button', { name: 'North course, flying mile, run-day air' }).click()
+  const form = page.locator('[data-test="plan-compare"]')
+  await form.waitFor()
+  // The demo's pair is the team's first attempt (the seed's): the oldest streamliner attempt listed.
+  await expect.poll(() => form.locator('#pl-attempt option').count()).toBeGreaterThan(1)
+  const values = await form.locator('#pl-attempt option').evaluateAll(os =>
+    os.filter(o => o.textContent?.includes('streamliner')).map(o => Number((o as HTMLOptionElement).value)))
+  await form.locator('#pl-attempt').selectOption(String(Math.min(...values)))
+  await form.getByRole('button', { name: 'Compare the plan with its runs' }).click()
+  const table = form.locator('[data-test="comparison"]')
+  await table.waitFor()
+  // Two runs and the result, each planned beside measured (the demo ran 391.2 and 394.6 km/h by its invented times).
+  expect(await table.locator('tbody tr').count()).toBe(3)
+  expect(await table.innerText()).toMatch(/#\d+ out\s+\d{3}\.\d{3} km\/h\s+39\d\.\d{3} km\/h/)
+  await page.close()
+})

@@ -55,6 +55,16 @@ export async function updatePlan(id: number, input: SavedPlanInput, userId: numb
   return row!
 }
 
+/** The team's attempts, newest first: what a plan can be compared with. */
+export async function teamAttempts(teamId: number) {
+  return useDb().select({ id: tables.attempts.id, event: tables.events.name, machine: tables.machines.name })
+    .from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+    .innerJoin(tables.events, eq(tables.events.id, tables.attempts.eventId))
+    .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
+    .where(eq(tables.entries.teamId, teamId)).orderBy(desc(tables.attempts.id))
+}
+
 /**
  * The plan beside what happened: the speed each run of an attempt of the plan's team made over its main
  * distance, and the attempt's result, against the plan's speed in that direction and its two-way result.

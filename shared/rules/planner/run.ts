@@ -1,7 +1,7 @@
 // A run along the course by integrating the equation of motion over distance: (m + m_rot)·v·dv/ds = F(v).
 // The variable is u = v² (du/ds = 2·a), stepped with the classical fourth-order Runge–Kutta method; the
 // time over each step is 2·Δs/(v₀ + v₁), exact where the acceleration is constant over the step.
-import { acceleration, type Machine } from './road-load'
+import { accelerationOf, type Machine } from './road-load'
 
 /** The distance step of the integration, m. */
 export const STEP_M = 1
@@ -28,7 +28,8 @@ export interface RunTrace {
 
 export function integrateRun(x: RunInput): RunTrace {
   const { machine, rho, headWindMs } = x
-  const du = (u: number) => 2 * acceleration(machine, rho, Math.sqrt(Math.max(u, 0)), headWindMs)
+  const a = accelerationOf(machine, rho, headWindMs)
+  const du = (u: number) => 2 * a(Math.sqrt(u > 0 ? u : 0))
   const marks = [...x.marks].sort((a, b) => a - b)
   const at: RunTrace['at'] = []
   const samples: RunTrace['samples'] = [{ m: 0, vMs: 0 }]
