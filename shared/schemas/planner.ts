@@ -47,8 +47,14 @@ export const planInputSchema = z.object({
     headingDeg: num(0, 360).default(0),
     entryM: num(0, 50_000),
     exitM: num(1, 50_000),
+    /** Other measured distances timed on the same passes, m from the start line. */
+    others: z.array(z.object({
+      label: z.string().trim().min(1).max(80), entryM: num(0, 50_000), exitM: num(1, 50_000),
+    })).max(8).default([]),
   }).refine(c => c.exitM > c.entryM, { error: 'must lie past the entry trap', path: ['exitM'] })
-    .refine(c => c.exitM < c.lengthM, { error: 'must lie inside the course', path: ['exitM'] }),
+    .refine(c => c.exitM < c.lengthM, { error: 'must lie inside the course', path: ['exitM'] })
+    .refine(c => c.others.every(o => o.exitM > o.entryM && o.exitM < c.lengthM),
+      { error: 'each other distance must lie inside the course, its exit past its entry', path: ['others'] }),
   shutdown: z.object({
     decelerationMs2: num(0.5, 15),
     marginM: num(0, 10_000).default(0),

@@ -60,6 +60,19 @@ it('saves the plan for the team, and opens it again', async () => {
 
 it('compares the demo team\'s plan with its attempt\'s measured runs', async () => {
   const page = await signIn(ctx, 'team@trapline.test', '/planner')
+  // The course as set up in Trapline: the demo's flying mile (traps at 3000 and 4609.344 m), the kilometre
+  // inside it timed on the same passes, and the class's record, 239.227 mph = 384.999 km/h (× 1.609344, exact).
+  const from = page.locator('[data-test="plan-from-event"]')
+  await from.locator('#pl-event').selectOption({ label: 'Tamsel Flat Electric Record Days' })
+  await expect.poll(() => from.locator('#pl-distance option').count()).toBeGreaterThan(1)
+  await from.locator('#pl-distance').selectOption({ label: 'Flying mile' })
+  await from.locator('#pl-class').selectOption('Electric, fully streamlined')
+  await from.getByRole('button', { name: 'Fill in the course, profile and record' }).click()
+  await expect.poll(() => page.inputValue('#pl-course-entryM')).toBe('3000')
+  expect(await page.inputValue('#pl-course-exitM')).toBe('4609.344')
+  expect(await page.inputValue('#pl-recordKmh')).toBe('384.999')
+  expect(await page.locator('[data-test="plan-others"]').innerText()).toContain('Flying kilometre (3304.672–4304.672 m)')
+  await expect.poll(() => page.locator('[data-test="plan-distances"] tbody tr').count()).toBe(4)
   await page.locator('[data-test="saved-plans"]').getByRole('button', { name: 'North course, flying mile, run-day air' }).click()
   const form = page.locator('[data-test="plan-compare"]')
   await form.waitFor()

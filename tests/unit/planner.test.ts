@@ -117,7 +117,9 @@ describe('the plan', () => {
     // 120 min from the start of the first run to the finish of the second: the return run leaves by
     // 7200 s less its own run time; it can leave once the first run, its shut-down and the turnaround are over.
     expect(p.window.latestS).toBeCloseTo(7200 - back!.runTimeS, 9)
-    expect(p.window.earliestS).toBeCloseTo(out!.runTimeS + out!.shutdownS + 45 * 60, 9)
+    expect(p.window.earliestS).toBeCloseTo(out!.offTimeS + out!.shutdownS + 45 * 60, 9)
+    // One measured distance: power goes off at its exit trap, the run's finish.
+    expect(out!.offTimeS).toBe(out!.runTimeS)
     expect(p.window.slackS).toBeCloseTo(p.window.latestS! - p.window.earliestS, 9)
     const slow = plan({ ...input, turnaroundMin: 130 })
     expect(slow.findings.map(f => f.code)).toContain('window.short')
@@ -130,6 +132,19 @@ describe('the plan', () => {
     // Shut-down at 3 m/s² from the exit speed: v² / (2·a) past the exit trap.
     const out = short.runs[0]!
     expect(out.stopM).toBeCloseTo(out.exitM + out.exitMs ** 2 / 6, 9)
+  })
+  it('times every measured distance of the pass, the kilometre inside the mile the same as alone', () => {
+    // The kilometre centred in the mile: 304.672 m in from each trap of the mile (1609.344 − 1000 = 609.344 m).
+    const kilometre = { label: 'Flying kilometre', entryM: 3804.672, exitM: 4804.672 }
+    const both = plan({ ...input, course: { ...input.course, others: [kilometre] } })
+    const alone = plan({ ...input, course: { ...input.course, ...kilometre } })
+    for (const i of [0, 1]) {
+      const k = both.runs[i]!.distances.find(d => d.label === 'Flying kilometre')!
+      // The back run meets the kilometre mirrored, from the other end: the same positions here, as it is centred.
+      expect(k.timeS).toBeCloseTo(alone.runs[i]!.timeS, 6)
+      expect(k.entryKmh).toBeCloseTo(alone.runs[i]!.entryKmh, 6)
+    }
+    expect(both.result.kmh).toBeCloseTo(p.result.kmh, 9)
   })
   it('shows which figure matters: more power and less drag are faster, warmer and lower pressure air too', () => {
     const by = Object.fromEntries(p.sensitivity.map(r => [r.label, r]))

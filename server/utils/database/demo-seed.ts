@@ -265,7 +265,10 @@ async function saveDemoPlan({ people, streamliner }: Awaited<ReturnType<typeof d
       machine: { massKg: 366, rotatingMassKg: 25, cdA: 0.09, crr: 0.01, efficiency: 0.93,
         power: { kind: 'constant', kW: 75 }, maxTractiveN: 2200 },
       conditions: { altitudeM: 1187, temperatureC: 27.5, pressureHpa: 872.4, windMs: 2.4, windFromDeg: 200 },
-      course: { label: 'Flying mile', lengthM: 7600, headingDeg: 172, entryM: 3000, exitM: 4609.344 },
+      course: {
+        label: 'Flying mile', lengthM: 7600, headingDeg: 172, entryM: 3000, exitM: 4609.344,
+        others: [{ label: 'Flying kilometre', entryM: 3304.672, exitM: 4304.672 }],
+      },
       shutdown: { decelerationMs2: 2.5, marginM: 300 },
       profileId: 'intl-motorcycle',
       recordKmh: 384.999,

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, isNotNull, isNull, lte } from 'drizzle-orm'
+import { and, desc, eq, inArray, isNotNull, lte } from 'drizzle-orm'
 import { localDate, localDateTime } from '#shared/rules/zoned'
 import { startLineFindings, upgradeTarget, type StartLineFinding } from '#shared/rules/start-line'
 import type { RuleProfile } from '#shared/rules/profile'
@@ -115,13 +115,9 @@ export async function refuseAtStartLine(
   return line
 }
 
-/** Whether the person holds the clerk of the course's appointment at the event, in force. */
-export async function isClerkOfCourse(eventId: number, userId: number, db: Tx | Db = useDb()) {
-  const [clerk] = await db.select({ id: tables.appointments.id }).from(tables.appointments)
-    .where(and(eq(tables.appointments.eventId, eventId), eq(tables.appointments.userId, userId),
-      eq(tables.appointments.function, 'clerk-of-course'), isNull(tables.appointments.endedAt)))
-  return !!clerk
-}
+/** Whether the person is the clerk of the course appointed at the event, who alone overrides the start line. */
+export const isClerkOfCourse = (eventId: number, userId: number, db: Tx | Db = useDb()) =>
+  holdsAppointment(eventId, userId, 'clerk-of-course', db)
 
 /**
  * The clerk of the course lets an entry start over the start line's findings named, for the rest of the

@@ -14,13 +14,20 @@ export async function appoint(eventId: number, fn: OfficialFunction, userId: num
   const [member] = await useDb().select({ id: tables.memberships.userId }).from(tables.memberships)
     .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.userId, userId)))
   if (!member) throw fieldInvalid('userId', 'holds no role at this event: invite the person first')
-  const [held] = await useDb().select({ id: tables.appointments.id }).from(tables.appointments)
-    .where(and(eq(tables.appointments.eventId, eventId), eq(tables.appointments.userId, userId),
-      eq(tables.appointments.function, fn), isNull(tables.appointments.endedAt)))
-  if (held) throw conflict(`This person is already ${OFFICIAL_FUNCTION_LABELS[fn].toLowerCase()}`)
+  if (await holdsAppointment(eventId, userId, fn)) {
+    throw conflict(`This person is already ${OFFICIAL_FUNCTION_LABELS[fn].toLowerCase()}`)
+  }
   const [row] = await useDb().insert(tables.appointments).values({ eventId, function: fn, userId, appointedBy: by })
     .returning()
   return row!
+}
+
+/** Whether the person holds an appointment to the function at the event, in force: the one check of it. */
+export async function holdsAppointment(eventId: number, userId: number, fn: OfficialFunction, db: Tx | Db = useDb()) {
+  const [held] = await db.select({ id: tables.appointments.id }).from(tables.appointments)
+    .where(and(eq(tables.appointments.eventId, eventId), eq(tables.appointments.userId, userId),
+      eq(tables.appointments.function, fn), isNull(tables.appointments.endedAt)))
+  return !!held
 }
 
 export async function endAppointment(id: number, reason: string) {

@@ -127,14 +127,11 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
   const [found] = await useDb().select().from(tables.protests).where(eq(tables.protests.id, protestId))
   if (!found) throw notFound('No such protest')
   // Who may decide comes before the password: a person not allowed is told so, not asked to sign.
-  if (found.appealOf) {
-    if (!roles.includes('official')) throw forbidden('An official records the appeal body\'s decision')
+  if (found.appealOf && !roles.includes('official')) {
+    throw forbidden('An official records the appeal body\'s decision')
   }
-  else {
-    const [steward] = await useDb().select({ id: tables.appointments.id }).from(tables.appointments)
-      .where(and(eq(tables.appointments.eventId, found.eventId), eq(tables.appointments.userId, user.id),
-        eq(tables.appointments.function, 'steward'), isNull(tables.appointments.endedAt)))
-    if (!steward) throw forbidden('Only a steward appointed at this event decides a protest')
+  if (!found.appealOf && !(await holdsAppointment(found.eventId, user.id, 'steward'))) {
+    throw forbidden('Only a steward appointed at this event decides a protest')
   }
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {

@@ -35,6 +35,8 @@ export interface PlanInput {
     /** Entry and exit traps of the measured distance, m from the out run's start line. */
     entryM: number
     exitM: number
+    /** Other measured distances timed on the same passes (a kilometre inside the mile), m from the start line. */
+    others?: { label: string, entryM: number, exitM: number }[]
   }
   /** Deceleration after the exit trap (parachute, brakes), m/s², and the run-off the organiser keeps clear, m. */
   shutdown: { decelerationMs2: number, marginM: number }
@@ -62,31 +64,47 @@ export function densityOf(c: PlanInput['conditions']) {
   return { rho: airDensity(pressureHpa, temperatureC), temperatureC, pressureHpa, isaDensity: isa.density }
 }
 
-/** One direction: where the traps lie from its own start line, its wind, and what the run gives. */
+/**
+ * One direction: where the traps lie from its own start line, its wind, and what the run gives over the main
+ * measured distance and each other one timed on the same pass. Power stays on to the last exit trap.
+ */
 function direction(x: PlanInput, rho: number, dir: 'out' | 'back') {
   const c = x.course
-  const [entry, exit] = dir === 'out' ? [c.entryM, c.exitM] : [c.lengthM - c.exitM, c.lengthM - c.entryM]
+  const mirror = (s: { label: string, entryM: number, exitM: number }) => (dir === 'out'
+    ? s
+    : { label: s.label, entryM: c.lengthM - s.exitM, exitM: c.lengthM - s.entryM })
+  const spans = [{ label: c.label, entryM: c.entryM, exitM: c.exitM }, ...(c.others ?? [])].map(mirror)
+  const main = spans[0]!
+  const powerOffAtM = Math.max(...spans.map(s => s.exitM))
   const heading = dir === 'out' ? c.headingDeg : (c.headingDeg + 180) % 360
   const headWindMs = windComponents(x.conditions.windMs, x.conditions.windFromDeg, heading).headMs
   const run = integrateRun({
-    machine: x.machine, rho, headWindMs, powerOffAtM: exit, marks: [entry, exit],
+    machine: x.machine, rho, headWindMs, powerOffAtM, marks: spans.flatMap(s => [s.entryM, s.exitM]),
     sampleEveryM: Math.max(STEP_M, Math.round(c.lengthM / 200)),
   })
-  const [atEntry, atExit] = run.at as [(typeof run.at)[0], (typeof run.at)[0]]
-  const timeS = atExit.tS - atEntry.tS
-  const stopM = exit + (atExit.vMs * atExit.vMs) / (2 * x.shutdown.decelerationMs2)
+  const at = (m: number) => run.at.find(p => Math.abs(p.m - m) < 1e-9)!
+  const over = spans.map((s) => {
+    const [a, b] = [at(s.entryM), at(s.exitM)]
+    return { label: s.label, entryM: s.entryM, exitM: s.exitM, entryMs: a.vMs, exitMs: b.vMs, timeS: b.tS - a.tS,
+      speedMs: (s.exitM - s.entryM) / (b.tS - a.tS), exitTS: b.tS }
+  })
+  const m = over[0]!
+  const stopM = powerOffAtM + (run.offVMs * run.offVMs) / (2 * x.shutdown.decelerationMs2)
   const top = topSpeed(x.machine, rho, headWindMs)
-  // Shut-down: constant deceleration from the exit trap to rest, sampled for the chart.
+  // Shut-down: constant deceleration from the last exit trap to rest, sampled for the chart.
   const shutdown = [] as { m: number, vMs: number }[]
   for (let f = 0.1; f <= 1.0001; f += 0.1) {
-    const v = atExit.vMs * Math.sqrt(Math.max(1 - f, 0))
-    shutdown.push({ m: exit + f * (stopM - exit), vMs: v })
+    shutdown.push({ m: powerOffAtM + f * (stopM - powerOffAtM), vMs: run.offVMs * Math.sqrt(Math.max(1 - f, 0)) })
   }
   return {
-    direction: dir, headWindMs, entryM: entry, exitM: exit, topMs: top,
-    entryMs: atEntry.vMs, exitMs: atExit.vMs, timeS, speedMs: (exit - entry) / timeS,
-    runTimeS: atExit.tS, shutdownS: atExit.vMs / x.shutdown.decelerationMs2,
+    direction: dir, headWindMs, entryM: main.entryM, exitM: main.exitM, topMs: top,
+    entryMs: m.entryMs, exitMs: m.exitMs, timeS: m.timeS, speedMs: m.speedMs,
+    /** From the start line to the main distance's exit trap (the run's finish), and to power off. */
+    runTimeS: m.exitTS, offTimeS: run.offTS, offMs: run.offVMs,
+    shutdownS: run.offVMs / x.shutdown.decelerationMs2,
     stopM, overrunM: stopM + x.shutdown.marginM - c.lengthM,
+    distances: over.map(o => ({ label: o.label, entryKmh: kmhOf(o.entryMs), exitKmh: kmhOf(o.exitMs), timeS: o.timeS,
+      speedKmh: kmhOf(o.speedMs) })),
     samples: [...run.samples, ...shutdown],
   }
 }
@@ -138,7 +156,7 @@ function solveMultiplier(result: (k: number) => number, targetMs: number, guess:
 /** The return-run budget: the latest start of the return run the profile's window allows, and the slack. */
 function budget(x: PlanInput, out: DirectionPlan, back: DirectionPlan) {
   const w = x.profile.window.value
-  const earliestS = out.runTimeS + out.shutdownS + x.turnaroundMin * 60
+  const earliestS = out.offTimeS + out.shutdownS + x.turnaroundMin * 60
   if (w.kind !== 'elapsed') {
     return { kind: 'next-day' as const, earliestS, latestS: null, slackS: null,
       note: `the record run is on the next day${w.before ? `, leaving before ${w.before}` : ''}: the turnaround is `
