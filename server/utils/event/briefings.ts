@@ -72,6 +72,9 @@ export async function signOnBriefing(
   const proof = inPerson ? { method: 'in-person' as const } : await signerProof(user.id, input)
   const name = rider?.name ?? user.name
   return useDb().transaction(async (tx) => {
+    // Sign-ons to one briefing one at a time: the check below then sees every one before it.
+    await tx.select({ id: tables.briefings.id }).from(tables.briefings).where(eq(tables.briefings.id, briefingId))
+      .for('update')
     const [taken] = await tx.select({ id: tables.briefingSignOns.id }).from(tables.briefingSignOns)
       .where(and(eq(tables.briefingSignOns.briefingId, briefingId), rider
         ? eq(tables.briefingSignOns.riderId, rider.id)
