@@ -1,10 +1,11 @@
+import { q, toNumber } from '../exact'
+import { mphToKmh } from '../units'
 import type { Sourced } from '../profile'
 import type { LicenceGrade, LicenceRule } from '../start-line'
 import type { ProtestRule } from '../protests'
 
-const MPH_TO_KMH = 1.609344 // exact by definition of the international mile (1959)
-const bracket = (mph: number): LicenceGrade =>
-  ({ label: `${mph} mph`, maxKmh: Math.round(mph * MPH_TO_KMH * 1e4) / 1e4 })
+/** A bracket's ceiling in km/h, by the project's exact unit conversion (1 mph = 1.609344 km/h). */
+const bracket = (mph: number): LicenceGrade => ({ label: `${mph} mph`, maxKmh: toNumber(mphToKmh(q(mph))) })
 
 /** Club practice: licences graded by speed brackets, each earned by a run in it; values to confirm per club. */
 export const clubLicence: Sourced<LicenceRule> = {
