@@ -4,7 +4,7 @@ import withNuxt from './.nuxt/eslint.config.mjs'
 
 export default withNuxt(
   {
-    ignores: ['drizzle/**', '.output-test/**', '.data/**'],
+    ignores: ['drizzle/**', '.output-test/**', '.nuxt-test/**', '.data/**', 'reports/**', '.stryker-tmp/**'],
   },
   {
     // Tests read JSON answers whose shapes the assertions check.

@@ -1,6 +1,8 @@
 // Run-time values come from NUXT_* variables set by scripts/start.sh and the tests. The only
-// build-time variable is the output folder, so the tests build beside a running npm start.
+// build-time variables are the output and build folders, so the tests build beside a running npm start
+// and beside their own type check (which reads .nuxt/).
 export default defineNuxtConfig({
+  ...(process.env.TRAPLINE_BUILD_DIR ? { buildDir: process.env.TRAPLINE_BUILD_DIR } : {}),
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
   devtools: { enabled: false },
   app: {
@@ -67,6 +69,13 @@ export default defineNuxtConfig({
     payments: { secretKey: 'sk_test_trapline', webhookSecret: 'whsec_trapline_demo', host: '', port: 0, protocol: 'https' },
     /** Evidence files up to this total are attached inside a dossier PDF; larger ones are referenced by hash. */
     dossierAttachBytes: 20 * 1024 * 1024,
+    /**
+     * Password hashing (scrypt, RFC 7914): the work factor N of new hashes. 2^14 in every build; only the
+     * test server lowers it (NUXT_HASH_SCRYPT_COST with NUXT_TEST_SERVER), and a server that is not the test
+     * server refuses to start with less (server/plugins/hash-cost.ts). A hash keeps its own N for checking.
+     */
+    hash: { scrypt: { cost: 16384 } },
+    testServer: false,
     session: {
       maxAge: 60 * 60 * 12,
       cookie: { sameSite: 'lax', httpOnly: true },

@@ -40,33 +40,64 @@ migrate "$TEST_DATABASE_URL" "$RUN_DIR/migrate.log"
 ensure_app_role "$HELD_PORT" trapline_test
 export TEST_APP_DATABASE_URL="$APP_DATABASE_URL"
 
-# The build, the lint and the type check write into .nuxt/ and .output-test/: one run at a time does them,
-# and a run that waited finds the build up to date. The tests run against this production build in its
-# own folder, so a running npm start is untouched.
+# Modes: TRAPLINE_TEST_MODE=full (npm test, what CI runs): lint, type check, build, the unit tests in three
+# time zones, then every end-to-end file. quick (npm run test:quick): the unit tests, then the core API files,
+# no lint or type check. file (npm run test:file -- PATH…): only the files given, no lint or type check.
+# The app is built when its sources are newer than the build, in every mode.
+MODE="${TRAPLINE_TEST_MODE:-full}"
+LOGS="$RUN_DIR"
+
+# The build writes .nuxt-test/ and .output-test/; the lint and the type check read and write .nuxt/. One run at a
+# time does them, and a run that waited finds the build up to date. The build goes on one core while the type
+# check, the lint and the unit tests take the other. The tests run against this production build in its own
+# folder, so a running npm start is untouched.
 export TRAPLINE_OUTPUT_DIR="$ROOT/.output-test"
 mkdir -p "$DATA/locks"
 exec {BUILD_LOCK}>"$DATA/locks/build"
 flock "$BUILD_LOCK"
+build_pid=""
 if [ ! -f "$TRAPLINE_OUTPUT_DIR/server/index.mjs" ] || [ -n "$(find app server shared modules public nuxt.config.ts tailwind.config.ts package-lock.json -newer "$TRAPLINE_OUTPUT_DIR/server/index.mjs" -print -quit 2>/dev/null)" ]; then
   say "building the app for the tests…"
-  build_start=$SECONDS
-  node_modules/.bin/nuxt build >"$RUN_DIR/build.log" 2>&1 || { tail -n 40 "$RUN_DIR/build.log" >&2; die "the build failed."; }
-  say "built in $((SECONDS - build_start)) s"
+  (
+    build_start=$SECONDS
+    TRAPLINE_BUILD_DIR=.nuxt-test node_modules/.bin/nuxt build >"$LOGS/build.log" 2>&1 || exit 1
+    say "built in $((SECONDS - build_start)) s"
+  ) &
+  build_pid=$!
 fi
 
-say "linting…"
-lint_start=$SECONDS
-node_modules/.bin/eslint . || die "lint errors; see above (npm run lint:fix mends the mechanical ones)."
-say "linted in $((SECONDS - lint_start)) s"
-
-say "type-checking…"
-check_start=$SECONDS
-node_modules/.bin/nuxt typecheck >"$RUN_DIR/typecheck.log" 2>&1 || { cat "$RUN_DIR/typecheck.log" >&2; die "type errors; see above."; }
-say "type-checked in $((SECONDS - check_start)) s"
-flock -u "$BUILD_LOCK"
-
-say "running the tests…"
 status=0
+checks() {
+  say "type-checking…"
+  local t=$SECONDS
+  node_modules/.bin/nuxt typecheck >"$LOGS/typecheck.log" 2>&1 || { cat "$LOGS/typecheck.log" >&2; say "type errors; see above."; return 1; }
+  say "type-checked in $((SECONDS - t)) s"
+  say "linting…"
+  t=$SECONDS
+  node_modules/.bin/eslint --cache --cache-location "$DATA/eslintcache" . \
+    || { say "lint errors; see above (npm run lint:fix mends the mechanical ones)."; return 1; }
+  say "linted in $((SECONDS - t)) s"
+}
+if [ "$MODE" = full ]; then checks || status=1; fi
+if [ "$MODE" != file ] && [ "$#" -eq 0 ]; then
+  say "unit tests in three time zones…"
+  node node_modules/vitest/vitest.mjs run --project 'unit*' || status=1
+fi
+if [ -n "$build_pid" ]; then
+  wait "$build_pid" || { tail -n 40 "$LOGS/build.log" >&2; die "the build failed."; }
+fi
+flock -u "$BUILD_LOCK"
+[ "$status" -eq 0 ] || die "the checks above failed; the end-to-end tests were not run."
+
+# The core API files: the main job end to end (timing, result, inspection, dossier, authority), a few minutes.
+QUICK_FILES=(tests/api/event-day.test.ts tests/api/findings.test.ts tests/api/dossier.test.ts tests/api/inspection.test.ts
+  tests/api/start-line.test.ts tests/api/club-procedure.test.ts tests/api/distances.test.ts tests/api/calculator.test.ts
+  tests/api/auth.test.ts)
+if [ "$#" -gt 0 ]; then set -- "$@"
+elif [ "$MODE" = quick ]; then set -- --project e2e "${QUICK_FILES[@]}"
+else set -- --project e2e
+fi
+say "running the tests…"
 node node_modules/vitest/vitest.mjs run "$@" || status=$?
 if [ -s "$RUN_DIR/unexpected-server-errors" ]; then
   say "the server logged errors no test expected:"

@@ -7,6 +7,17 @@ login() { curl -s -o /dev/null -c - -H 'content-type: application/json' -d "{\"e
 TEAM=$(login team@trapline.test)
 ATTEMPT=$("$PSQL" "$DB" -tAc "select a.id from attempts a join entries e on e.id = a.entry_id join teams t on t.id = e.team_id where t.name = 'Larkspur Works' order by a.id limit 1")
 RUN=$("$PSQL" "$DB" -tAc "select id from runs where attempt_id = $ATTEMPT order by id limit 1")
+# The demo's timing sheet of that attempt is signed: the timekeeper reopens it (signed, with a reason) so that
+# corrections can be appended, and signs it again after them, as on the day.
+TK=$(login timekeeper@trapline.test)
+TK_NAME=$("$PSQL" "$DB" -tAc "select name from users where email = 'timekeeper@trapline.test'")
+sign_sheet() { # sign_sheet PATH EXTRA_JSON
+  local code
+  code=$(curl -s -o "$DIR/bench-sign.json" -w '%{http_code}' -H 'content-type: application/json' -b "nuxt-session=$TK" \
+    -d "{\"password\":\"trapline-demo\",\"typedName\":\"$TK_NAME\"$2}" "$APP/api/attempts/$ATTEMPT/$1")
+  [ "$code" = 201 ] || { echo "the timing sheet could not be signed ($1): $code $(cat "$DIR/bench-sign.json")"; exit 1; }
+}
+sign_sheet reopen ',"reason":"bench: corrections to append"'
 # 24 more readings (corrections appended to the first run's), for 40 in all.
 "$PSQL" "$DB" -qc "insert into readings (run_id, trap_id, system_id, ticks, supersedes_id, reason, entered_by)
   select run_id, trap_id, system_id, ticks + 1, id, 'bench correction', entered_by from readings x
@@ -14,6 +25,7 @@ RUN=$("$PSQL" "$DB" -tAc "select id from runs where attempt_id = $ATTEMPT order 
 "$PSQL" "$DB" -qc "insert into readings (run_id, trap_id, system_id, ticks, supersedes_id, reason, entered_by)
   select run_id, trap_id, system_id, ticks + 1, id, 'bench correction', entered_by from readings x
   where run_id in (select id from runs where attempt_id = $ATTEMPT) and supersedes_id is not null and not exists (select 1 from readings s where s.supersedes_id = x.id) limit 8"
+sign_sheet signatures ''
 echo "readings of the attempt: $("$PSQL" "$DB" -tAc "select count(*) from readings where run_id in (select id from runs where attempt_id = $ATTEMPT)")"
 # 19 files of 1 to 3 MB and the 1 GB video, attached to the run.
 for i in $(seq 1 19); do

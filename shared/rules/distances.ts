@@ -29,7 +29,7 @@ export function profileDistanceOf(
 /**
  * Whether a run counts for a distance: a standing-start distance is timed from rest at the start line, so
  * only a standing start yields it, never a flying pass; a flying distance is entered at speed, so only a
- * flying pass yields it (domain notes: "a flying pass never yields a standing figure"; the converse is
+ * flying pass yields it (common practice: "a flying pass never yields a standing figure"; the converse is
  * our reading, common practice: standing and flying records are separate attempts).
  */
 export const runCountsFor = (distanceStart: StartKind, runStart: StartKind) => distanceStart === runStart

@@ -177,7 +177,8 @@ describe('authorization table', () => {
     ids.unreadyAttempt = sheet.body.attempts.find((a: { entry: { teamName: string } }) => a.entry.teamName !== 'Larkspur Works').id
     // A ratified dossier, from the public record book (other test files may add newer versions).
     ids.dossiers = Number(/dossiers\/(\d+)\/pdf/.exec((await demoMileRecord()).dossierUrl)![1])
-    ids.runs = streamliner.runs[0].id
+    // Its run out (the demo's first run of the day).
+    ids.runs = streamliner.runs.find((r: { direction: string }) => r.direction === 'out').id
     // The streamliner has run: a correction of its entry is a request for the organiser.
     ids.entries = streamliner.entry.id
     const asked = await call('PATCH', `/api/entries/${ids.entries}`, {
@@ -191,15 +192,19 @@ describe('authorization table', () => {
     expect(asked.body.status, JSON.stringify(asked.body)).toBe('requested')
     ids['change-requests'] = asked.body.requestId
     const paid = await call('GET', `/api/events/${eventId}/payments`, { cookie: cookies.organiser })
-    ids.appointments = (await call('GET', `/api/events/${eventId}/officials`, { cookie: cookies.organiser })).body.appointments[0].id
+    ids.appointments = (await call('GET', `/api/events/${eventId}/officials`, { cookie: cookies.organiser })).body.appointments
+      .find((a: { function: string }) => a.function === 'clerk-of-course').id
     // The demo's riders' briefing, and the protest the second team lodged (decided: the stewards dismissed it).
-    ids.briefings = (await call('GET', `/api/events/${eventId}/briefings`, { cookie: cookies.organiser })).body.briefings[0].id
-    ids.protests = (await call('GET', `/api/events/${eventId}/protests`, { cookie: cookies.organiser })).body[0].id
-    ids.plans = (await call('GET', '/api/plans', { cookie: cookies.team })).body[0].id
+    ids.briefings = (await call('GET', `/api/events/${eventId}/briefings`, { cookie: cookies.organiser })).body.briefings
+      .find((b: { title: string }) => b.title === 'Riders\' briefing, run day').id
+    ids.protests = (await call('GET', `/api/events/${eventId}/protests`, { cookie: cookies.organiser })).body
+      .find((p: { grounds: string }) => p.grounds.startsWith('The back run\'s backup reading')).id
+    ids.plans = (await call('GET', '/api/plans', { cookie: cookies.team })).body
+      .find((p: { name: string }) => p.name === 'North course, flying mile, run-day air').id
     ids.payments = paid.body.payments.find((p: { receiptNo: string }) => p.receiptNo === 'R-DEMO-1').id
     const overview = await call('GET', `/api/events/${eventId}`, { cookie: cookies.organiser })
     ids.machines = overview.body.teams.find((t: { name: string }) => t.name === 'Larkspur Works').machines[0].id
-    ids.readings = sheet.body.history[0].id
+    ids.readings = sheet.body.history.find((h: { runId: number }) => h.runId === ids.runs).id
     // An adapted checklist that leaves out a safety item, waiting for a scrutineer's signature.
     const copy = await call('POST', `/api/events/${eventId}/checklists`, {
       cookie: cookies.organiser,

@@ -230,7 +230,7 @@ describe('standing start against flying pass', { shuffle: false }, () => {
     // A quarter mile in 8 s is 112.5 mph exactly (0.25 mile / (8/3600) h), 181.051 km/h truncated (NIST SP 811).
     expect(quarter.result).toMatchObject({ mph: '112.500', kmh: published('402.336', '8', 'km/h') })
     expect(quarter.countedRunIds).toHaveLength(2)
-    // The kilometre traps were crossed, but a standing start is not a flying pass (domain notes, common practice).
+    // The kilometre traps were crossed, but a standing start is not a flying pass (common practice: separate record categories).
     expect(km.result).toBeNull()
     expect(km.countedRunIds).toEqual([])
   })

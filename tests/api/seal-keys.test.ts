@@ -85,6 +85,23 @@ describe('managed keys', { shuffle: false }, () => {
     expect(outcome).toContain('refusing to start: no seal key in')
   })
 
+  it('a server that is not the test server refuses a password hash cheaper than scrypt N = 2^14', async () => {
+    const outcome = await startApp(env.output, {
+      NUXT_DATABASE_URL: env.databaseUrl,
+      NUXT_DATA_DIR: resolve(env.runDir, 'cheap-hash-server'),
+      NUXT_MAIL_PORT: String(env.smtpPort),
+      NUXT_HASH_SCRYPT_COST: '1024',
+      NUXT_TEST_SERVER: 'false',
+    }).then(
+      async (server) => {
+        await expect.poll(() => server.child.exitCode, { timeout: 15_000 }).toBe(1)
+        return server.log()
+      },
+      (e: Error) => e.message,
+    )
+    expect(outcome).toContain('refusing to start: NUXT_HASH_SCRYPT_COST=1024 is below 16384')
+  })
+
   it('after a rotation the new key seals, and a dossier sealed before still verifies with the retired one', async () => {
     const before = (await call('GET', '/api/seal')).body
     // A copy of the test server's key set, rotated by the project's command, for a second server.

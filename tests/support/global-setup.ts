@@ -36,6 +36,9 @@ export default async function setup(project: TestProject) {
       NUXT_MAIL_PORT: String(catcher.smtpPort),
       NUXT_PUBLIC_INBOX_URL: catcher.inboxUrl,
       NUXT_SEED_DEMO: 'true',
+      // New password hashes at scrypt N = 2^10 instead of 2^14: only this test server may (server/plugins/hash-cost.ts).
+      NUXT_TEST_SERVER: 'true',
+      NUXT_HASH_SCRYPT_COST: '1024',
       NUXT_DATA_DIR: dataDir,
       NUXT_MAIL_RETRY_SECONDS: '1',
       // A small limit for one kind, so that the size check can be tested without gigabytes.

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { checkGradient, crossCheck, massClass, windComponents } from '#shared/rules/checks'
+import { checkGradient, checkWind, crossCheck, massClass, windComponents } from '#shared/rules/checks'
 import { fromDecimal, toFixed } from '#shared/rules/exact'
 import { checkMeasuredDistance } from '#shared/rules/course'
-import { profiles } from '#shared/rules/profiles'
+import { copyProfile, profiles } from '#shared/rules/profiles'
 import { parseTimeOfDay, segmentTime } from '#shared/rules/timing'
 
 describe('wind components', () => {
@@ -21,6 +21,35 @@ describe('wind components', () => {
     const out = windComponents(3, 10, 0)
     const back = windComponents(3, 10, 180)
     expect(back.headMs).toBeCloseTo(-out.headMs, 12)
+  })
+})
+
+describe('the tail-wind limit', () => {
+  // A profile adapted with a 2.0 m/s limit, as athletics sets for sprint and jump records (World Athletics rules: a
+  // following wind of at most 2.0 m/s counts; recalled from memory). At the limit counts; a hundredth over does not.
+  const limited = copyProfile(profiles['intl-automobile'], {
+    tailWindLimitMs: { value: 2, source: 'test rulebook, art. 1', certainty: 'seen' },
+  })
+  it.each([
+    [{ headMs: -2, crossMs: 0 }, []], // exactly at the limit
+    [{ headMs: -1.99, crossMs: 0 }, []], // a hundredth inside
+    [{ headMs: -2.01, crossMs: 0 }, ['wind.tail-over-limit']], // a hundredth over
+    [{ headMs: 5, crossMs: 0 }, []], // a head wind never counts against
+    [{ headMs: 0, crossMs: 9 }, []], // a pure cross wind
+  ] as const)('%o → %o', (wind, codes) => {
+    expect(checkWind(limited, wind).map(f => f.code)).toEqual(codes)
+  })
+  it('names the limit and its source in the finding, and fails the run', () => {
+    const [f] = checkWind(limited, { headMs: -2.5, crossMs: 0 })
+    expect(f).toMatchObject({ severity: 'fail', rule: { name: 'Tail-wind limit', value: '2 m/s', source: 'test rulebook, art. 1', certainty: 'seen' } })
+    expect(f!.message).toBe('Tail-wind component 2.50 m/s is over the profile\'s limit of 2 m/s.')
+  })
+  it('has no limit in the library\'s profiles (no published one found): any tail wind passes', () => {
+    for (const p of Object.values(profiles)) expect(checkWind(p, { headMs: -30, crossMs: 0 })).toEqual([])
+  })
+  it('resolves a wind of the day into the tail component first (from 180° on a heading of 0° is 3 m/s behind)', () => {
+    expect(checkWind(limited, windComponents(3, 180, 0)).map(f => f.code)).toEqual(['wind.tail-over-limit'])
+    expect(checkWind(limited, windComponents(3, 0, 0))).toEqual([])
   })
 })
 

@@ -38,7 +38,8 @@ describe('the distances an entry claims', () => {
   })
 
   it('start from rest at the start line for a standing start', () => {
-    // Domain notes: standing-start distances are timed from rest at the start line (the entry trap).
+    // Standing-start distances are timed from rest at the start line, which is the entry trap (the international
+    // record rules define standing-start records so; common practice for the trap at the line).
     expect(claimProblems(moto, [claim(1, 'Standing km', 'standing', '1000', '0.000')])).toEqual([])
     expect(claimProblems(moto, [claim(1, 'Standing km', 'standing', '1000', '2000')])[0]!.message)
       .toContain('must be the start line (0 m)')
@@ -46,7 +47,8 @@ describe('the distances an entry claims', () => {
 })
 
 describe('which runs count for a distance', () => {
-  // Domain notes: "a flying pass never yields a standing figure"; the converse, common practice.
+  // A flying pass never yields a standing figure, nor a standing start a flying one (common practice: the two are
+  // separate record categories in the international record lists).
   it('a standing figure only from a standing start, a flying one only from a flying pass', () => {
     expect(runCountsFor('standing', 'standing')).toBe(true)
     expect(runCountsFor('standing', 'flying')).toBe(false)

@@ -161,3 +161,80 @@ describe('the plan', () => {
     expect(by['Power +10 %']!.topKmh / by['As planned']!.topKmh).toBeLessThan(1.034)
   })
 })
+
+// A plan worked wholly by hand: no drag, no rolling resistance and power to spare, so only the 500 N traction limit
+// acts on 250 kg (230 kg + 20 kg rotating equivalent): a uniform 2 m/s² from the line (s = a·t²/2, v² = 2·a·s). The
+// measured kilometre lies 3500–4500 m from either start line of an 8000 m course, so both runs are alike.
+//   entry: t = √(2·3500/2) = √3500 = 59.160798 s; exit: t = √4500 = 67.082039 s, v = √(2·2·4500) = √18000 = 134.164079 m/s
+//   time over the kilometre: 67.082039 − 59.160798 = 7.921241 s → 1000 / 7.921241 = 126.242837 m/s = 454.474214 km/h
+//   (× 3.6) = 282.397184 mph (÷ 0.44704, the international mile of 1959)
+//   shut-down at 3 m/s² from 134.164079 m/s: 134.164079 / 3 = 44.721360 s over 18000 / (2·3) = 3000 m → stops at 7500 m
+//   window (2 h from the start of the first run to the finish of the second): the return run leaves by
+//   7200 − 67.082039 = 7132.917961 s, and can leave after 67.082039 + 44.721360 + 45·60 = 2811.803399 s: slack 4321.114562 s
+describe('a plan worked by hand (uniform acceleration)', () => {
+  const uniform: PlanInput = {
+    machine: { massKg: 230, rotatingMassKg: 20, cdA: 0, crr: 0, efficiency: 1, power: { kind: 'constant', kW: 100_000 },
+      maxTractiveN: 500 },
+    conditions: { altitudeM: 0, temperatureC: 15, pressureHpa: 1013.25, windMs: 0, windFromDeg: 0 },
+    course: { label: 'Flying kilometre', lengthM: 8000, headingDeg: 0, entryM: 3500, exitM: 4500 },
+    shutdown: { decelerationMs2: 3, marginM: 300 },
+    // A 1 % margin, reached exactly counting (the international automobile profile's kind of rule).
+    profile: { ...profiles['intl-motorcycle'], margin: { value: { percent: 1, inclusive: true }, source: 'test', certainty: 'seen' } },
+    recordKmh: 450,
+    turnaroundMin: 45,
+  }
+  const p = plan(uniform)
+
+  it('times each run and averages them', () => {
+    for (const run of p.runs) {
+      expect(run.timeS).toBeCloseTo(7.921241, 5)
+      expect(run.entryKmh).toBeCloseTo(Math.sqrt(14_000) * 3.6, 4) // √(2·2·3500) = 118.321596 m/s
+      expect(run.exitKmh).toBeCloseTo(134.164079 * 3.6, 4)
+      expect(run.runTimeS).toBeCloseTo(67.082039, 5)
+    }
+    expect(p.result.kmh).toBeCloseTo(454.474214, 4)
+    expect(p.result.mph).toBeCloseTo(282.397184, 4)
+  })
+
+  it('shuts down in 44.72 s over 3000 m, stopping 500 m before the end (200 m inside the run-off kept clear)', () => {
+    const out = p.runs[0]!
+    expect(out.shutdownS).toBeCloseTo(44.721360, 5)
+    expect(out.stopM).toBeCloseTo(7500, 6)
+    expect(out.overrunM).toBeCloseTo(-200, 6)
+    expect(p.findings.map(f => f.code)).not.toContain('shutdown.overrun')
+    // 600 m of run-off kept clear: 7500 + 600 − 8000 = 100 m over the end.
+    const tight = plan({ ...uniform, shutdown: { decelerationMs2: 3, marginM: 600 } })
+    expect(tight.runs[0]!.overrunM).toBeCloseTo(100, 6)
+    expect(tight.findings.map(f => f.code)).toContain('shutdown.overrun')
+    // Exactly at the end (500 m kept clear): not an overrun.
+    const edge = plan({ ...uniform, shutdown: { decelerationMs2: 3, marginM: 500 } })
+    expect(edge.findings.map(f => f.code)).not.toContain('shutdown.overrun')
+  })
+
+  it('needs 454.500 km/h over a 450 km/h record with a 1 % margin: 0.026 km/h short', () => {
+    expect(p.record!.requiredKmh).toBeCloseTo(454.5, 9)
+    expect(p.record!.improvementKmh).toBeCloseTo(4.5, 9)
+    expect(p.record!.marginKmh).toBeCloseTo(454.474214 - 454.5, 4)
+    expect(p.findings.map(f => f.code)).toContain('record.short')
+    // Over a 449.9 km/h record: 449.9 × 1.01 = 454.399 km/h needed, and the plan beats it by 0.075 km/h.
+    const beats = plan({ ...uniform, recordKmh: 449.9 })
+    expect(beats.record!.requiredKmh).toBeCloseTo(454.399, 9)
+    expect(beats.findings.map(f => f.code)).not.toContain('record.short')
+    // No standing record: a first record, nothing to beat.
+    const first = plan({ ...uniform, recordKmh: null })
+    expect(first.record).toBeNull()
+    expect(first.findings.map(f => f.code)).toContain('record.none')
+  })
+
+  it('budgets the return run: leaves after 2811.8 s and by 7132.9 s, 4321.1 s of slack', () => {
+    expect(p.window.earliestS).toBeCloseTo(2811.803399, 5)
+    expect(p.window.latestS).toBeCloseTo(7132.917961, 5)
+    expect(p.window.slackS).toBeCloseTo(4321.114562, 5)
+    expect(p.findings.map(f => f.code)).not.toContain('window.short')
+    // A turnaround of 117 min: 67.082 + 44.721 + 7020 = 7131.803 s, 1.115 s of slack; 118 min: 58.885 s short.
+    expect(plan({ ...uniform, turnaroundMin: 117 }).window.slackS).toBeCloseTo(1.114562, 5)
+    expect(plan({ ...uniform, turnaroundMin: 117 }).findings.map(f => f.code)).not.toContain('window.short')
+    expect(plan({ ...uniform, turnaroundMin: 118 }).window.slackS).toBeCloseTo(-58.885438, 5)
+    expect(plan({ ...uniform, turnaroundMin: 118 }).findings.map(f => f.code)).toContain('window.short')
+  })
+})

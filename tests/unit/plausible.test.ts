@@ -3,13 +3,28 @@ import { convertTyped, implausibleTime } from '#shared/rules/plausible'
 
 describe('a time that cannot be a record run gets a plain warning', () => {
   // The outright land speed record, 1227.985 km/h over the flying mile (FIA, 15 October 1997, published):
-  // 1609.344 m ÷ (1227.985 ÷ 3.6) m/s = 4.71796… s. A mile in 4.7170 s is faster; in 4.7190 s it is not.
+  // 1609.344 m ÷ (1227.985 ÷ 3.6) m/s = 5793.6384 ÷ 1227.985 = 4.7180042… s. A mile in 4.7180 s is faster
+  // (1227.9860… km/h); in 4.7181 s it is not (1227.9600… km/h): the edge, a ten-thousandth of a second either side.
   it('warns above the outright record and not below it', () => {
     expect(implausibleTime('1609.344', '4.7170')).toContain('Faster than any machine has gone on land')
+    expect(implausibleTime('1609.344', '4.7180')).toContain('Faster than any machine has gone on land')
+    expect(implausibleTime('1609.344', '4.7181')).toBeNull()
     expect(implausibleTime('1609.344', '4.7190')).toBeNull()
     expect(implausibleTime('1609.344', '0.0001')).toContain('check the time')
+    // The record itself over a kilometre: 1000 ÷ (1227.985 ÷ 3.6) = 2.93163… s; exactly 1227.985 km/h is not faster.
+    expect(implausibleTime('1227.985', '3.6')).toBeNull()
+    expect(implausibleTime('1227.986', '3.6')).toContain('Faster than any machine')
+  })
+  it('says nothing of a zero or negative time or distance, or of text that is not a number (the form says that)', () => {
+    expect(implausibleTime('1000', '0')).toBeNull()
+    expect(implausibleTime('0', '14.5')).toBeNull()
+    expect(implausibleTime('1000', '-14.5')).toBeNull()
+    expect(implausibleTime('1000', 'fast')).toBeNull()
   })
   it('warns of more than an hour, and of a time written in exponent form', () => {
+    // An hour is 3600 s: exactly an hour is not more than an hour.
+    expect(implausibleTime('1000', '3600')).toBeNull()
+    expect(implausibleTime('1000', '3600.0001')).toContain('More than an hour')
     expect(implausibleTime('1000', '3600.1')).toContain('More than an hour')
     expect(implausibleTime('1000', '1e21')).toContain('not in exponent form')
     expect(implausibleTime('1000', '14.5')).toBeNull()

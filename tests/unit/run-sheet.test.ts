@@ -75,3 +75,97 @@ describe('a run over midnight', () => {
     expect(r.findings.map(f => f.code)).toEqual(['reading.out-of-order'])
   })
 })
+
+// A run worked by hand: traps at 0, 500 and 1500 m (listed out of order), the flying kilometre from the 500 m trap to
+// the 1500 m trap; the primary counts 1/10 000 s and states 0.0005 s, the backup 1/1000 s and 0.001 s. Speeds: 500 m
+// in 5 s = 100 m/s = 360.000 km/h = 223.693 mph (100 ÷ 0.44704 = 223.6936…, truncated); 1000 m in 9 s = 111.1… m/s
+// = 400.000 km/h = 248.548 mph (1000 ÷ 9 ÷ 0.44704 = 248.5484…). Times of day in ticks: 10:00:00 = 36 000 s.
+describe('a run of three traps and two systems, worked by hand', () => {
+  const T = [
+    { id: 3, label: 'T1500', positionM: '1500', elevationM: '0' },
+    { id: 1, label: 'T0', positionM: '0', elevationM: '0' },
+    { id: 2, label: 'T500', positionM: '500', elevationM: '0' },
+  ]
+  const km = [{ id: 9, label: 'Flying kilometre', nominalM: '1000', entryTrapId: 2, exitTrapId: 3 }]
+  const S = [
+    { id: 1, name: 'Beam A', role: 'primary' as const, ticksPerSecond: 10_000, toleranceS: '0.0005' },
+    { id: 2, name: 'Beam B', role: 'backup' as const, ticksPerSecond: 1000, toleranceS: '0.001' },
+  ]
+  const p = (trapId: number, s: number) => ({ id: trapId, trapId, systemId: 1, ticks: String(Math.round((36_000 + s) * 10_000)) })
+  const b = (trapId: number, s: number) => ({ id: 10 + trapId, trapId, systemId: 2, ticks: String(Math.round((36_000 + s) * 1000)) })
+  const compute = (direction: 'out' | 'back', readings: ReturnType<typeof p>[], weather: { windSpeedMs: string, windFromDeg: string } | null = null) =>
+    computeRun({ profile: profiles['intl-motorcycle'], direction, headingDeg: 350, traps: T, distances: km, systems: S, readings, weather })
+
+  it('times each segment in the order of the run, and the kilometre, by each system', () => {
+    const r = compute('out', [p(1, 0), p(2, 5), p(3, 14), b(2, 5), b(3, 14.001)])
+    const [primary, backup] = r.systems
+    expect(primary!.segments).toEqual([
+      { fromTrapId: 1, toTrapId: 2, lengthM: '500.000', midpointM: 250, timeS: '5.0000', kmh: '360.000', mph: '223.693', exactS: expect.anything() },
+      { fromTrapId: 2, toTrapId: 3, lengthM: '1000.000', midpointM: 1000, timeS: '9.0000', kmh: '400.000', mph: '248.548', exactS: expect.anything() },
+    ])
+    expect(primary!.distances).toMatchObject([{ distanceId: 9, label: 'Flying kilometre', timeS: '9.0000', kmh: '400.000', mph: '248.548' }])
+    // The backup missed the first trap: one segment. 1000 m in 9.001 s = 399.955 km/h (3600 ÷ 9.001 = 399.9555…).
+    expect(backup!.segments.map(x => [x.fromTrapId, x.toTrapId, x.timeS, x.kmh])).toEqual([[2, 3, '9.001', '399.955']])
+    expect(backup!.role).toBe('backup')
+    // Within 0.0005 + 0.001 = 0.0015 s: they agree; the primary's time counts.
+    expect(r.crossChecks).toEqual([{ distanceId: 9, label: 'Flying kilometre', differenceS: '0.001000', toleranceS: '0.001500', ok: true }])
+    expect(r.official[9]).toEqual({ exactS: primary!.distances[0]!.exactS, systemId: 1 })
+    expect(r.findings).toEqual([])
+    expect(r.wind).toBeNull()
+  })
+
+  it('runs back from the far end: the kilometre timed from its exit trap to its entry trap', () => {
+    const r = compute('back', [p(3, 0), p(2, 9), p(1, 14)])
+    expect(r.systems[0]!.segments.map(x => [x.fromTrapId, x.toTrapId, x.timeS, x.midpointM])).toEqual([[3, 2, '9.0000', 1000], [2, 1, '5.0000', 250]])
+    expect(r.systems[0]!.distances[0]).toMatchObject({ timeS: '9.0000', kmh: '400.000' })
+    expect(r.findings).toEqual([])
+  })
+
+  it('differs beyond the tolerances added together: a failing finding naming both times', () => {
+    const r = compute('out', [p(2, 5), p(3, 14), b(2, 5), b(3, 14.002)])
+    expect(r.crossChecks[0]).toMatchObject({ differenceS: '0.002000', toleranceS: '0.001500', ok: false })
+    expect(r.findings).toEqual([{ code: 'timing.cross-check', severity: 'fail', distanceId: 9,
+      message: 'Flying kilometre: primary 9.0000 s and backup 9.002 s differ by 0.002000 s, more than the tolerance of '
+        + '0.001500 s. The timekeeper must resolve it in writing.' }])
+    // Still the primary's time that counts.
+    expect(r.official[9]!.systemId).toBe(1)
+  })
+
+  it('warns when only the backup timed the distance, and takes the backup\'s time', () => {
+    const r = compute('out', [p(2, 5), b(2, 5), b(3, 14.001)])
+    expect(r.crossChecks).toEqual([])
+    expect(r.findings).toEqual([{ code: 'timing.backup-only', severity: 'warn', distanceId: 9,
+      message: 'Flying kilometre: only the backup system timed this distance.' }])
+    expect(r.official[9]!.systemId).toBe(2)
+    // Only the primary: no finding, its time counts; neither: no official time.
+    expect(compute('out', [p(2, 5), p(3, 14)]).findings).toEqual([])
+    expect(compute('out', [p(2, 5), p(3, 14)]).official[9]!.systemId).toBe(1)
+    expect(compute('out', [p(2, 5), b(2, 5)]).official).toEqual({})
+  })
+
+  it('refuses a time not after the trap before it, equal times included, and names both traps', () => {
+    const r = compute('out', [p(1, 5), p(2, 5), p(3, 14)])
+    expect(r.findings).toEqual([{ code: 'reading.out-of-order', severity: 'fail', trapId: 2, systemId: 1,
+      message: 'Beam A: the time at T500 (10:00:05.0000) is not after the time at T0 (10:00:05.0000), the trap before it on this run.' }])
+    expect(r.systems[0]!.segments.map(x => x.fromTrapId)).toEqual([2])
+  })
+
+  it('flags a segment faster than 1500 km/h as a mistyped time; 1500 km/h itself is not flagged', () => {
+    // 500 m in 1 s = 1800.000 km/h; 500 m in 1.2 s = 1500.000 km/h exactly.
+    const fast = compute('out', [p(1, 0), p(2, 1), p(3, 10)])
+    expect(fast.findings).toEqual([{ code: 'reading.implausible-speed', severity: 'fail', trapId: 2, systemId: 1,
+      message: 'Beam A: 1800.000 km/h from T0 to T500 is beyond 1500 km/h; check the times.' }])
+    expect(compute('out', [p(1, 0), p(2, 1.2), p(3, 10.2)]).findings).toEqual([])
+  })
+
+  it('resolves the wind along each direction: from 170° at 3 m/s is a tail wind out (heading 350°), a head wind back', () => {
+    const w = { windSpeedMs: '3', windFromDeg: '170' }
+    const out = compute('out', [p(2, 5), p(3, 14)], w)
+    expect(out.wind!.headingDeg).toBe(350)
+    expect(out.wind!.headMs).toBeCloseTo(-3, 9)
+    const back = compute('back', [p(3, 0), p(2, 9)], w)
+    expect(back.wind!.headingDeg).toBe(170)
+    expect(back.wind!.headMs).toBeCloseTo(3, 9)
+    expect(back.wind!.crossMs).toBeCloseTo(0, 9)
+  })
+})
