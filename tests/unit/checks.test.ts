@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { checkGradient, checkWind, crossCheck, massClass, windComponents } from '#shared/rules/checks'
-import { fromDecimal, toFixed } from '#shared/rules/exact'
+import { checkGradient, checkWind, crossCheck, gradientPercent, massClass, windComponents } from '#shared/rules/checks'
+import { fromDecimal, q, toFixed } from '#shared/rules/exact'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
 import { parseTimeOfDay, segmentTime } from '#shared/rules/timing'
@@ -120,5 +120,40 @@ describe('timing', () => {
     expect(massClass(classes, 150.1)?.label).toBe('up to 300 kg')
     expect(massClass(classes, 900)?.label).toBe('open')
     expect(massClass(null, 100)).toBeNull()
+  })
+})
+
+describe('checks at their edges, with their words', () => {
+  it('a gradient exactly at the limit passes; over it, the finding names the gradient and the rule', () => {
+    // FIM world records page (seen): at most 1 %. 1.0005 % is said to three decimals, rounded.
+    expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('1'))).toEqual([])
+    expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('-1'))).toEqual([])
+    expect(checkGradient(profiles['intl-motorcycle'], fromDecimal('-1.0005'))).toEqual([{ code: 'course.gradient-over-limit', severity: 'fail',
+      message: 'The measured distance has a gradient of 1.001 %, over the limit of 1 %.',
+      rule: { name: 'Course gradient', value: 'at most 1 %', source: profiles['intl-motorcycle'].gradientMaxPercent.source, certainty: 'seen' } }])
+    // No limit in the automobile profile: any gradient passes.
+    expect(checkGradient(profiles['intl-automobile'], fromDecimal('5'))).toEqual([])
+  })
+  it('a gradient needs a positive horizontal distance', () => {
+    expect(() => gradientPercent(q(0n), q(1n), q(0n))).toThrow('horizontal distance must be positive')
+    expect(() => gradientPercent(q(0n), q(1n), q(-5n))).toThrow(RangeError)
+    expect(toFixed(gradientPercent(q(100n), q(99n), q(1000n)), 3)).toBe('-0.100')
+  })
+  it('primary and backup agree at exactly the tolerance, and a finding names both figures beyond it', () => {
+    expect(crossCheck(fromDecimal('10.000'), fromDecimal('10.002'), fromDecimal('0.002'))).toMatchObject({ ok: true, findings: [] })
+    expect(crossCheck(fromDecimal('10.000'), fromDecimal('10.0021'), fromDecimal('0.002')).findings).toEqual([{ code: 'timing.cross-check', severity: 'fail',
+      message: 'Primary and backup timing differ by 0.002100 s, more than the tolerance of 0.002000 s. The timekeeper must resolve it in writing.' }])
+    expect(toFixed(crossCheck(fromDecimal('10.0021'), fromDecimal('10.000'), fromDecimal('0.002')).differenceS, 4)).toBe('0.0021')
+  })
+  it('puts a mass of 0 in no class, and a mass at a class\'s limit in that class', () => {
+    const classes = [{ label: 'Open', maxKg: null }, { label: 'Light', maxKg: 300 }]
+    expect(massClass(classes, 0)).toBeNull()
+    expect(massClass(classes, 300)?.label).toBe('Light')
+    expect(massClass(classes, 300.001)?.label).toBe('Open')
+    expect(massClass(null, 100)).toBeNull()
+  })
+  it('gives an exact zero for a wind straight across (no float residue)', () => {
+    expect(windComponents(5, 90, 0)).toEqual({ headMs: 0, crossMs: 5 })
+    expect(windComponents(5, 0, 90)).toEqual({ headMs: 0, crossMs: -5 })
   })
 })

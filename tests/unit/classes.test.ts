@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { classProblems, findClass, motorcycleClasses, sweptVolumeCm3 } from '#shared/rules/classes'
+import { classesOf, classProblems, findClass, motorcycleClasses, sweptVolumeCm3 } from '#shared/rules/classes'
 import { profiles } from '#shared/rules/profiles'
 
 describe('swept volume', () => {
@@ -45,5 +45,35 @@ describe('eligibility against the class', () => {
       const labels = p.classes!.value.map(c => c.label.toLowerCase())
       expect(new Set(labels).size, p.id).toBe(labels.length)
     }
+  })
+})
+
+describe('classes by mass and division, at their edges', () => {
+  // The automobile profile's electric classes by mass (FIA Appendix D categories, from memory): up to 500 kg,
+  // over 500 up to 1000 kg, over 1000 kg. A limit "up to" includes it, "over" excludes it.
+  const auto = classesOf(profiles['intl-automobile'])
+  const car = { power: 'electric' as const, division: null, capacityCm3: null }
+  it('holds a mass at the upper limit in its class and a gram over it out, saying both', () => {
+    const light = findClass(auto, 'Electric automobile, up to 500 kg')!
+    expect(classProblems(light, { ...car, massKg: '500' })).toEqual([])
+    expect(classProblems(light, { ...car, massKg: '500.001' })).toEqual(['mass: measured 500.001 kg, the class is up to 500 kg'])
+    const middle = findClass(auto, 'electric automobile,   over 500 kg up to 1000 kg')!
+    expect(classProblems(middle, { ...car, massKg: '500' })).toEqual(['mass: measured 500 kg, the class is over 500 kg, up to 1000 kg'])
+    const heavy = findClass(auto, 'Electric automobile, over 1000 kg')!
+    expect(classProblems(heavy, { ...car, massKg: '1000' })).toEqual(['mass: measured 1000 kg, the class is over 1000 kg'])
+    expect(classProblems(heavy, { ...car, massKg: null })).toEqual(['mass: not measured; the class is over 1000 kg'])
+    expect(classProblems(heavy, { ...car, massKg: '1000.001' })).toEqual([])
+  })
+  it('names a division that differs, and not one that is unknown on either side', () => {
+    const partial = findClass(motorcycleClasses(), 'Electric, partially streamlined')!
+    const m = { power: 'electric' as const, massKg: null, capacityCm3: null }
+    expect(classProblems(partial, { ...m, division: 'full' })).toEqual(['division: the class is partially streamlined, the machine fully streamlined'])
+    expect(classProblems(partial, { ...m, division: null })).toEqual([])
+    expect(classProblems({ ...partial, division: undefined }, { ...m, division: 'full' })).toEqual([])
+    expect(classProblems(partial, { ...m, power: 'combustion', division: 'partial' })).toEqual(['propulsion: the class is electric, the machine combustion'])
+  })
+  it('lists no classes for a profile copy frozen before classes were data', () => {
+    expect(classesOf({})).toEqual([])
+    expect(findClass(auto, 'No such class')).toBeNull()
   })
 })

@@ -237,4 +237,30 @@ describe('a plan worked by hand (uniform acceleration)', () => {
     expect(plan({ ...uniform, turnaroundMin: 118 }).window.slackS).toBeCloseTo(-58.885438, 5)
     expect(plan({ ...uniform, turnaroundMin: 118 }).findings.map(f => f.code)).toContain('window.short')
   })
+
+  it('says each finding in words, with the figures worked above', () => {
+    const message = (x: PlanInput, code: string) => plan(x).findings.find(f => f.code === code)?.message
+    expect(message(uniform, 'record.short'))
+      .toBe('the plan\'s result, 454.474 km/h, is 0.026 km/h short of the 454.500 km/h needed')
+    // 58.885 s short is 0.98 min, said to a tenth.
+    expect(message({ ...uniform, turnaroundMin: 118 }, 'window.short'))
+      .toBe('the return run cannot leave in time: 1.0 min short of the profile\'s window with this turnaround')
+    expect(message({ ...uniform, shutdown: { decelerationMs2: 3, marginM: 600 } }, 'shutdown.overrun'))
+      .toBe('out: stops 7500 m from its start line; with the 600 m run-off kept clear it overruns the course by 100 m')
+    // With no drag the machine could go on gaining: the top-speed search stops at its ceiling, 3200 m/s
+    // (11 520 km/h), so the run-up is short: 118.32 m/s (426.0 km/h) at the entry is 4 % of it.
+    expect(message(uniform, 'runup.short')).toBe('out: the run-up is short: 426.0 km/h at the entry trap, 4 % of the 11520.0 km/h it could reach')
+    expect(message({ ...uniform, recordKmh: null }, 'record.none')).toBe('no standing record for the class and distance: a first record')
+  })
+
+  it('draws the shut-down after the exit trap: ten points to the stop, the speed falling as √(1 − f)', () => {
+    const samples = p.runs[0]!.samples
+    const after = samples.filter(x => x.m > 4500)
+    expect(after).toHaveLength(10)
+    expect(after[0]!.m).toBeCloseTo(4800, 6) // 4500 + 0.1 × 3000
+    expect(after[0]!.vMs).toBeCloseTo(134.164079 * Math.sqrt(0.9), 5)
+    expect(after.at(-1)!.m).toBeCloseTo(7500, 6)
+    expect(after.at(-1)!.vMs).toBeCloseTo(0, 4) // f sums ten tenths in floating point: 1 − f is about 1e-16
+    expect(samples[0]).toEqual({ m: 0, vMs: 0 })
+  })
 })
