@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import { profiles } from '#shared/rules/profiles'
 import { airDensity, standardAtmosphere } from '#shared/rules/planner/atmosphere'
 import { closedFormTopSpeed, resistanceN, topSpeed, type Machine } from '#shared/rules/planner/road-load'
@@ -93,7 +93,11 @@ const input: PlanInput = {
 }
 
 describe('the plan', () => {
-  const p = plan(input)
+  // Computed in each test, never while the tests are collected: a mutant is switched on only inside a test.
+  let p: ReturnType<typeof plan>
+  beforeEach(() => {
+    p = plan(input)
+  })
   it('runs each way with its wind component, and averages by the profile (distance over the mean time)', () => {
     const [out, back] = p.runs
     // Wind from 0° at 2 m/s: a 2 m/s head wind on the out run (heading 0°), a tail wind back.
@@ -183,7 +187,10 @@ describe('a plan worked by hand (uniform acceleration)', () => {
     recordKmh: 450,
     turnaroundMin: 45,
   }
-  const p = plan(uniform)
+  let p: ReturnType<typeof plan>
+  beforeEach(() => {
+    p = plan(uniform)
+  })
 
   it('times each run and averages them', () => {
     for (const run of p.runs) {
