@@ -10,6 +10,24 @@ const shared = fileURLToPath(new URL('./shared', import.meta.url))
  */
 const UNIT_ZONES = { 'unit': 'UTC', 'unit-denver': 'America/Denver', 'unit-auckland': 'Pacific/Auckland' }
 
+/**
+ * End-to-end files that work only on test events and people of their own (or on nothing shared), never change
+ * what another file reads, never stop a shared service, and sign no demo person out: these run two at a time.
+ * Every other e2e file runs alone, after them. A file goes on this list only once it is so.
+ */
+const E2E_ISOLATED = [
+  'tests/api/calculator.test.ts', 'tests/api/classes.test.ts', 'tests/api/club-procedure.test.ts',
+  'tests/api/corrections.test.ts', 'tests/api/device-import.test.ts', 'tests/api/idempotency.test.ts',
+  'tests/api/live-stream.test.ts', 'tests/api/machines.test.ts', 'tests/api/notices.test.ts',
+  'tests/api/officials.test.ts', 'tests/api/passkeys.test.ts', 'tests/api/payments.test.ts',
+  'tests/api/post-run-check.test.ts', 'tests/api/protests.test.ts', 'tests/api/s3-store.test.ts',
+  'tests/api/start-line.test.ts', 'tests/api/two-servers.test.ts',
+  'tests/browser/accessibility-field.test.ts', 'tests/browser/accessibility-staff.test.ts',
+  'tests/browser/calculator.test.ts', 'tests/browser/payments.test.ts',
+  'tests/browser/protests.test.ts',
+]
+const E2E_TIMEOUTS = { testTimeout: 60_000, hookTimeout: 120_000 }
+
 // Projects: the unit tests in three time zones, and end-to-end tests (API and browser) against the built
 // server and a real PostgreSQL, started once by the global setup. Every test must assert something; a
 // poll waits long enough for a server round trip on a slow machine and asks often.
@@ -28,16 +46,29 @@ export default defineConfig({
           benchmark: { include: ['tests/bench/**/*.bench.ts'] },
         },
       })),
+      // The isolated files first, two at a time, then the others one at a time: one server for both projects.
+      {
+        extends: true,
+        test: {
+          name: 'e2e-isolated',
+          include: E2E_ISOLATED,
+          globalSetup: ['tests/support/global-setup.ts'],
+          ...E2E_TIMEOUTS,
+          fileParallelism: true,
+          maxWorkers: 2,
+          sequence: { groupOrder: 1 },
+        },
+      },
       {
         extends: true,
         test: {
           name: 'e2e',
           include: ['tests/api/**/*.test.ts', 'tests/browser/**/*.test.ts'],
+          exclude: E2E_ISOLATED,
           globalSetup: ['tests/support/global-setup.ts'],
-          testTimeout: 60_000,
-          hookTimeout: 120_000,
-          fileParallelism: process.env.TRAPLINE_E2E_WORKERS !== undefined && process.env.TRAPLINE_E2E_WORKERS !== '1',
-          maxWorkers: Number(process.env.TRAPLINE_E2E_WORKERS ?? 1),
+          ...E2E_TIMEOUTS,
+          fileParallelism: false,
+          sequence: { groupOrder: 2 },
         },
       },
     ],

@@ -51,7 +51,7 @@ for (const [path, file] of Object.entries(report.files)) {
     }
     t.survived++
     t.files.set(rel, (t.files.get(rel) ?? 0) + 1)
-    const cell = (x) => x.replace(/\|/g, '\\|')
+    const cell = x => x.replace(/\|/g, '\\|')
     survivors.push(process.env.MUTATION_SURVIVORS === 'md'
       ? `| ${rel} | ${m.mutatorName} | \`${cell(code)}\` | \`${cell(replacement)}\` | (line ${m.location.start.line}) |`
       : `${rel}:${m.location.start.line}:${m.location.start.column} ${m.mutatorName} \`${code.slice(0, 80)}\` → \`${replacement.slice(0, 80)}\` (${m.status})`)

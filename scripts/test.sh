@@ -10,11 +10,19 @@ started=$SECONDS
 mkdir -p "$DATA/locks"
 exec {SETUP_LOCK}>"$DATA/locks/setup"
 flock "$SETUP_LOCK"
-ensure_node_modules
+# Debian's packages install while npm installs (one apt at a time, in the background); both are done before going on.
+(
+  ensure_postgres
+  [ -x /usr/bin/chromium ] || apt_install chromium
+  [ -x /usr/bin/pdftotext ] || apt_install poppler-utils # reads the sealed dossiers back (pdfsig, pdftotext)
+  [ -x /usr/bin/qpdf ] || apt_install qpdf # checks every issued PDF's structure
+) &
+apt_pid=$!
+npm_status=0
+ensure_node_modules || npm_status=$?
+wait "$apt_pid" || die "a package from Debian could not be installed; see above."
+[ "$npm_status" -eq 0 ] || die "npm ci failed; see above."
 ensure_postgres
-[ -x /usr/bin/chromium ] || apt_install chromium
-[ -x /usr/bin/pdftotext ] || apt_install poppler-utils # reads the sealed dossiers back (pdfsig, pdftotext)
-[ -x /usr/bin/qpdf ] || apt_install qpdf # checks every issued PDF's structure
 flock -u "$SETUP_LOCK"
 
 # Each run has its own folder, PostgreSQL cluster and ports, so two runs in one checkout do not meet.
@@ -94,8 +102,8 @@ QUICK_FILES=(tests/api/event-day.test.ts tests/api/findings.test.ts tests/api/do
   tests/api/start-line.test.ts tests/api/club-procedure.test.ts tests/api/distances.test.ts tests/api/calculator.test.ts
   tests/api/auth.test.ts)
 if [ "$#" -gt 0 ]; then set -- "$@"
-elif [ "$MODE" = quick ]; then set -- --project e2e "${QUICK_FILES[@]}"
-else set -- --project e2e
+elif [ "$MODE" = quick ]; then set -- --project 'e2e*' "${QUICK_FILES[@]}"
+else set -- --project 'e2e*'
 fi
 say "running the tests…"
 node node_modules/vitest/vitest.mjs run "$@" || status=$?

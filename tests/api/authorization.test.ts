@@ -226,7 +226,7 @@ describe('authorization table', () => {
     ids.statements = statement.body.id
     // An event-level file (the course survey), which every role at the event may see.
     const setup = await call('GET', `/api/events/${eventId}/setup`, { cookie: cookies.organiser })
-    const survey = await fetch(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { cookie: cookies.organiser }, body: form({ kind: 'survey-certificate', courseId: setup.body.courses[0].id }, { name: 'survey.pdf', bytes: pdf('table') }) })
+    const survey = await fetch(url(`/api/events/${eventId}/evidence`), { method: 'POST', headers: { cookie: cookies.organiser }, body: form({ kind: 'survey-certificate', courseId: setup.body.courses.find((c: { name: string }) => c.name === 'North course').id }, { name: 'survey.pdf', bytes: pdf('table') }) })
     const surveyRow = await survey.json()
     expect(survey.status).toBe(201)
     ids.evidence = surveyRow.id

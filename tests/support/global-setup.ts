@@ -1,5 +1,6 @@
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { resolve } from 'node:path'
+import type { ProvidedContext } from 'vitest'
 import type { TestProject } from 'vitest/node'
 import { expectedServerErrors, root, startApp, startCatcher, startPaymentsFake, unexpectedErrors, type Started } from './processes'
 
@@ -9,7 +10,30 @@ import { expectedServerErrors, root, startApp, startCatcher, startPaymentsFake, 
 /** The webhook signing secret the fake signs with and the app checks: a test value, never a real account's. */
 export const PAYMENTS_WEBHOOK_SECRET = 'whsec_trapline_test_secret'
 
+/** What the one start gives every e2e project. */
+interface Shared {
+  provided: ProvidedContext
+  stop: () => Promise<void>
+}
+const shared = globalThis as typeof globalThis & { __traplineE2E?: Promise<Shared>, __traplineE2EUsers?: number }
+
+/**
+ * Both e2e projects (the isolated files, run side by side, and the others, one at a time after them) name this
+ * setup: the first to run starts the services once for both, each gets the same addresses, and the last to
+ * finish stops them.
+ */
 export default async function setup(project: TestProject) {
+  shared.__traplineE2EUsers = (shared.__traplineE2EUsers ?? 0) + 1
+  shared.__traplineE2E ??= start()
+  const { provided, stop } = await shared.__traplineE2E
+  for (const key of Object.keys(provided) as (keyof ProvidedContext)[]) project.provide(key, provided[key])
+  return async () => {
+    shared.__traplineE2EUsers = (shared.__traplineE2EUsers ?? 1) - 1
+    if (shared.__traplineE2EUsers === 0) await stop()
+  }
+}
+
+async function start(): Promise<Shared> {
   // The tests' own connection is the database owner's; the app connects as trapline_app.
   const databaseUrl = process.env.TEST_DATABASE_URL
   const appDatabaseUrl = process.env.TEST_APP_DATABASE_URL
@@ -62,15 +86,16 @@ export default async function setup(project: TestProject) {
   await fetch(`http://127.0.0.1:${payments.port}/_fake/config`, {
     method: 'POST', body: JSON.stringify({ webhook: `http://127.0.0.1:${app.port}/api/payments/webhook` }),
   })
-  project.provide('paymentsUrl', `http://127.0.0.1:${payments.port}`)
+  const provided: ProvidedContext = {
+    paymentsUrl: `http://127.0.0.1:${payments.port}`,
+    baseUrl,
+    inboxUrl: catcher.inboxUrl,
+    databaseUrl,
+    dataDir,
+    serverEnv: JSON.stringify({ databaseUrl: appDatabaseUrl, dataDir, smtpPort: catcher.smtpPort, inboxPort: catcher.port, output, mailDir, runDir, catcherPidFile }),
+  }
 
-  project.provide('baseUrl', baseUrl)
-  project.provide('inboxUrl', catcher.inboxUrl)
-  project.provide('databaseUrl', databaseUrl)
-  project.provide('dataDir', dataDir)
-  project.provide('serverEnv', JSON.stringify({ databaseUrl: appDatabaseUrl, dataDir, smtpPort: catcher.smtpPort, inboxPort: catcher.port, output, mailDir, runDir, catcherPidFile }))
-
-  return async () => {
+  const stop = async () => {
     await app.stop()
     await catcher.stop()
     await payments.stop()
@@ -87,6 +112,7 @@ export default async function setup(project: TestProject) {
       throw new Error(`the server logged ${errors.length} unexpected error line(s), first: ${errors[0]}`)
     }
   }
+  return { provided, stop }
 }
 
 declare module 'vitest' {

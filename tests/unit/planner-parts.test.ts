@@ -123,3 +123,47 @@ describe('the plan in the day\'s air, with the standard atmosphere where a figur
     expect(requiredKmh(input)).toBeNull()
   })
 })
+
+// What would beat the record, worked by hand: a machine at its top speed through the traps (a light one, its run-up
+// ten times what it needs) with drag alone, where P = ½·ρ·CdA·v³. Sea-level standard air: ρ = 101 325 ÷ (287.05287 ×
+// 288.15) = 1.22500 kg/m³ (ISO 2533). 75 kW on 1 m² of drag area: v = (2 × 75 000 ÷ 1.225)^(1/3) = 49.6575 m/s
+// (178.767 km/h). To reach a 200 km/h record (55.5556 m/s; the motorcycle rule: exceed it, no margin) it needs
+// ½ × 1.225 × 55.5556³ = 105 024 W (× 1.40032), or a drag area of (49.6575 ÷ 55.5556)³ = 0.714122 m².
+describe('what would beat the record, worked by hand', () => {
+  const light: PlanInput = {
+    machine: { massKg: 100, rotatingMassKg: 0, cdA: 1, crr: 0, efficiency: 1, power: { kind: 'constant', kW: 75 }, maxTractiveN: 2000 },
+    conditions: { altitudeM: 0, temperatureC: 15, pressureHpa: 1013.25, windMs: 0, windFromDeg: 0 },
+    course: { label: 'Flying kilometre', lengthM: 4500, headingDeg: 0, entryM: 1750, exitM: 2750 },
+    shutdown: { decelerationMs2: 3, marginM: 300 }, profile: profiles['intl-motorcycle'], recordKmh: 200, turnaroundMin: 45,
+  }
+  it('runs at its top speed, and needs 1.40032 times the power or 0.714122 m² of drag area', () => {
+    const p = plan(light)
+    expect(p.result.kmh).toBeCloseTo(178.76708, 3)
+    expect(p.topSpeed.kmh).toBeCloseTo(178.76708, 4)
+    expect(p.topSpeed.closedFormKmh).toBeCloseTo(178.76708, 4)
+    expect(p.needed!.powerFactor).toBeCloseTo(1.40032, 4)
+    expect(p.needed!.powerKW).toBeCloseTo(105.024, 2)
+    expect(p.needed!.cdA).toBeCloseTo(0.714122, 5)
+    expect(p.needed!.cdAFactor).toBeCloseTo(0.714122, 5)
+    expect(p.findings.map(f => f.code)).toEqual(['record.short'])
+    // A curve flat at 75 kW needs the same factor, its peak scaled.
+    const curved = plan({ ...light, machine: { ...light.machine, power: { kind: 'curve', points: [{ kmh: 0, kW: 75 }, { kmh: 400, kW: 75 }] } } })
+    expect(curved.needed!.powerKW).toBeCloseTo(105.024, 2)
+    expect(curved.topSpeed.closedFormKmh).toBeNull()
+  })
+  it('gives no figure where the answer lies beyond five times the machine\'s (or under a fifth)', () => {
+    // 2000 km/h would take (2000 ÷ 178.767)³ = 1400 times the power.
+    const far = plan({ ...light, recordKmh: 2000 })
+    expect(far.needed).toEqual({ powerKW: null, powerFactor: null, cdA: null, cdAFactor: null })
+    // A record far below: a fifth of the power already beats it (0.2^(1/3) × 178.767 = 104.5 km/h > 50).
+    expect(plan({ ...light, recordKmh: 50 }).needed!.powerFactor).toBeNull()
+  })
+  it('samples the chart every 1/200 of the course (at least every metre), then ten points of the shut-down', () => {
+    const p = plan(light)
+    // 4500 m ÷ 200 = 22.5 → every 23 m (rounded) to the exit at 2750 m: 119 samples after the start line's.
+    const before = p.runs[0]!.samples.filter(x => x.m <= 2750)
+    expect(before[1]!.m).toBeCloseTo(23, 9)
+    expect(before).toHaveLength(1 + 119)
+    expect(p.runs[0]!.samples).toHaveLength(120 + 10)
+  })
+})

@@ -1,24 +1,23 @@
 import AxeBuilder from '@axe-core/playwright'
 import type { Page } from 'playwright-core'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { call, demoEmail, login } from '../support/api'
-import { launchBrowser, open } from '../support/browser'
-import { clearedEntry } from '../support/entries'
-import { makeReady } from '../support/ready-attempt'
-import { kilometreRun } from '../support/runs'
-import { newTestEvent, type TestEvent } from '../support/test-event'
+import { expect } from 'vitest'
+import { call, demoEmail, login } from './api'
+import { launchBrowser, open } from './browser'
+import { clearedEntry } from './entries'
+import { makeReady } from './ready-attempt'
+import { kilometreRun } from './runs'
+import { newTestEvent } from './test-event'
 
-// Every page each role can reach from its home, each checked in the day theme at a desk's width and in the night
-// theme at a phone's (390 px), by axe-core against WCAG 2.1 A and AA (its colour-contrast rule computes the 4.5:1
+// The accessibility sweep (tests/browser/accessibility-*.test.ts): every page each role can reach from its home,
+// each checked in the day theme at a desk's width and in the night theme at a phone's (390 px), by axe-core against WCAG 2.1 A and AA (its colour-contrast rule computes the 4.5:1
 // and 3:1 ratios of success criterion 1.4.3). A serious or critical violation fails the test, named with its page;
 // so does a page wider than the phone (sideways scrolling; SC 1.4.10, reflow). One crawl per role: each page is
 // loaded once and checked in both themes, switched by the page's own theme button. The crawl runs on an event of
 // its own (a pair timed, its dossier issued), so what other test files add to the demo never changes it.
-let ctx: Awaited<ReturnType<typeof launchBrowser>>
-let event: TestEvent
-beforeAll(async () => {
-  ctx = await launchBrowser()
-  event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
+/** The browser and the sweep's own event: a pair timed, its dossier issued, its public board open. */
+export async function sweepSetup() {
+  const ctx = await launchBrowser()
+  const event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
   const entryId = await clearedEntry(event.eventId, 'Sweep machine', {}, {
     team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1',
   })
@@ -31,13 +30,11 @@ beforeAll(async () => {
   await makeReady(event, out.attemptId, [out.id, back.id], entryId)
   const dossier = await call('POST', `/api/attempts/${out.attemptId}/dossiers`, { cookie: event.cookie.team })
   expect(dossier.status, JSON.stringify(dossier.body)).toBe(201)
-  // Its public board, open to anyone.
   const board = await call('PATCH', `/api/events/${event.eventId}`, { cookie: event.cookie.organiser, body: { publicBoard: true } })
   expect(board.status, JSON.stringify(board.body)).toBe(200)
-}, 120_000)
-afterAll(async () => {
-  await ctx?.close()
-})
+  return { ctx, event }
+}
+type Sweep = Awaited<ReturnType<typeof sweepSetup>>
 
 const WCAG = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']
 type Theme = 'day' | 'dark'
@@ -59,7 +56,7 @@ const themeOf = async (page: Page): Promise<Theme> =>
   ((await page.locator('html').getAttribute('class')) ?? '').split(/\s+/).includes('dark') ? 'dark' : 'day'
 
 /** The page as loaded, in its theme at that theme's width, then in the other theme, switched as a person would. */
-async function bothThemes(page: Page, path: string) {
+async function bothThemes(page: Page, path: string, baseUrl: string) {
   const problems: string[] = []
   const first = await themeOf(page)
   const seen: Theme[] = []
@@ -69,7 +66,7 @@ async function bothThemes(page: Page, path: string) {
       const button = page.getByRole('button', { name: first === 'day' ? 'Night' : 'Day', exact: true })
       if (await button.count()) await button.first().click()
       else {
-        await page.context().addCookies([{ name: 'trapline-theme', value: theme, url: ctx.baseUrl }])
+        await page.context().addCookies([{ name: 'trapline-theme', value: theme, url: baseUrl }])
         await page.reload()
         await page.waitForSelector('html[data-hydrated="true"]')
       }
@@ -84,7 +81,7 @@ async function bothThemes(page: Page, path: string) {
 }
 
 /** Loads each page reachable from `start` by links of this site, two clicks deep, one of each kind; checks each once in both themes. */
-async function sweep(page: Page, start: string[], follow: boolean) {
+async function sweep(page: Page, baseUrl: string, start: string[], follow: boolean) {
   const seen = new Set<string>()
   const problems: string[] = []
   let frontier = start
@@ -93,48 +90,41 @@ async function sweep(page: Page, start: string[], follow: boolean) {
     for (const path of frontier) {
       if (seen.has(kind(path))) continue
       seen.add(kind(path))
-      await page.goto(`${ctx.baseUrl}${path}`)
+      await page.goto(`${baseUrl}${path}`)
       await page.waitForSelector('html[data-hydrated="true"]')
       if (follow && depth < 2) {
         const links = await page.$$eval('a[href^="/"]', as => as.map(a => a.getAttribute('href')!))
         next.push(...links.filter(l => !l.startsWith('/api/') && !/\.(pdf|csv|xlsx|json)$/.test(l) && !l.startsWith('/#')))
       }
-      problems.push(...await bothThemes(page, path))
+      problems.push(...await bothThemes(page, path, baseUrl))
     }
     frontier = next
   }
   return { pages: seen.size, problems }
 }
 
-const setCookie = async (cookie: string) => {
+/** Every page seen signed out, each in both themes. */
+export async function sweepSignedOut({ ctx, event }: Sweep) {
+  await ctx.browser.clearCookies()
+  const page = await open(ctx.browser, `${ctx.baseUrl}/`)
+  const paths = ['/', '/login', '/forgot', '/calculator', '/record-book', '/verify', '/rules', '/cautions',
+    `/board/${event.eventId}`, '/no-such-page']
+  const { pages, problems } = await sweep(page, ctx.baseUrl, paths, false)
+  await page.close()
+  expect(pages).toBe(paths.length)
+  expect(problems).toEqual([])
+}
+
+/** Every page a role reaches from its home, two clicks deep, each in both themes. */
+export async function sweepRole({ ctx, event }: Sweep, role: 'organiser' | 'timekeeper' | 'scrutineer' | 'team' | 'official' | 'admin') {
+  // The site administrator is the demo's; every other role is the sweep event's own person.
+  const cookie = role === 'admin' ? await login(demoEmail('admin')) : event.cookie[role]
   await ctx.browser.clearCookies()
   const [name, value] = cookie.split(';')[0]!.split('=') as [string, string]
   await ctx.browser.addCookies([{ name, value, url: ctx.baseUrl }, { name: 'trapline-theme', value: 'day', url: ctx.baseUrl }])
+  const page = await open(ctx.browser, `${ctx.baseUrl}/home`)
+  const { pages, problems } = await sweep(page, ctx.baseUrl, ['/home'], true)
+  await page.close()
+  expect(pages).toBeGreaterThan(3)
+  expect(problems).toEqual([])
 }
-
-describe('accessibility in both themes', () => {
-  it('pages seen signed out have no serious or critical accessibility violation', async () => {
-    await ctx.browser.clearCookies()
-    const page = await open(ctx.browser, `${ctx.baseUrl}/`)
-    const public_ = ['/', '/login', '/forgot', '/calculator', '/record-book', '/verify', '/rules', '/cautions',
-      `/board/${event.eventId}`, '/no-such-page']
-    const { pages, problems } = await sweep(page, public_, false)
-    await page.close()
-    expect(pages).toBe(public_.length)
-    expect(problems).toEqual([])
-  }, 180_000)
-
-  it.each(['organiser', 'timekeeper', 'scrutineer', 'team', 'official', 'admin'] as const)(
-    'every page the %s reaches has no serious or critical accessibility violation',
-    async (role) => {
-      // The site administrator is the demo's; every other role is the sweep event's own person.
-      await setCookie(role === 'admin' ? await login(demoEmail('admin')) : event.cookie[role])
-      const page = await open(ctx.browser, `${ctx.baseUrl}/home`)
-      const { pages, problems } = await sweep(page, ['/home'], true)
-      await page.close()
-      expect(pages).toBeGreaterThan(3)
-      expect(problems).toEqual([])
-    },
-    240_000,
-  )
-})
