@@ -115,3 +115,9 @@ describe('truncating, rounding and printing', () => {
     expect(toNumber(fromDecimal('1609.344'))).toBe(1609.344)
   })
 })
+
+describe('decimal places of a spelling, at its edges', () => {
+  it.each([[' 1e-3 ', 3], ['1.5e-12', 13], ['2.5E-10', 11], ['7e+2', 0]] as const)('%j: %i', (text, k) => {
+    expect(decimalsOf(text)).toBe(k)
+  })
+})

@@ -40,3 +40,21 @@ describe('the unit switch converts the record typed', () => {
     expect(convertTyped('fast', 'mph', 'km/h')).toBeNull()
   })
 })
+
+describe('edges of the warnings and the unit switch', () => {
+  const EXP = 'Write the time as plain digits in seconds (such as 14.5000), not in exponent form.'
+  it('names every exponent form, signed, spaced or with a fraction, and nothing else', () => {
+    for (const t of ['1e5', '+1e5', '-1e5', ' 1e5 ', '12.5e3', '1.25e3', '1e-3', '1E+2', '.5e1']) {
+      expect(implausibleTime('1000', t), t).toBe(EXP)
+    }
+    // Not a number at all: said by the form, not here.
+    for (const t of ['x1e5', '1e5x', 'e5', '1e']) expect(implausibleTime('1000', t), t).toBeNull()
+  })
+  it('converts a typed record with its spaces trimmed, small values with their zeros, and refuses anything else', () => {
+    // 400 km/h = 248.548… mph, rounded at no decimals: 249; 0.001 mph = 0.001609344 km/h: 0.002.
+    expect(convertTyped(' 400 ', 'km/h', 'mph')).toBe('249')
+    expect(convertTyped('0.001', 'mph', 'km/h')).toBe('0.002')
+    expect(convertTyped('0.1', 'km/h', 'mph')).toBe('0.1') // 0.0621… mph, rounded at one decimal
+    for (const t of ['x400', '400x', '4e2', '-400', '400.', '.5']) expect(convertTyped(t, 'km/h', 'mph'), t).toBeNull()
+  })
+})
