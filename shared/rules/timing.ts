@@ -9,6 +9,13 @@ export interface TrapReading {
   ticks: bigint
 }
 
+/**
+ * A time of day as typed: H:MM:SS or HH:MM:SS with up to six decimals. The schemas use it (`timeOfDay`); the run
+ * sheet's cells check it with no schema library, so that the page's first visit does not carry one.
+ */
+export const TIME_OF_DAY = /^\d{1,2}:\d{2}:\d{2}(\.\d{1,6})?$/
+export const TIME_OF_DAY_ERROR = 'must be a time of day, HH:MM:SS.fff'
+
 /** Parses "HH:MM:SS.fff…" into ticks; refuses more digits than the system resolves. */
 export function parseTimeOfDay(text: string, ticksPerSecond: bigint): bigint {
   const m = /^(\d{1,2}):(\d{2}):(\d{2})(?:\.(\d+))?$/.exec(text.trim())

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { decimalsOf, fromDecimal } from '../rules/exact'
 import { PROFILE_IDS } from '../rules/profiles'
 import { isoDateTime, recordId } from './fields'
+import { TIME_OF_DAY, TIME_OF_DAY_ERROR } from '../rules/timing'
 import {
   AVERAGINGS,
   DIRECTIONS,
@@ -39,10 +40,7 @@ const id = recordId
 const label = z.string().trim().min(1, { error: 'is required' }).max(40)
 const day = z.iso.date({ error: 'must be a date, YYYY-MM-DD' })
 /** A time of day read at a trap: HH:MM:SS with a fraction, e.g. 10:15:02.123. */
-export const timeOfDay = z
-  .string()
-  .trim()
-  .regex(/^\d{1,2}:\d{2}:\d{2}(\.\d{1,6})?$/, { error: 'must be a time of day, HH:MM:SS.fff' })
+export const timeOfDay = z.string().trim().regex(TIME_OF_DAY, { error: TIME_OF_DAY_ERROR })
 
 export const courseSchema = z.object({
   name: z.string().trim().min(2).max(80),

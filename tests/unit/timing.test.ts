@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatTimeOfDay, parseTimeOfDay, readTypedTime, segmentTime, speed } from '#shared/rules/timing'
+import { formatTimeOfDay, parseTimeOfDay, readTypedTime, segmentTime, speed, TIME_OF_DAY, TIME_OF_DAY_ERROR } from '#shared/rules/timing'
 import { clockOff, clockOffset } from '#shared/rules/clock'
 import { fromDecimal, q, toFixed } from '#shared/rules/exact'
 import { convertSpeed, msToMph, kmhToMph, mphToKmh, publishedInMs, speedAsNumber } from '#shared/rules/units'
@@ -116,5 +116,13 @@ describe('a device clock against the server\'s, at its edges (RFC 5905, section 
     expect(clockOff({ offsetMs: -2301, uncertaintyMs: 300 })).toBe(true)
     expect(clockOff({ offsetMs: 2000, uncertaintyMs: 0 })).toBe(false)
     expect(clockOff({ offsetMs: 2001, uncertaintyMs: 0 })).toBe(true)
+  })
+})
+
+describe('the time-of-day pattern the run sheet\'s cells and the schemas share', () => {
+  it('takes H:MM:SS or HH:MM:SS with up to six decimals, and nothing else', () => {
+    for (const t of ['9:05:03', '09:05:03', '23:59:59.999999', '10:00:00.1']) expect(TIME_OF_DAY.test(t), t).toBe(true)
+    for (const t of ['10:00', '10:00:00.', '10:00:00.1234567', ' 10:00:00', 'x10:00:00', '10:00:00x', '100:00:00']) expect(TIME_OF_DAY.test(t), t).toBe(false)
+    expect(TIME_OF_DAY_ERROR).toBe('must be a time of day, HH:MM:SS.fff')
   })
 })
