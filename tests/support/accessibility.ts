@@ -71,6 +71,9 @@ async function bothThemes(page: Page, path: string, baseUrl: string) {
         await page.waitForSelector('html[data-hydrated="true"]')
       }
       await expect.poll(() => themeOf(page), { message: `${path}: theme` }).toBe(theme)
+      // The pointer off the button, and the colours' transitions over, before the page is judged.
+      await page.mouse.move(0, 0)
+      await page.waitForFunction(() => document.getAnimations().every(a => a.playState !== 'running'))
     }
     await page.setViewportSize({ width: width(theme), height: 800 })
     seen.push(await themeOf(page))
