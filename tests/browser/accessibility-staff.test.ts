@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, it } from 'vitest'
-import { sweepRole, sweepSetup, sweepSignedOut } from '../support/accessibility'
+import { checkerFails, sweepRole, sweepSetup, sweepSignedOut } from '../support/accessibility'
 
 // Accessibility of the pages seen signed out and by the organiser, timekeeper and site administrator: WCAG 2.1
 // A and AA by axe-core, each page in the day theme at 1280 px and the night theme at 390 px, on an event of the
@@ -13,6 +13,8 @@ afterAll(async () => {
 })
 
 describe('accessibility in both themes', () => {
+  it('the checker fails a page with a serious violation put into it', () => checkerFails(sweep))
+
   it('pages seen signed out have no serious or critical accessibility violation', () => sweepSignedOut(sweep), 240_000)
 
   it.each(['organiser', 'timekeeper', 'admin'] as const)('every page the %s reaches has no serious or critical accessibility violation',
