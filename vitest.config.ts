@@ -17,7 +17,7 @@ const UNIT_ZONES = { 'unit': 'UTC', 'unit-denver': 'America/Denver', 'unit-auckl
  */
 const E2E_ISOLATED = [
   'tests/api/calculator.test.ts', 'tests/api/classes.test.ts', 'tests/api/club-procedure.test.ts',
-  'tests/api/corrections.test.ts', 'tests/api/device-import.test.ts', 'tests/api/idempotency.test.ts',
+  'tests/api/corrections.test.ts', 'tests/api/device-import.test.ts', 'tests/api/idempotency.test.ts', 'tests/api/independence.test.ts',
   'tests/api/live-stream.test.ts', 'tests/api/machines.test.ts', 'tests/api/notices.test.ts',
   'tests/api/officials.test.ts', 'tests/api/passkeys.test.ts', 'tests/api/payments.test.ts',
   'tests/api/post-run-check.test.ts', 'tests/api/protests.test.ts', 'tests/api/s3-store.test.ts',

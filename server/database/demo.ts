@@ -108,6 +108,8 @@ async function seedOfficials(tx: Tx, eventId: number, people: Map<string, number
     ['chief-scrutineer', 'scrutineer@trapline.test'],
     ['observer', 'official2@trapline.test'],
     ['steward', 'official2@trapline.test'],
+    // The profile's stewards decide as a panel, two signing (intl-motorcycle): a second steward of no other function.
+    ['steward', 'official3@trapline.test'],
   ]
   await tx.insert(t.appointments).values(holders.map(([fn, email]) =>
     ({ eventId, function: fn, userId: people.get(email)!, appointedBy: by })))

@@ -790,8 +790,9 @@ export type Membership = typeof memberships.$inferSelect
 export type { EventRole }
 
 /**
- * An official's signed decision to set aside a failing finding of an attempt (a cross-check, a window,
- * a tail wind…), with a written reason. Append-only; the dossier prints it beside the finding.
+ * The stewards' signed decision to set aside a failing finding of an attempt (a disagreement between the timing
+ * systems), with a written reason: proposed and signed by one appointed steward, signed by others (signatures of
+ * kind set-aside on it) until the profile's quorum. Append-only; the dossier prints it beside the finding.
  */
 export const setAsides = pgTable('set_asides', {
   id: serial('id').primaryKey(),

@@ -7,6 +7,9 @@ import { describeProtestRule, type ProtestRule } from './protests'
 /** How sure we are of a rule value, always printed beside it. */
 export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settled' | 'not known'
 
+/** The number of appointed stewards who sign a decision of the stewards under this profile (one where it says none). */
+export const stewardsQuorum = (profile: Pick<RuleProfile, 'stewards'>) => profile.stewards?.value.quorum ?? 1
+
 /** A rule value with where it comes from. */
 export interface Sourced<T> {
   value: T
@@ -76,6 +79,8 @@ export interface RuleProfile {
   briefing?: Sourced<boolean>
   /** Protest deadline, fee and appeal path (absent in older copies: no protests). */
   protests?: Sourced<ProtestRule>
+  /** How many appointed stewards sign a decision of the stewards (absent in older copies: one). */
+  stewards?: Sourced<{ quorum: number }>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -98,6 +103,7 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   licence: 'Licences',
   briefing: 'Riders\' briefing',
   protests: 'Protests and appeals',
+  stewards: 'Stewards\' decisions',
 }
 
 export function describeWindow(w: RunWindow): string {
@@ -171,6 +177,10 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       return value ? 'each rider signs on to the latest briefing before running' : 'not required'
     case 'protests':
       return describeProtestRule(value as ProtestRule)
+    case 'stewards': {
+      const { quorum } = value as { quorum: number }
+      return quorum === 1 ? 'signed by an appointed steward' : `signed by ${quorum} appointed stewards`
+    }
     case 'massClasses':
       return (value as MassClass[]).map(c => `${c.label}${c.maxKg ? ` (up to ${c.maxKg} kg)` : ''}`).join('; ')
     default:

@@ -121,7 +121,7 @@ export const decisionSchema = signRecordSchema.extend({
 })
 export type DecisionInput = z.infer<typeof decisionSchema>
 
-/** An official sets a failing finding aside, signed, with the reason in writing. */
+/** A steward proposes setting a failing finding aside, signed, with the reason in writing. */
 export const setAsideSchema = signSheetSchema.extend({
   code: z.string().trim().min(1, { error: 'name the finding' }).max(80),
   /** The run whose finding it is; absent for a finding of the pair or the attempt. */

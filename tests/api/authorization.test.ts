@@ -1,7 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { call, demoEmail, demoEventId, demoMileRecord, invitedPerson, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
+import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, invitedPerson, linkToken, login, mailTo, unique, url, useTestServer } from '../support/api'
 import { form, pdf } from '../support/files'
 import { routeFiles } from '../support/routes'
+import { clearedEntry } from '../support/entries'
+import { kilometreRun, minutesAgo } from '../support/runs'
 
 await useTestServer()
 
@@ -89,6 +91,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'POST /api/attempts/[id]/signatures': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/attempts/[id]/reopen': { expect: rolesOnly(422, 'timekeeper'), body: {} },
   'POST /api/attempts/[id]/set-asides': { expect: rolesOnly(422, 'official'), body: {} },
+  'POST /api/set-asides/[id]/signatures': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/attempts/[id]/impound': { expect: rolesOnly(409, 'scrutineer'), body: {} },
   'POST /api/attempts/[id]/post-run-check': { expect: rolesOnly(422, 'scrutineer'), body: {} },
   'POST /api/machines/[id]/suspensions': { expect: rolesOnly(422, 'scrutineer'), body: {} },
@@ -164,7 +167,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
 describe('authorization table', () => {
   const cookies = {} as Record<Who, string>
   let eventId = 0
-  const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0, 'payments': 0, 'appointments': 0, 'briefings': 0, 'protests': 0, 'plans': 0 }
+  const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0, 'payments': 0, 'appointments': 0, 'briefings': 0, 'protests': 0, 'plans': 0, 'set-asides': 0 }
   let sha = ''
 
   beforeAll(async () => {
@@ -199,6 +202,21 @@ describe('authorization table', () => {
       .find((b: { title: string }) => b.title === 'Riders\' briefing, run day').id
     ids.protests = (await call('GET', `/api/events/${eventId}/protests`, { cookie: cookies.organiser })).body
       .find((p: { grounds: string }) => p.grounds.startsWith('The back run\'s backup reading')).id
+    // A stewards' set-aside awaiting its second signature: a cross-check of the test's own, proposed by a steward.
+    const daySetup = await call('GET', `/api/events/${eventId}/setup`, { cookie: cookies.organiser })
+    const north = daySetup.body.courses.find((c: { name: string }) => c.name === 'North course')
+    const place = {
+      eventId, timeZone: daySetup.body.event.timeZone, timekeeper: cookies.timekeeper,
+      traps: { 'K-in': north.traps.find((t: { label: string }) => t.label === 'K-in').id, 'K-out': north.traps.find((t: { label: string }) => t.label === 'K-out').id },
+      systems: Object.fromEntries(daySetup.body.systems.map((x: { role: string, id: number }) => [x.role, x.id])) as Record<'primary' | 'backup', number>,
+    }
+    const crossed = await kilometreRun(place, await clearedEntry(eventId, 'Gate Crossed'), 'out', minutesAgo(30), { primary: [0, 9], backup: [0, 9.05] })
+    const proposed = await call('POST', `/api/attempts/${crossed.attemptId}/set-asides`, {
+      cookie: await login('official2@trapline.test'),
+      body: { code: 'timing.cross-check', runId: crossed.id, reason: 'The backup beam was knocked by a gust.', typedName: 'Orla Ormsby', password: DEMO_PASSWORD },
+    })
+    expect(proposed.status, JSON.stringify(proposed.body)).toBe(201)
+    ids['set-asides'] = proposed.body.id
     ids.plans = (await call('GET', '/api/plans', { cookie: cookies.team })).body
       .find((p: { name: string }) => p.name === 'North course, flying mile, run-day air').id
     ids.payments = paid.body.payments.find((p: { receiptNo: string }) => p.receiptNo === 'R-DEMO-1').id
@@ -252,7 +270,7 @@ describe('authorization table', () => {
     for (const who of WHO) {
       it(`${route} as ${who} → ${spec.expect[who]}`, async () => {
         const [method, path] = route.split(' ') as [string, string]
-        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests|payments|appointments|briefings|protests|plans)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
+        const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests|payments|appointments|briefings|protests|plans|set-asides)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
         const filled = path.replace('[id]', String(id)).replace('[sha]', sha).replace('[kind]', 'traps').replace('[itemId]', '1')
         const r = await call(method, filled, { cookie: cookies[who], body: spec.body })

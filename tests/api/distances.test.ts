@@ -146,11 +146,17 @@ describe('a failing finding of one distance leaves the other valid', () => {
     expect((await byLabel('Flying kilometre')).valid).toBe(false)
     const kmReady = await call('GET', `/api/attempts/${out.attemptId}/readiness?distanceId=${(await byLabel('Flying kilometre')).distanceId}`, { cookie: team2 })
     expect(kmReady.body.items.map((i: any) => i.key)).toContain(`finding-timing.cross-check-${out.id}`)
+    // Set aside by the demo's two stewards (the profile's panel: two sign).
     const setAside = await call('POST', `/api/attempts/${out.attemptId}/set-asides`, {
-      cookie: await login(demoEmail('official')),
-      body: { code: 'timing.cross-check', runId: out.id, reason: 'Backup beam at K-out knocked by the wind; primary checked.', typedName: 'Oswin Oakes', password: DEMO_PASSWORD },
+      cookie: await login('official2@trapline.test'),
+      body: { code: 'timing.cross-check', runId: out.id, reason: 'Backup beam at K-out knocked by the wind; primary checked.', typedName: 'Orla Ormsby', password: DEMO_PASSWORD },
     })
     expect(setAside.status, JSON.stringify(setAside.body)).toBe(201)
+    expect((await byLabel('Flying kilometre')).valid).toBe(false)
+    const second = await call('POST', `/api/set-asides/${setAside.body.id}/signatures`, {
+      cookie: await login('official3@trapline.test'), body: { typedName: 'Stellan Vey', password: DEMO_PASSWORD },
+    })
+    expect(second.status, JSON.stringify(second.body)).toBe(201)
     expect((await byLabel('Flying kilometre')).valid).toBe(true)
   })
 })

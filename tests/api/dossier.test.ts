@@ -13,6 +13,8 @@ import { call, DEMO_PASSWORD, demoEmail, demoEventId, demoMileRecord, login, mai
 import { sha256 } from '../support/files'
 import { flipInFirstPage, pdfText, pdfTool } from '../support/pdf-tools'
 import { pairSpeed, speedOver, timesOver } from '../support/hand'
+import { readyPair } from '../support/ready-attempt'
+import { newTestEvent, type TestEvent } from '../support/test-event'
 
 await useTestServer()
 const db = new pg.Client({ connectionString: inject('databaseUrl') })
@@ -329,49 +331,83 @@ describe('readiness', () => {
   })
 })
 
-describe('submission and ratification', () => {
+describe('submission and ratification', { shuffle: false }, () => {
+  // A claim of the test's own (the demo's are decided, and decided is final): a test event's pair, ready.
+  let event: TestEvent
+  let attemptId = 0
+  let secondAttemptId = 0
+  let v1 = { id: 0, version: 0 }
+  const officialSigns = { password: 'first-password-1', typedName: 'Test official' }
+  beforeAll(async () => {
+    event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
+    attemptId = (await readyPair(event, 'Claim machine')).attemptId
+    // A second pair of the team, its claim built later with the mail server down (invitations need it up).
+    secondAttemptId = (await readyPair(event, 'Claim machine two')).attemptId
+    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
+    expect(built.status, JSON.stringify(built.body)).toBe(201)
+    v1 = built.body
+  })
+
+  it('the demo\'s ratified claim is final: no new version of it is built, submitted or decided', async () => {
+    const before = (await db.query('select count(*) from dossiers')).rows[0].count
+    const demoAttempt = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
+    const again = await call('POST', `/api/attempts/${demoAttempt}/dossiers`, { cookie: cookie.team })
+    expect(again.status).toBe(409)
+    expect(again.body.statusMessage).toMatch(/^Version 1 of this claim was ratified on .*: a decided claim is final/)
+    expect((await db.query('select count(*) from dossiers')).rows[0].count).toBe(before)
+    expect((await call('POST', `/api/dossiers/${dossierId}/submission`, { cookie: cookie.team })).status).toBe(409)
+  })
+
   it('a new version supersedes the old; submitting it e-mails the officials the PDF with its hash; they ratify it', async () => {
-    const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
-    const before = (await call('GET', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })).body as any[]
-    const latest = Math.max(...before.map(d => d.version))
-    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
+    expect((await call('POST', `/api/dossiers/${v1.id}/submission`, { cookie: event.cookie.team })).status).toBe(201)
+    const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
     expect(built.status).toBe(201)
-    expect(built.body.version).toBe(latest + 1)
-    expect((await call('POST', `/api/dossiers/${dossierId}/submission`, { cookie: cookie.team })).status).toBe(409) // v1: already submitted
-    const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
+    expect(built.body.version).toBe(v1.version + 1)
+    expect((await call('POST', `/api/dossiers/${v1.id}/submission`, { cookie: event.cookie.team })).status).toBe(409) // v1: already submitted
+    // The superseded version, though submitted, is never decided: only the latest of a claim is.
+    const onOld = await call('POST', `/api/dossiers/${v1.id}/decision`, { cookie: event.cookie.official, body: { decision: 'refused', reasons: 'the old one', ...officialSigns } })
+    expect(onOld.status).toBe(409)
+    expect(onOld.body.statusMessage).toBe(`Version ${v1.version} is superseded by version ${built.body.version}: only the latest version of a claim is submitted or decided`)
+    const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: event.cookie.team })
     expect(submitted.status).toBe(201)
-    const mail = await mailTo(demoEmail('official'), 'submitted for ratification')
+    const mail = await mailTo(event.email.official, 'submitted for ratification')
     expect(mail.text).toContain(built.body.pdfSha256)
     const inbox = await (await fetch(`${inject('inboxUrl')}/api/messages`)).json() as any[]
-    const withPdf = inbox.find(m => m.text.includes(built.body.pdfSha256) && m.to.includes(demoEmail('official')))
+    const withPdf = inbox.find(m => m.text.includes(built.body.pdfSha256) && m.to.includes(event.email.official))
     expect(withPdf.attachments[0]).toMatchObject({ contentType: 'application/pdf', size: built.body.pdfSize })
 
     // What became of each: the new version is the latest, not yet decided; the first is superseded by it.
-    const newPdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${built.body.id}/pdf`), { headers: { cookie: cookie.team } })).arrayBuffer())
+    const get = async (id: number) => new Uint8Array(await (await fetch(url(`/api/dossiers/${id}/pdf`), { headers: { cookie: event.cookie.team } })).arrayBuffer())
+    const newPdf = await get(built.body.id)
     const checked = (await verify(newPdf)).body
     expect(checked.standing).toMatchObject({ state: 'current', latestVersion: built.body.version })
-    // The verification names what it checked: the demo's streamliner, its team, the distance and the version.
-    expect(checked.dossier).toMatchObject({
-      id: built.body.id, version: built.body.version, machineName: 'Larkspur Fennwick streamliner', teamName: 'Larkspur Works',
-    })
-    const old = (await verify(pdf)).body.standing
+    // The verification names what it checked: the test's machine, its team, the distance and the version.
+    expect(checked.dossier).toMatchObject({ id: built.body.id, version: built.body.version, machineName: 'Claim machine', teamName: 'Test Team' })
+    const old = (await verify(await get(v1.id))).body.standing
     expect(old.latestVersion).toBe(built.body.version)
     expect(old.words).toContain(`It is superseded: version ${built.body.version} is the latest of this attempt.`)
-    const wrong = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: 'wrong', typedName: 'Oswin Oakes' } })
+    const wrong = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: event.cookie.official, body: { decision: 'ratified', reasons: 'all in order', ...officialSigns, password: 'wrong' } })
     expect(wrong.status).toBe(422)
-    const decided = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'ratified', reasons: 'all in order', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })
-    expect(decided.status).toBe(201)
+    const decided = await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: event.cookie.official, body: { decision: 'ratified', reasons: 'all in order', ...officialSigns } })
+    expect(decided.status, JSON.stringify(decided.body)).toBe(201)
     // The decision's signature covers the sealed file's hashes and the decision, as stored now.
-    const report = (await call('GET', `/api/signatures/${decided.body.signatureId}`, { cookie: cookie.official })).body
+    const report = (await call('GET', `/api/signatures/${decided.body.signatureId}`, { cookie: event.cookie.official })).body
     expect(report).toMatchObject({ kind: 'ratification', storedContentMatches: true, recordStillMatches: true })
     expect(report.content).toMatchObject({ dossier: built.body.id, decision: 'ratified', pdfSha256: built.body.pdfSha256 })
-    expect((await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: cookie.official, body: { decision: 'refused', reasons: 'changed my mind', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' } })).status).toBe(409)
-    await mailTo('team@trapline.test', 'ratified')
+    expect((await call('POST', `/api/dossiers/${built.body.id}/decision`, { cookie: event.cookie.official, body: { decision: 'refused', reasons: 'changed my mind', ...officialSigns } })).status).toBe(409)
+    await mailTo(event.email.team, 'ratified')
     expect((await verify(newPdf)).body.standing).toMatchObject({ state: 'ratified', words: 'It was ratified.' })
-    const book = (await call('GET', '/api/record-book')).body.records
-    const mile = book.find((r: any) => r.class === 'Electric, fully streamlined' && r.distance === 'Flying mile')
-    expect(mile.dossierUrl).toContain(`/api/dossiers/${built.body.id}/pdf`)
+    const claims = (await call('GET', '/api/record-book')).body.claims
+    expect(claims.find((c: any) => c.id === built.body.id)).toMatchObject({ status: 'ratified', machine: 'Claim machine' })
+    expect(claims.some((c: any) => c.id === v1.id)).toBe(false) // superseded: the claim shows its latest version
     await expect(db.query('update dossiers set version = 9 where id = $1', [built.body.id])).rejects.toThrow(/append-only/)
+
+    // Decided is final: no third version, nothing more submitted or decided on the claim.
+    const count = (await db.query('select count(*) from dossiers where attempt_id = $1', [attemptId])).rows[0].count
+    const third = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
+    expect(third.status).toBe(409)
+    expect(third.body.statusMessage).toContain(`Version ${built.body.version} of this claim was ratified`)
+    expect((await db.query('select count(*) from dossiers where attempt_id = $1', [attemptId])).rows[0].count).toBe(count)
   })
 
   it('with the mail server down, the submission is kept and the e-mail goes out once it is back', async () => {
@@ -394,9 +430,10 @@ describe('submission and ratification', () => {
     }
     try {
       await expect.poll(smtpUp, { timeout: 10_000 }).toBe(false)
-      const attemptId = (await db.query('select attempt_id from dossiers where id = $1', [dossierId])).rows[0].attempt_id
-      const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: cookie.team })
-      const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: cookie.team })
+      // The second pair of the test event's team, its claim not yet decided.
+      const built = await call('POST', `/api/attempts/${secondAttemptId}/dossiers`, { cookie: event.cookie.team })
+      expect(built.status, JSON.stringify(built.body)).toBe(201)
+      const submitted = await call('POST', `/api/dossiers/${built.body.id}/submission`, { cookie: event.cookie.team })
       expect(submitted.status).toBe(201)
       expect(submitted.body.mail.sent).toBe(0)
       expect(submitted.body.message).toContain('will be retried')

@@ -228,7 +228,7 @@ describe('witness statements', () => {
     const body = { runsSeen: 'run 1', position: 'timing hut', conditions: 'calm', irregularities: '', password: official.password, typedName: official.name }
     const own = await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, attemptId: larkspur.id } })
     expect(own.status).toBe(409)
-    expect(own.body.statusMessage).toContain('cannot witness it')
+    expect(own.body.statusMessage).toContain('Not independent: you hold a role in the team “Larkspur Works”, so you cannot witness this team\'s attempt')
     expect((await call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, attemptId: cinder.id } })).status).toBe(201)
   })
 

@@ -1,10 +1,11 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import ExcelJS from 'exceljs'
 import Papa from 'papaparse'
-import { call, DEMO_PASSWORD, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, login, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { minutesAgo, kilometreRun } from '../support/runs'
-import { newTestEvent } from '../support/test-event'
+import { newTestEvent, type TestEvent } from '../support/test-event'
+import { readyPair } from '../support/ready-attempt'
 import { pdfText } from '../support/pdf-tools'
 
 await useTestServer()
@@ -17,9 +18,9 @@ describe('the record book as a registry', () => {
   it('keeps each record with the holders it displaced, down to the record entered before the event', async () => {
     const mile = (await book()).records.find(slot(STREAMLINED, 'Flying mile'))
     expect(mile.profile).toBe('International motorcycle')
-    expect(['ratified', 'homologated']).toContain(mile.status)
-    // The demo's first mile dossier is homologated by the sanctioning body (an invented reference); other tests
-    // may ratify later versions of it, which then hold the record.
+    // The demo's first mile dossier is homologated by the sanctioning body (an invented reference), and decided is
+    // final: no later version of the claim is ever built to replace it.
+    expect(mile.status).toBe('homologated')
     const team = await login('team@trapline.test')
     const live = (await call('GET', `/api/events/${await demoEventId(team)}/live`, { cookie: team })).body
     const attemptId = live.find((a: any) => a.entry.machineName === 'Larkspur Fennwick streamliner' && a.sheet.locked).id
@@ -132,12 +133,15 @@ describe('the record book as a registry', () => {
 })
 
 describe('a claim\'s status: claimed, withdrawn with its reason, refused with the officials\' reasons', { shuffle: false }, () => {
+  // A claim of the test's own over the kilometre (the demo's claims are decided, and decided is final).
+  let event: TestEvent
   let team: string
   let official: string
   let attemptId = 0
   let kmId = 0
+  const officialSigns = { password: 'first-password-1', typedName: 'Test official' }
   const kmClaim = async () => (await book()).claims.find((c: any) => c.distance === 'Flying kilometre'
-    && c.machine === 'Larkspur Fennwick streamliner')
+    && c.machine === 'Claim status machine')
   const build = async () => {
     const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: team, body: { distanceId: kmId } })
     expect(built.status, JSON.stringify(built.body)).toBe(201)
@@ -147,24 +151,34 @@ describe('a claim\'s status: claimed, withdrawn with its reason, refused with th
   }
 
   beforeAll(async () => {
-    team = await login('team@trapline.test')
-    official = await login(demoEmail('official'))
-    const eventId = await demoEventId(team)
-    const live = (await call('GET', `/api/events/${eventId}/live`, { cookie: team })).body
-    const attempt = live.find((a: any) => a.entry.machineName === 'Larkspur Fennwick streamliner' && a.sheet.locked)
-    attemptId = attempt.id
-    kmId = attempt.distances.find((d: any) => d.label === 'Flying kilometre').distanceId
+    event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
+    team = event.cookie.team
+    official = event.cookie.official
+    attemptId = (await readyPair(event, 'Claim status machine')).attemptId
+    const live = (await call('GET', `/api/events/${event.eventId}/live`, { cookie: team })).body
+    kmId = live.find((a: any) => a.id === attemptId).distances.find((d: any) => d.label === 'Flying kilometre').distanceId
+  })
+
+  it('the demo\'s kilometre dossier, decided, names the mile claimed from the same passes', async () => {
+    const demoTeam = await login('team@trapline.test')
+    const live = (await call('GET', `/api/events/${await demoEventId(demoTeam)}/live`, { cookie: demoTeam })).body
+    const demoAttempt = live.find((a: any) => a.entry.machineName === 'Larkspur Fennwick streamliner' && a.sheet.locked).id
+    const versions = (await call('GET', `/api/attempts/${demoAttempt}/dossiers`, { cookie: demoTeam })).body as any[]
+    const km = versions.find(v => v.distanceLabel === 'Flying kilometre' && v.decision?.decision === 'ratified')
+    // Read back with poppler's pdftotext: its distance, and the mile it shares the passes with.
+    const pdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${km.id}/pdf`), { headers: { cookie: demoTeam } })).arrayBuffer())
+    const text = (await pdfText(pdf, 'km-dossier.pdf')).replace(/\s+/g, ' ')
+    expect(text).toContain('Flying kilometre (1000.000 m)')
+    expect(text).toContain('Also claimed from')
+    expect(text).toMatch(/Flying mile \(1609\.344 m, \d+\.\d{3} km\/h\)/)
+    // Decided is final: the team cannot build another version of it.
+    const again = await call('POST', `/api/attempts/${demoAttempt}/dossiers`, { cookie: demoTeam, body: { distanceId: km.distanceId } })
+    expect(again.status).toBe(409)
   })
 
   it('a submitted kilometre dossier is claimed; the team withdraws it with a reason; no decision follows', async () => {
     const id = await build()
     expect(await kmClaim()).toMatchObject({ id, status: 'claimed' })
-    // The kilometre's own dossier, read back with poppler's pdftotext: its distance, and the mile it shares the passes with.
-    const pdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${id}/pdf`), { headers: { cookie: team } })).arrayBuffer())
-    const text = (await pdfText(pdf, 'km-dossier.pdf')).replace(/\s+/g, ' ')
-    expect(text).toContain('Flying kilometre (1000.000 m)')
-    expect(text).toContain('Also claimed from')
-    expect(text).toMatch(/Flying mile \(1609\.344 m, \d+\.\d{3} km\/h\)/)
     const short = await call('POST', `/api/dossiers/${id}/withdrawal`, { cookie: team, body: { reason: 'no' } })
     expect(short.status).toBe(422)
     expect(short.body.data.issues[0].path).toBe('reason')
@@ -175,11 +189,9 @@ describe('a claim\'s status: claimed, withdrawn with its reason, refused with th
     expect(await kmClaim()).toMatchObject({ id, status: 'withdrawn', reasons: reason })
     const decide = await call('POST', `/api/dossiers/${id}/decision`, {
       cookie: official,
-      body: { decision: 'ratified', reasons: 'all in order', password: DEMO_PASSWORD, typedName: 'Oswin Oakes' },
+      body: { decision: 'ratified', reasons: 'all in order', ...officialSigns },
     })
     expect(decide.status).toBe(409)
-    // The ratified kilometre record from the demo's first version still stands.
-    expect((await book()).records.find(slot(STREAMLINED, 'Flying kilometre'))).toBeTruthy()
   })
 
   it('a refused claim shows the officials\' reasons; a withdrawal after a decision is refused', async () => {
@@ -187,12 +199,15 @@ describe('a claim\'s status: claimed, withdrawn with its reason, refused with th
     const reasons = 'The kilometre traps were moved after the survey (invented for the test).'
     const refused = await call('POST', `/api/dossiers/${id}/decision`, {
       cookie: official,
-      body: { decision: 'refused', reasons, password: DEMO_PASSWORD, typedName: 'Oswin Oakes' },
+      body: { decision: 'refused', reasons, ...officialSigns },
     })
     expect(refused.status, JSON.stringify(refused.body)).toBe(201)
     expect(await kmClaim()).toMatchObject({ id, status: 'refused', reasons })
     expect((await book('?status=refused')).claims.map((c: any) => c.id)).toContain(id)
     const late = await call('POST', `/api/dossiers/${id}/withdrawal`, { cookie: team, body: { reason: 'too late for this one' } })
     expect(late.status).toBe(409)
+    // Refused is not final for the team: a corrected claim is built and submitted again as a new version.
+    const corrected = await build()
+    expect(await kmClaim()).toMatchObject({ id: corrected, status: 'claimed' })
   })
 })

@@ -15,7 +15,7 @@ afterAll(async () => {
   await stand?.close()
 })
 
-it('a run started by the server clock, a failing cross-check that blocks the dossier, and the official\'s release', async () => {
+it('a run started by the server clock, a failing cross-check that blocks the dossier, and the stewards\' release', async () => {
   // A cleared entry of the test's own, whose back run (the systems agreeing) is already in, twenty minutes ago.
   const organiser = await login(demoEmail('organiser'))
   const eventId = await demoEventId(organiser)
@@ -65,19 +65,31 @@ it('a run started by the server clock, a failing cross-check that blocks the dos
     await tk.locator(`[data-test="value-${label}-${role}"]`).waitFor()
   }
 
-  // The official finds the failing cross-check blocking the dossier, and sets it aside in writing.
-  const official = await signIn(stand, demoEmail('official'), `/attempts/${run.attemptId}/dossier`)
+  // A steward finds the failing cross-check blocking the dossier and proposes setting it aside in writing; the
+  // second steward reads the same words and signs: the profile's panel decides by two signatures.
+  const official = await signIn(stand, 'official2@trapline.test', `/attempts/${run.attemptId}/dossier`)
   const item = official.locator(`[data-test="ready-finding-timing.cross-check-${run.id}"]`)
   await expect.poll(() => item.innerText()).toMatch(/to do/i)
-  expect(await item.innerText()).toContain('blocks the dossier')
+  expect(await item.innerText()).toContain('blocks the dossier until it is resolved, or 2 appointed stewards set it aside')
   const form = item.locator(`[data-test="set-aside-timing.cross-check-${run.id}"]`)
   const reason = 'Backup beam knocked by a gust at the exit trap; primary confirmed against the photo finish.'
   await form.locator('textarea').fill(reason)
-  await form.locator('input:not([type="password"])').fill('Oswin Oakes')
+  await form.locator('input:not([type="password"])').fill('Orla Ormsby')
   await form.locator('input[type="password"]').fill(DEMO_PASSWORD)
-  await form.locator('button:has-text("Sign the set-aside")').click()
-  await expect.poll(() => item.innerText()).toMatch(/done/i)
-  expect(await item.innerText()).toContain(reason)
+  await form.locator('button:has-text("Propose and sign the set-aside")').click()
+  await expect.poll(() => item.innerText()).toContain('signed by Orla Ormsby; it takes effect once 2 stewards have signed (1 more)')
+  expect(await item.innerText()).toMatch(/to do/i)
+
+  const second = await signIn(hut, 'official3@trapline.test', `/attempts/${run.attemptId}/dossier`)
+  const pending = second.locator(`[data-test="ready-finding-timing.cross-check-${run.id}"]`)
+  const cosign = pending.locator(`[data-test="set-aside-timing.cross-check-${run.id}"]`)
+  expect(await cosign.innerText()).toContain(reason)
+  expect(await cosign.locator('textarea').count()).toBe(0)
+  await cosign.locator('input:not([type="password"])').fill('Stellan Vey')
+  await cosign.locator('input[type="password"]').fill(DEMO_PASSWORD)
+  await cosign.locator('button:has-text("Sign the decision")').click()
+  await expect.poll(() => pending.innerText()).toMatch(/done/i)
+  expect(await pending.innerText()).toContain(`set aside by the stewards (Orla Ormsby and Stellan Vey): ${reason}`)
 
   // The team's live results now read the pair as valid, with the decision beside the finding.
   const team2 = await login('team2@trapline.test')

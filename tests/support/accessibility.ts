@@ -5,9 +5,7 @@ import type { Page } from 'playwright-core'
 import { expect } from 'vitest'
 import { call, demoEmail, login } from './api'
 import { launchBrowser, open } from './browser'
-import { clearedEntry } from './entries'
-import { makeReady } from './ready-attempt'
-import { kilometreRun } from './runs'
+import { readyPair } from './ready-attempt'
 import { newTestEvent } from './test-event'
 
 // The accessibility sweep (tests/browser/accessibility-*.test.ts): every page each role can reach from its home,
@@ -20,17 +18,8 @@ import { newTestEvent } from './test-event'
 export async function sweepSetup() {
   const ctx = await launchBrowser()
   const event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
-  const entryId = await clearedEntry(event.eventId, 'Sweep machine', {}, {
-    team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1',
-  })
-  const place = { eventId: event.eventId, timeZone: event.timeZone, timekeeper: event.cookie.timekeeper, traps: event.traps, systems: event.systems }
-  const quick = { primary: [0, 8.9] as [number, number], backup: [0, 8.9] as [number, number] }
-  // The runs leave after the inspection that cleared the machine was signed.
-  const t0 = Math.ceil(Date.now() / 1000) * 1000 + 1000
-  const out = await kilometreRun(place, entryId, 'out', t0, quick)
-  const back = await kilometreRun(place, entryId, 'back', t0 + 120_000, quick)
-  await makeReady(event, out.attemptId, [out.id, back.id], entryId)
-  const dossier = await call('POST', `/api/attempts/${out.attemptId}/dossiers`, { cookie: event.cookie.team })
+  const { attemptId } = await readyPair(event, 'Sweep machine')
+  const dossier = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
   expect(dossier.status, JSON.stringify(dossier.body)).toBe(201)
   const board = await call('PATCH', `/api/events/${event.eventId}`, { cookie: event.cookie.organiser, body: { publicBoard: true } })
   expect(board.status, JSON.stringify(board.body)).toBe(200)

@@ -25,9 +25,12 @@ export async function newTestEvent(profileId: string, timeZone: string, recordCl
   expect(created.status, JSON.stringify(created.body)).toBe(201)
   const eventId = created.body.id as number
   const cookie = { organiser: (await setPasswordByLink(organiserEmail, 'organiser-password-1')).cookie } as Record<Role, string>
+  const email = { organiser: organiserEmail } as Record<Role, string>
   for (const role of ['timekeeper', 'scrutineer', 'official', 'team'] as const) {
     const at = { eventId, organiser: cookie.organiser, ...(role === 'team' ? { teamName: 'Test Team' } : {}) }
-    cookie[role] = (await invitedPerson(role, 'first-password-1', `Test ${role}`, at)).cookie
+    const person = await invitedPerson(role, 'first-password-1', `Test ${role}`, at)
+    cookie[role] = person.cookie
+    email[role] = person.email
   }
   const post = async (path: string, body: Record<string, unknown>) => {
     const r = await call('POST', `/api/events/${eventId}/${path}`, { cookie: cookie.organiser, body })
@@ -46,6 +49,6 @@ export async function newTestEvent(profileId: string, timeZone: string, recordCl
   })
   const organiserLogin: [string, string] = [organiserEmail, 'organiser-password-1']
   organiserOf.set(eventId, cookie.organiser)
-  return { eventId, timeZone, cookie, organiserLogin, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }
+  return { eventId, timeZone, cookie, email, organiserLogin, traps: { 'K-in': kIn, 'K-out': kOut }, systems: { primary, backup } }
 }
 export type TestEvent = Awaited<ReturnType<typeof newTestEvent>>

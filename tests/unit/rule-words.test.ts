@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { profiles } from '#shared/rules/profiles'
-import { describeRuleValue, describeWindow, ruleLabels } from '#shared/rules/profile'
+import { describeRuleValue, describeWindow, ruleLabels, stewardsQuorum } from '#shared/rules/profile'
 
 // Each rule value as the rules page and the dossier print it, read off the profiles by hand: the international
 // motorcycle rule (FIM world records page, seen: two runs in opposite directions within 2 h, distance over the mean
@@ -83,9 +83,21 @@ describe('rule values in words', () => {
       .toBe('protest by 09:00 2 days later, event\'s clock of publication; no fee; no appeal')
   })
 
+  it('the stewards\' quorum: one steward, or several, each signing', () => {
+    // Two of a panel of three (international sporting codes, from memory); one at a club meet (a profile setting).
+    expect(words(moto, 'stewards')).toBe('signed by 2 appointed stewards')
+    expect(words(auto, 'stewards')).toBe('signed by 2 appointed stewards')
+    expect(words(club, 'stewards')).toBe('signed by an appointed steward')
+    expect(stewardsQuorum(moto)).toBe(2)
+    expect(stewardsQuorum(club)).toBe(1)
+    // A copy frozen before the rule existed: one steward, as before.
+    expect(stewardsQuorum({})).toBe(1)
+  })
+
   it('labels every rule', () => {
     expect(ruleLabels.window).toBe('Time window')
     expect(ruleLabels.tailWindLimitMs).toBe('Tail-wind limit')
-    expect(Object.keys(ruleLabels)).toHaveLength(19)
+    expect(ruleLabels.stewards).toBe('Stewards\' decisions')
+    expect(Object.keys(ruleLabels)).toHaveLength(20)
   })
 })

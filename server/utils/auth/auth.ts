@@ -93,6 +93,7 @@ const OWNER = {
   appointment: sql`select event_id from appointments where id = `,
   briefing: sql`select event_id from briefings where id = `,
   protest: sql`select event_id from protests where id = `,
+  setAside: sql`select event_id from set_asides where id = `,
   changeRequest: sql`select e.event_id from entry_change_requests c join entries e on e.id = c.entry_id where c.id = `,
 } as const
 

@@ -1,7 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto'
 import { mkdir, rm, writeFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import { and, desc, eq } from 'drizzle-orm'
+import { and, desc, eq, sql } from 'drizzle-orm'
 import { buildManifest, PERSONAL_EVIDENCE, publicManifest, type Manifest } from './manifest'
 import type { Readiness } from './readiness'
 import { renderDossier, type Attachment } from './render'
@@ -12,6 +12,7 @@ const sha256Hex = (b: Uint8Array | string) => createHash('sha256').update(b).dig
 export async function issueDossier(eventId: number, attemptId: number, userId: number, distanceId?: number) {
   await attemptOfEvent(eventId, attemptId)
   const r = await readinessOf(eventId, attemptId, distanceId)
+  await refuseIfDecided(attemptId, r.distance.id)
   refuseUnlessReady(r)
   const previous = await latestDossier(attemptId, r.distance.id)
   const version = (previous?.version ?? 0) + 1
@@ -106,11 +107,37 @@ async function storeBlob(pdf: Uint8Array) {
 /** Stores the PDF in the blob store, then its row (no connection is held while the bytes move). */
 async function storeDossier(pdf: Uint8Array, values: NewDossier) {
   const pdfSha = await storeBlob(pdf)
-  const [row] = await useDb()
-    .insert(tables.dossiers)
-    .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })
-    .returning()
-  return row!
+  // Under the claim's lock, as a decision takes it: a version is never added beside a decided claim.
+  return useDb().transaction(async (tx) => {
+    await lockClaim(tx, values.attemptId, values.distanceId)
+    await refuseIfDecided(values.attemptId, values.distanceId, tx)
+    const [row] = await tx.insert(tables.dossiers)
+      .values({ ...values, pdfSha256: pdfSha, pdfSize: pdf.length })
+      .returning()
+    return row!
+  })
+}
+
+/** One writer at a time on a claim (an attempt over one distance): a new version, a submission or a decision. */
+export async function lockClaim(tx: Tx, attemptId: number, distanceId: number) {
+  await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`claim:${attemptId}:${distanceId}`}, 0))`)
+}
+
+/**
+ * Decided is final: once a version of a claim is ratified, no new version of it is built or submitted and no other
+ * version is decided. (A refused claim may be corrected and submitted again as a new version.)
+ */
+export async function refuseIfDecided(attemptId: number, distanceId: number, db: Tx | Db = useDb()) {
+  const [ratified] = await db.select({ version: tables.dossiers.version, at: tables.decisions.decidedAt })
+    .from(tables.decisions)
+    .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
+    .where(and(eq(tables.dossiers.attemptId, attemptId), eq(tables.dossiers.distanceId, distanceId),
+      eq(tables.decisions.decision, 'ratified')))
+    .limit(1)
+  if (ratified) {
+    throw conflict(`Version ${ratified.version} of this claim was ratified on ${ratified.at.toISOString()}: a decided `
+      + 'claim is final, so no new version is built, submitted or decided')
+  }
 }
 
 /** The latest version of an attempt's dossier for one claimed distance. */

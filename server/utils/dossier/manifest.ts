@@ -113,7 +113,7 @@ function manifestCourse({ day, distance }: Readiness) {
   }
 }
 
-/** A finding with the official's signed decision that set it aside, if one did. */
+/** A finding with the stewards' signed decision that set it aside, if one did. */
 const manifestFinding = (f: Readiness['live']['findings'][number]) => ({
   code: f.code,
   severity: f.severity,

@@ -1,6 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
-import { blocks, mayBeSetAside } from '#shared/rules/findings'
+import { blocks, mayBeSetAside, setAsideRule } from '#shared/rules/findings'
+import { stewardsQuorum } from '#shared/rules/profile'
 import { massClass } from '#shared/rules/checks'
 import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
 import { fromDecimal, sub, toFixed } from '#shared/rules/exact'
@@ -12,8 +13,16 @@ export interface ReadinessItem {
   met: boolean
   detail: string
   fix: string
-  /** For a failing finding: which, and whether an official may still set it aside. */
-  finding?: { code: string, runId: number | null, setAsideable: boolean }
+  /**
+   * For a failing finding: which, whether the stewards may still set it aside, and their decision awaiting
+   * signatures (the names so far, the reason, how many sign in all).
+   */
+  finding?: {
+    code: string
+    runId: number | null
+    setAsideable: boolean
+    pending: { id: number, signers: string[], reason: string, quorum: number } | null
+  }
 }
 
 /** Everything an attempt's file for one claimed distance (by default its first) is judged on, read once. */
@@ -151,26 +160,39 @@ function findingFix(at: string, code: string, attemptId: number) {
 
 /**
  * Each failing finding of the attempt and of its counted runs, one item each: it blocks the dossier
- * until it is resolved where it arose, or an official sets it aside with a signed, written reason.
+ * until it is resolved where it arose, or the appointed stewards set it aside
+ * with a signed, written reason (where the finding is theirs to set aside at all).
  */
-function findingItems({ at, live, counted, attemptId }: AttemptFile): ReadinessItem[] {
+function findingItems({ at, live, counted, attemptId, attempt, day }: AttemptFile): ReadinessItem[] {
   const all = [
     ...live.findings.map(f => ({ f, runId: null as number | null })),
     ...counted.flatMap(r => r.findings.map(f => ({ f, runId: r.id as number | null }))),
   // The machine against its class is its own item (classItems), with the inspection in force at the end.
   ].filter(({ f }) => f.severity === 'fail' && !f.code.startsWith('class.'))
-  return all.map(({ f, runId }) => ({
-    key: `finding-${f.code}-${runId ?? 'attempt'}`,
-    label: `${runId ? `Run #${runId}` : 'The attempt'}: ${f.message}`,
-    fix: findingFix(at, f.code, attemptId),
-    met: !blocks(f),
-    detail: f.setAside
-      ? `set aside by ${f.setAside.by}: ${f.setAside.reason}`
-      : mayBeSetAside(f)
-        ? 'blocks the dossier until it is resolved, or an official sets it aside with a signed, written reason'
-        : 'blocks the dossier: the result does not meet the profile\'s improvement rule',
-    finding: { code: f.code, runId, setAsideable: mayBeSetAside(f) && !f.setAside },
-  }))
+  const quorum = stewardsQuorum(attempt.profile)
+  const stewards = quorum === 1 ? 'an appointed steward sets' : `${quorum} appointed stewards set`
+  return all.map(({ f, runId }) => {
+    const awaiting = day.setAsides.filter(s => s.attemptId === attemptId && s.signers.length < quorum)
+    const proposed = f.setAside ? undefined : awaiting.find(s => s.code === f.code && s.runId === runId)
+    const pending = proposed
+      ? { id: proposed.id, signers: proposed.signers, reason: proposed.reason, quorum }
+      : null
+    return {
+      key: `finding-${f.code}-${runId ?? 'attempt'}`,
+      label: `${runId ? `Run #${runId}` : 'The attempt'}: ${f.message}`,
+      fix: findingFix(at, f.code, attemptId),
+      met: !blocks(f),
+      detail: f.setAside
+        ? `set aside by the stewards (${f.setAside.by}): ${f.setAside.reason}`
+        : pending
+          ? `the stewards' decision to set it aside is signed by ${pending.signers.join(' and ')}; it takes effect `
+          + `once ${quorum} stewards have signed (${quorum - pending.signers.length} more): ${pending.reason}`
+          : mayBeSetAside(f)
+            ? `blocks the dossier until it is resolved, or ${stewards} it aside with a signed, written reason`
+            : `blocks the dossier, and can never be set aside: ${setAsideRule(f.code).why}`,
+      finding: { code: f.code, runId, setAsideable: mayBeSetAside(f) && !f.setAside, pending },
+    }
+  })
 }
 
 /**

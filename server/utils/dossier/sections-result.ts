@@ -17,7 +17,7 @@ function validLine(m: Manifest) {
   if (!m.result.valid) return 'NO: see the computation\'s findings'
   const setAside = [...m.result.findings, ...m.runs.flatMap(r => r.findings ?? [])].filter(f => f.setAside).length
   return setAside
-    ? `yes: ${setAside} failing finding(s) set aside by an official's signed decision, printed with the computation`
+    ? `yes: ${setAside} failing finding(s) set aside by a signed decision of the stewards, printed with the computation`
     : 'yes: no finding fails it'
 }
 
@@ -149,12 +149,13 @@ function renderPairResult(L: PdfLayout, m: Manifest) {
   })
 }
 
-/** A finding, and beside it the official's signed decision that set it aside. */
+/** A finding, and beside it the stewards' signed decision that set it aside. */
 function renderFinding(L: PdfLayout, f: Manifest['result']['findings'][number]) {
   L.text(`Finding ${f.code}${f.severity === 'fail' ? ' (fails the profile)' : ''}: ${f.message}`, { color: 'grey' })
   if (f.setAside) {
     L.text(
-      `SET ASIDE by ${f.setAside.by}, ${f.setAside.at}, signed decision #${f.setAside.id}: ${f.setAside.reason}`,
+      `SET ASIDE by a decision of the stewards (${f.setAside.by}), ${f.setAside.at}, signed decision `
+      + `#${f.setAside.id}: ${f.setAside.reason}`,
       { indent: 10, bold: true },
     )
   }

@@ -77,6 +77,15 @@ async function refuseUnderProtest(tx: Tx, d: { attemptId: number, createdAt: Dat
   }
 }
 
+/** Only the latest version of a claim is submitted or decided: an older one was replaced by the team. */
+async function refuseIfSuperseded(d: { attemptId: number, distanceId: number, version: number }) {
+  const latest = await latestDossier(d.attemptId, d.distanceId)
+  if (latest && latest.version !== d.version) {
+    throw conflict(`Version ${d.version} is superseded by version ${latest.version}: only the latest version of a `
+      + 'claim is submitted or decided')
+  }
+}
+
 async function dossierRow(id: number) {
   const [d] = await useDb().select().from(tables.dossiers).where(eq(tables.dossiers.id, id))
   if (!d) throw notFound('No such dossier')
@@ -101,18 +110,18 @@ const emailsOf = async (eventId: number, role: 'official' | 'team', teamId?: num
 /** The team submits a sealed dossier: recorded first, then the officials are e-mailed the PDF. */
 export async function submitDossier(dossierId: number, userId: number) {
   const d = await dossierRow(dossierId)
-  const latest = await latestDossier(d.attemptId, d.distanceId)
-  if (latest!.id !== d.id)
-    throw createError({
-      statusCode: 409,
-      statusMessage: `Version ${d.version} is superseded by version ${latest!.version}; submit that one`,
-    })
-  const [row] = await useDb()
-    .insert(tables.submissions)
-    .values({ dossierId, submittedBy: userId })
-    .onConflictDoNothing()
-    .returning()
-  if (!row) throw conflict('This dossier has already been submitted')
+  const row = await useDb().transaction(async (tx) => {
+    await lockClaim(tx, d.attemptId, d.distanceId)
+    await refuseIfSuperseded(d)
+    await refuseIfDecided(d.attemptId, d.distanceId, tx)
+    const [inserted] = await tx
+      .insert(tables.submissions)
+      .values({ dossierId, submittedBy: userId })
+      .onConflictDoNothing()
+      .returning()
+    if (!inserted) throw conflict('This dossier has already been submitted')
+    return inserted
+  })
   const m = d.manifest as {
     entry: { machineName: string, teamName: string, className: string, distanceLabel: string }
     result: { kmh: string, mph: string }
@@ -169,15 +178,19 @@ export async function decideDossier(
     .from(tables.submissions)
     .where(eq(tables.submissions.dossierId, dossierId))
   if (!submitted) throw conflict('This dossier has not been submitted')
+  const act = `${input.decision === 'ratified' ? 'ratify' : 'refuse'} this team's claim`
+  const teamId = await teamOfAttemptIn(useDb(), d.attemptId)
+  await refuseConflicted(useDb(), { eventId: d.eventId, userId: user.id }, [teamId], act)
   const proof = await signerProof(user.id, input)
   const decision = await useDb().transaction(async (tx) => {
-    await tx.select({ id: tables.dossiers.id }).from(tables.dossiers).where(eq(tables.dossiers.id, dossierId))
-      .for('update')
+    await lockClaim(tx, d.attemptId, d.distanceId)
     await refuseIfWithdrawn(dossierId, tx)
-    if (input.decision === 'ratified') await refuseUnderProtest(tx, d)
     const [existing] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
     if (existing)
       throw conflict(`This dossier was already ${existing.decision}`)
+    await refuseIfSuperseded(d)
+    await refuseIfDecided(d.attemptId, d.distanceId, tx)
+    if (input.decision === 'ratified') await refuseUnderProtest(tx, d)
     const content = decisionContent(d, input)
     const sig = await insertSignature(tx, {
       proof,
@@ -202,12 +215,6 @@ export async function decideDossier(
     if (input.decision === 'ratified') await standFromRatification(tx, d, row!.decidedAt)
     return row!
   })
-  const teamId = await useDb()
-    .select({ t: tables.entries.teamId })
-    .from(tables.attempts)
-    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
-    .where(eq(tables.attempts.id, d.attemptId))
-    .then(r => r[0]!.t)
   const m = d.manifest as { entry: { machineName: string }, result: { kmh: string } }
   await queueMail(
     (await emailsOf(d.eventId, 'team', teamId)).map(to => ({
@@ -298,6 +305,9 @@ export async function homologate(
   input: HomologationInput,
   user: { id: number, name: string },
 ) {
+  const claim = await dossierRow(dossierId)
+  await refuseConflicted(useDb(), { eventId: claim.eventId, userId: user.id },
+    [await teamOfAttemptIn(useDb(), claim.attemptId)], 'enter the homologation of this team\'s record')
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [d] = await tx.select().from(tables.dossiers).where(eq(tables.dossiers.id, dossierId)).for('update')

@@ -6,6 +6,7 @@ import { classesOf, classProblems, findClass, type Division } from '#shared/rule
 import { formatTimeOfDay } from '#shared/rules/timing'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { blocks, withSetAsides, type Finding } from '#shared/rules/findings'
+import { stewardsQuorum } from '#shared/rules/profile'
 import { publishedInMs } from '#shared/rules/units'
 import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import type { EventDay } from './load'
@@ -84,9 +85,11 @@ function attemptSetting(ix: DayIndex, attempt: Attempt) {
   const e = ix.entryById.get(attempt.entryId)!
   const claims = e.entry.distanceIds.map(id => ix.distanceById.get(id)).filter(d => d !== undefined)
   const course = ix.courseById.get(claims[0]!.courseId)!
+  // A set-aside counts once the profile's quorum of stewards has signed it; it is then theirs, by every name.
+  const quorum = stewardsQuorum(attempt.profile)
   const setAsides = ix.day.setAsides
-    .filter(s => s.attemptId === attempt.id)
-    .map(s => ({ ...s, at: s.createdAt.toISOString() }))
+    .filter(s => s.attemptId === attempt.id && s.signers.length >= quorum)
+    .map(s => ({ ...s, by: s.signers.join(' and '), at: s.createdAt.toISOString() }))
   return { e, claims, course, setAsides }
 }
 type Setting = ReturnType<typeof attemptSetting>

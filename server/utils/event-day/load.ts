@@ -84,7 +84,10 @@ function sheetSignatureRows(eventId: number) {
     .orderBy(asc(s.id))
 }
 
-/** The officials' signed set-asides of failing findings, with the official's name. */
+/**
+ * The stewards' set-asides of failing findings, with the names of the stewards who signed each, first signer
+ * first: one takes effect once as many have signed as the attempt's profile asks (its stewards' quorum).
+ */
 function setAsideRows(eventId: number) {
   const t = tables
   return useDb()
@@ -98,6 +101,9 @@ function setAsideRows(eventId: number) {
       signatureId: t.setAsides.signatureId,
       createdAt: t.setAsides.createdAt,
       by: t.users.name,
+      signers: sql<string[]>`coalesce((select array_agg(u.name order by s.id) from ${t.signatures} s
+        join ${t.users} u on u.id = s.signer_id
+        where s.kind = 'set-aside' and s.subject_id = ${t.setAsides.id}), '{}')`,
     })
     .from(t.setAsides)
     .innerJoin(t.users, eq(t.users.id, t.setAsides.officialId))

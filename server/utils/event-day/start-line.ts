@@ -124,6 +124,12 @@ export const isClerkOfCourse = (eventId: number, userId: number, db: Tx | Db = u
  * event's day, with a signed reason. Only a person appointed clerk of the course (in force) can.
  */
 export async function overrideStartLine(entryId: number, input: OverrideInput, user: { id: number }) {
+  const [entry] = await useDb().select({ eventId: tables.entries.eventId, teamId: tables.entries.teamId })
+    .from(tables.entries).where(eq(tables.entries.id, entryId))
+  if (entry) {
+    await refuseConflicted(useDb(), { eventId: entry.eventId, userId: user.id }, [entry.teamId],
+      'let this team\'s entry start')
+  }
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [row] = await tx.select({ entry: tables.entries, event: tables.events }).from(tables.entries)

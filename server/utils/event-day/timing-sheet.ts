@@ -105,6 +105,8 @@ export async function signTimingSheet(input: {
   reopen?: string
   drawingPng?: string
 }) {
+  await refuseConflicted(useDb(), { eventId: input.eventId, userId: input.userId },
+    [await teamOfAttemptIn(useDb(), input.attemptId)], 'sign or reopen the timing sheet of this team\'s attempt')
   const proof = await signerProof(input.userId, input)
   return useDb().transaction(async (tx) => {
     const { signed } = await lockAttempt(tx, input.attemptId)

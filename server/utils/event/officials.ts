@@ -14,6 +14,9 @@ export async function appoint(eventId: number, fn: OfficialFunction, userId: num
   const [member] = await useDb().select({ id: tables.memberships.userId }).from(tables.memberships)
     .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.userId, userId)))
   if (!member) throw fieldInvalid('userId', 'holds no role at this event: invite the person first')
+  if (fn === 'steward' || fn === 'observer') {
+    await refuseTeamMemberAsJudge(useDb(), eventId, userId, OFFICIAL_FUNCTION_LABELS[fn].toLowerCase())
+  }
   if (await holdsAppointment(eventId, userId, fn)) {
     throw conflict(`This person is already ${OFFICIAL_FUNCTION_LABELS[fn].toLowerCase()}`)
   }

@@ -328,6 +328,13 @@ export async function signInspection(
   user: { id: number },
   demo: { signedAt?: Date } = {},
 ) {
+  const [of] = await useDb().select({ eventId: tables.inspections.eventId, teamId: tables.entries.teamId })
+    .from(tables.inspections).innerJoin(tables.entries, eq(tables.entries.id, tables.inspections.entryId))
+    .where(eq(tables.inspections.id, inspectionId))
+  if (of) {
+    await refuseConflicted(useDb(), { eventId: of.eventId, userId: user.id }, [of.teamId],
+      'sign the inspection of this team\'s machine')
+  }
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     // The content is read under the same row lock as the signature: what is signed is what is stored.

@@ -22,6 +22,8 @@ export async function recordPostRunCheck(
   input: PostRunCheckInput,
   user: { id: number, name: string },
 ) {
+  await refuseConflicted(useDb(), { eventId, userId: user.id }, [await teamOfAttemptIn(useDb(), attemptId)],
+    'sign the post-run check of this team\'s attempt')
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [attempt] = await tx.select().from(tables.attempts)

@@ -21,6 +21,11 @@ export async function suspendMachine(
   input: SuspensionInput,
   user: { id: number, name: string },
 ) {
+  const [machine] = await useDb().select({ teamId: tables.machines.teamId }).from(tables.machines)
+    .where(eq(tables.machines.id, machineId))
+  if (machine) {
+    await refuseConflicted(useDb(), { eventId, userId: user.id }, [machine.teamId], 'suspend this team\'s machine')
+  }
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [row] = await tx.insert(tables.machineSuspensions)

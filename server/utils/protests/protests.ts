@@ -133,6 +133,10 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
   if (!found.appealOf && !(await holdsAppointment(found.eventId, user.id, 'steward'))) {
     throw forbidden('Only a steward appointed at this event decides a protest')
   }
+  // Neither the team protested against nor the team that protested may judge it.
+  await refuseConflicted(useDb(), { eventId: found.eventId, userId: user.id },
+    [await teamOfAttemptIn(useDb(), found.attemptId), found.teamId],
+    `decide ${found.appealOf ? 'an appeal' : 'a protest'} that concerns this team`)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     const [locked] = await tx.select().from(tables.protests).where(eq(tables.protests.id, protestId)).for('update')

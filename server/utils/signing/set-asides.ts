@@ -1,5 +1,7 @@
-import { and, eq } from 'drizzle-orm'
-import { mayBeSetAside } from '#shared/rules/findings'
+import { and, eq, isNull } from 'drizzle-orm'
+import { setAsideRule } from '#shared/rules/findings'
+import { stewardsQuorum } from '#shared/rules/profile'
+import type { SignSheetInput } from '#shared/schemas/event-day'
 import type { SetAsideInput } from '#shared/schemas/inspection'
 
 type SetAsideRow = typeof tables.setAsides.$inferSelect
@@ -37,18 +39,37 @@ async function currentFinding(eventId: number, attemptId: number, input: SetAsid
   const { finding, live } = found.find(x => x.finding) ?? { finding: undefined, live: first }
   const where = input.runId === null ? 'attempt' : 'run'
   if (!finding) throw fieldInvalid('code', `is not a finding of this ${where} now`)
-  if (!mayBeSetAside(finding)) {
-    throw fieldInvalid('code', 'cannot be set aside: only a failing finding about how the runs were made or '
-      + 'measured can be, never whether the result beats the record')
-  }
+  const rule = setAsideRule(finding.code)
+  if (finding.severity !== 'fail') throw fieldInvalid('code', 'is not a failing finding: it blocks nothing')
+  if (rule.authority === 'never') throw fieldInvalid('code', `can never be set aside: ${rule.why} (${rule.source})`)
   if (finding.setAside) throw conflict(`This finding was already set aside by ${finding.setAside.by}`)
   return { finding, teamId: live.entry.teamId }
 }
 
+/** Only a steward appointed at the event signs a decision of the stewards; asked before the password. */
+async function refuseUnlessSteward(eventId: number, userId: number) {
+  if (!(await holdsAppointment(eventId, userId, 'steward'))) {
+    throw forbidden('Only a steward appointed at this event signs a set-aside: it is a decision of the stewards')
+  }
+}
+
+/** The set-aside's signers so far and how many the attempt's profile asks for. */
+async function signersOf(tx: Tx, setAsideId: number) {
+  return tx.select({ signerId: tables.signatures.signerId }).from(tables.signatures)
+    .where(and(eq(tables.signatures.kind, 'set-aside'), eq(tables.signatures.subjectId, setAsideId)))
+}
+
+const quorumOf = async (tx: Tx, attemptId: number) => {
+  const [a] = await tx.select({ profile: tables.attempts.profile }).from(tables.attempts)
+    .where(eq(tables.attempts.id, attemptId))
+  return stewardsQuorum(a!.profile)
+}
+
 /**
- * An official sets a failing finding aside with a written reason, signed with the password: the
- * decision is kept with the finding's words, printed in the dossier beside it, and never edited.
- * Checked under a lock on the attempt, so the same finding is set aside once.
+ * A steward proposes setting a failing finding aside with a written reason, signed: a decision of the stewards that
+ * takes effect once the profile's quorum of appointed stewards has signed it (see cosignSetAside), then printed in
+ * the dossier beside the finding with every name, and never edited. Only a finding the rules let the stewards set
+ * aside; never by a steward of the attempt's team. Checked under a lock on the attempt, so one decision per finding.
  */
 export async function setAsideFinding(
   eventId: number,
@@ -56,19 +77,21 @@ export async function setAsideFinding(
   input: SetAsideInput,
   user: { id: number, name: string },
 ) {
+  await refuseUnlessSteward(eventId, user.id)
+  await refuseConflicted(useDb(), { eventId, userId: user.id }, [await teamOfAttemptIn(useDb(), attemptId)],
+    'set aside a finding of this team\'s attempt')
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts)
       .where(and(eq(tables.attempts.id, attemptId), eq(tables.attempts.eventId, eventId)))
       .for('update')
-    const { finding, teamId } = await currentFinding(eventId, attemptId, input)
-    const inTeam = await tx.select({ id: tables.memberships.id }).from(tables.memberships).where(and(
-      eq(tables.memberships.eventId, eventId),
-      eq(tables.memberships.userId, user.id),
-      eq(tables.memberships.teamId, teamId),
-    ))
-    if (inTeam.length) {
-      throw conflict('An official who holds a role in the attempt\'s team cannot decide on its findings')
+    const { finding } = await currentFinding(eventId, attemptId, input)
+    const [proposed] = await tx.select({ id: tables.setAsides.id }).from(tables.setAsides).where(and(
+      eq(tables.setAsides.attemptId, attemptId), eq(tables.setAsides.code, finding.code),
+      input.runId === null ? isNull(tables.setAsides.runId) : eq(tables.setAsides.runId, input.runId)))
+    if (proposed) {
+      throw conflict(`The stewards' decision #${proposed.id} on this finding is awaiting signatures: sign that one`,
+        { setAsideId: proposed.id })
     }
     const [row] = await tx.insert(tables.setAsides).values({
       eventId,
@@ -91,6 +114,40 @@ export async function setAsideFinding(
     })
     const [signed] = await tx.update(tables.setAsides).set({ signatureId: signature.id })
       .where(eq(tables.setAsides.id, row!.id)).returning()
-    return signed!
+    return { ...signed!, signers: 1, quorum: await quorumOf(tx, attemptId) }
+  })
+}
+
+/**
+ * Another appointed steward signs a proposed set-aside, the same words: refused from one who already signed it, from
+ * a steward of the attempt's team, and once the quorum is reached (the decision is made).
+ */
+export async function cosignSetAside(setAsideId: number, input: SignSheetInput, user: { id: number, name: string }) {
+  const [found] = await useDb().select().from(tables.setAsides).where(eq(tables.setAsides.id, setAsideId))
+  if (!found) throw notFound('No such set-aside')
+  await refuseUnlessSteward(found.eventId, user.id)
+  await refuseConflicted(useDb(), { eventId: found.eventId, userId: user.id },
+    [await teamOfAttemptIn(useDb(), found.attemptId)], 'set aside a finding of this team\'s attempt')
+  const proof = await signerProof(user.id, input)
+  return useDb().transaction(async (tx) => {
+    await tx.select({ id: tables.attempts.id }).from(tables.attempts).where(eq(tables.attempts.id, found.attemptId))
+      .for('update')
+    const signers = await signersOf(tx, setAsideId)
+    const quorum = await quorumOf(tx, found.attemptId)
+    if (signers.some(s => s.signerId === user.id)) throw conflict('You have already signed this decision')
+    if (signers.length >= quorum) throw conflict('This decision already has the signatures it needs')
+    const [proposer] = await tx.select({ name: tables.users.name }).from(tables.users)
+      .where(eq(tables.users.id, found.officialId))
+    const signature = await insertSignature(tx, {
+      proof,
+      kind: 'set-aside',
+      subjectId: found.id,
+      eventId: found.eventId,
+      signerId: user.id,
+      typedName: input.typedName,
+      nameNote: input.nameNote,
+      content: setAsideContent(found, proposer!.name),
+    })
+    return { ...found, signatureId: signature.id, signers: signers.length + 1, quorum }
   })
 }

@@ -45,15 +45,7 @@ export async function createStatement(
  */
 async function assertMayWitness(tx: Tx, eventId: number, attempt: { id: number, teamId: number }, userId: number) {
   await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`statements:${attempt.id}`}, 0))`)
-  const inTeam = await tx
-    .select({ id: tables.memberships.id })
-    .from(tables.memberships)
-    .where(and(
-      eq(tables.memberships.eventId, eventId),
-      eq(tables.memberships.userId, userId),
-      eq(tables.memberships.teamId, attempt.teamId),
-    ))
-  if (inTeam.length) throw conflict('An official who holds a role in the attempt\'s team cannot witness it')
+  await refuseConflicted(tx, { eventId, userId }, [attempt.teamId], 'witness this team\'s attempt')
   const mine = await tx
     .select({ id: tables.statements.id, withdrawsId: tables.statements.withdrawsId })
     .from(tables.statements)

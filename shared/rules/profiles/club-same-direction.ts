@@ -1,6 +1,6 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
-import { briefingRequired, clubLicence, clubProtests } from './officials-rules'
+import { briefingRequired, clubLicence, clubProtests, clubStewards } from './officials-rules'
 
 const CLUB_PAGES = 'club record procedure pages'
 
@@ -72,6 +72,7 @@ export const clubSameDirection: RuleProfile = {
   licence: clubLicence,
   briefing: briefingRequired,
   protests: clubProtests,
+  stewards: clubStewards,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

@@ -1,5 +1,5 @@
 import type { RuleProfile } from '../profile'
-import { briefingRequired, internationalLicence, internationalProtests } from './officials-rules'
+import { briefingRequired, internationalLicence, internationalProtests, internationalStewards } from './officials-rules'
 import type { RecordClass } from '../classes'
 
 const electricCar = (words: string, massKg: { over: number, upTo: number | null }): RecordClass =>
@@ -70,6 +70,7 @@ export const intlAutomobile: RuleProfile = {
   licence: internationalLicence,
   briefing: briefingRequired,
   protests: internationalProtests,
+  stewards: internationalStewards,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

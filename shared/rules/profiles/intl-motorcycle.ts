@@ -1,6 +1,6 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
-import { briefingRequired, internationalLicence, internationalProtests } from './officials-rules'
+import { briefingRequired, internationalLicence, internationalProtests, internationalStewards } from './officials-rules'
 
 const FIM_PAGE = 'FIM world records page'
 
@@ -69,6 +69,7 @@ export const intlMotorcycle: RuleProfile = {
   licence: internationalLicence,
   briefing: briefingRequired,
   protests: internationalProtests,
+  stewards: internationalStewards,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

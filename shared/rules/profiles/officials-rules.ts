@@ -56,3 +56,19 @@ export const clubProtests: Sourced<ProtestRule> = {
     + '(common practice, not checked against a rulebook: a setting of the profile)',
   certainty: 'common practice',
 }
+
+/** A panel of stewards deciding by majority: two of the three sign (sporting codes, from memory). */
+export const internationalStewards: Sourced<{ quorum: number }> = {
+  value: { quorum: 2 },
+  source: 'the stewards of a meeting form a panel, commonly of three, and decide by majority (international sporting '
+    + 'codes, from memory; confirm in the code in force)',
+  certainty: 'from memory',
+}
+
+/** A club meet's steward, one appointed by the club (a setting of the profile). */
+export const clubStewards: Sourced<{ quorum: number }> = {
+  value: { quorum: 1 },
+  source: 'a club meet names one steward for its decisions (common practice, not checked against a rulebook: a '
+    + 'setting of the profile)',
+  certainty: 'common practice',
+}

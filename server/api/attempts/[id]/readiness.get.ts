@@ -12,6 +12,8 @@ export default defineEventHandler(async (event) => {
     ready: r.ready,
     timeZone: r.day.event.timeZone,
     items: r.items,
+    /** Whether the person asking is a steward appointed at the event, who may sign a set-aside. */
+    steward: await holdsAppointment(access.eventId, access.user.id, 'steward'),
     result: r.live.result,
     entry: r.live.entry,
     distances: r.live.distances.map(d => ({ distanceId: d.distanceId, label: d.label, start: d.start })),

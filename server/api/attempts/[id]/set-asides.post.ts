@@ -1,6 +1,7 @@
 import { setAsideSchema } from '#shared/schemas/inspection'
 
-// An official sets a failing finding of the attempt aside: signed, with the reason in writing.
+// An appointed steward proposes setting a failing finding aside: signed, with the reason in writing; it takes
+// effect once the profile's quorum of stewards has signed.
 export default defineEventHandler(async (event) => {
   const { recordId, eventId, user } = await requireRoleOn(event, 'attempt', ['official'])
   const input = await validBody(event, setAsideSchema)
