@@ -178,4 +178,31 @@ describe('a team corrects its entry', () => {
     expect(history.before.rider.licenceNo).toBe('DEMO-T-1')
     expect((await call('POST', url, { cookie: event.cookie.organiser, body: { approve: false } })).status).toBe(409)
   })
+
+  it('a fresh entry sharing the rider and machine of one that has run changes them only through the organiser, with history on both', async () => {
+    const ran = (await changes(event.cookie.team)).entries.find((e: { id: number }) => e.id === entryId)
+    const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.team })).body
+    const distanceId = setup.distances.find((d: { label: string }) => d.label === 'Flying kilometre').id
+    const shared = await call('POST', `/api/events/${event.eventId}/entries`, {
+      cookie: event.cookie.team,
+      body: { machineId: ran.machineId, riderId: ran.riderId, className: 'Electric, partially streamlined', distanceId },
+    })
+    expect(shared.status, JSON.stringify(shared.body)).toBe(201)
+    // The fresh entry has not run, but the rows it names have: the change waits, and nothing changes meanwhile.
+    const bare = await call('PATCH', `/api/entries/${shared.body.id}`, { cookie: event.cookie.team, body: details('LIC-9') })
+    expect(bare.status).toBe(422)
+    expect(bare.body.data.issues[0].path).toBe('reason')
+    const asked = await call('PATCH', `/api/entries/${shared.body.id}`, { cookie: event.cookie.team, body: details('LIC-9', 'new licence card') })
+    expect(asked.body).toMatchObject({ status: 'requested' })
+    const mid = await changes(event.cookie.team)
+    expect(mid.entries.find((e: { id: number }) => e.id === entryId).rider.licenceNo).toBe('LIC-3')
+    const approved = await call('POST', `/api/change-requests/${asked.body.requestId}/decision`, { cookie: event.cookie.organiser, body: { approve: true } })
+    expect(approved.status, JSON.stringify(approved.body)).toBe(200)
+    const after = await changes(event.cookie.organiser)
+    expect(after.entries.find((e: { id: number }) => e.id === entryId).rider.licenceNo).toBe('LIC-9')
+    const onRan = after.history.find((h: { subjectId: number, after: any }) => h.subjectId === entryId && h.after.rider.licenceNo === 'LIC-9')
+    expect(onRan.reason).toBe(`new licence card (approved) (made through entry #${shared.body.id}, which shares it)`)
+    expect(onRan.before.rider.licenceNo).toBe('LIC-3')
+    expect(after.history.some((h: { subjectId: number, after: any }) => h.subjectId === shared.body.id && h.after.rider.licenceNo === 'LIC-9')).toBe(true)
+  })
 })

@@ -306,7 +306,9 @@ describe('what was signed stays as signed', () => {
       const item = (await ready()).items.find((i: any) => i.key === 'timing-sheet')
       expect(item.met).toBe(false)
       expect(item.detail).toContain('differs from what was signed')
-      expect((await call('POST', `/api/attempts/${attempt.id}/dossiers`, { cookie: cookie.team })).status).toBe(422)
+      expect((await ready()).ready).toBe(false)
+      // (Its claims are decided, and decided is final: no new dossier of it is built whatever readiness says.)
+      expect((await call('POST', `/api/attempts/${attempt.id}/dossiers`, { cookie: cookie.team })).status).toBe(409)
     }
     finally {
       await db.query('update events set name = $1 where id = $2', [name, eventId])

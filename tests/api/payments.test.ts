@@ -107,6 +107,19 @@ describe('fees', () => {
     expect(csv.split('\n')[0]).toContain('Receipt,Paid at (UTC),Team,Machine')
     expect(csv).toMatch(/Paying Sprite,\d+,Entry fee,EUR,150\.00,150\.00,0\.00,paid/)
   })
+
+  it('three whole refunds sent at once refund the payment once: the others are refused', async () => {
+    const list = (await call('GET', `/api/events/${event.eventId}/payments`, { cookie: event.cookie.organiser })).body
+    const other = list.payments.find((p: { status: string, refundedMinor: number }) => p.status === 'paid' && p.refundedMinor === 0)
+    const answers = await Promise.all([1, 2, 3].map(i => call('POST', `/api/payments/${other.id}/refunds`, {
+      cookie: event.cookie.organiser, body: { reason: `cancelled, request ${i}` },
+    })))
+    expect(answers.map(a => a.status).sort()).toEqual([201, 422, 422])
+    for (const refused of answers.filter(a => a.status === 422)) expect(refused.body.data.issues[0].path).toBe('amountMinor')
+    const refunded = async () => (await call('GET', `/api/events/${event.eventId}/payments`, { cookie: event.cookie.organiser })).body
+      .payments.find((p: { id: number }) => p.id === other.id).refundedMinor
+    await expect.poll(refunded).toBe(other.amountMinor)
+  })
 })
 
 describe('the webhook', () => {

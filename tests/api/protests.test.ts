@@ -115,11 +115,14 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
     expect(stale.status).toBe(409)
     expect(stale.body.message).toContain(`Protest #${p.id} was decided after this dossier was sealed`)
 
-    // A party appeals within the appeal deadline; the appeal is open until its decision is recorded.
-    const appeal = await call('POST', `/api/protests/${p.id}/appeals`, {
+    // A party appeals within the appeal deadline; the appeal is open until its decision is recorded. Three sent at
+    // once are one appeal: the others are refused.
+    const appeals = await Promise.all([1, 2, 3].map(() => call('POST', `/api/protests/${p.id}/appeals`, {
       cookie: event.cookie.team, body: { grounds: 'The stewards did not hear the backup timekeeper.', ...sign('Test team') },
-    })
-    expect(appeal.status, JSON.stringify(appeal.body)).toBe(201)
+    })))
+    expect(appeals.map(a => a.status).sort()).toEqual([201, 409, 409])
+    expect(appeals.find(a => a.status === 409)!.body.statusMessage).toBe('This decision is already under appeal')
+    const appeal = appeals.find(a => a.status === 201)!
     expect(appeal.body.appealOf).toBe(p.id)
     expect((await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).status).toBe(422)
     expect((await decide(appeal.body.id, event.cookie.organiser, 'Test Organiser')).status).toBe(403)

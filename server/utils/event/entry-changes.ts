@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, asc, desc, eq, inArray, or } from 'drizzle-orm'
 import type { ChangeDecisionInput, EntryDetailsInput } from '#shared/schemas/event-day'
 
 /** The entry with its rider and machine, locked; 404 when it is not of this event. */
@@ -10,11 +10,22 @@ async function lockEntry(tx: Tx, entryId: number) {
   return { entry, rider: rider!, machine: machine! }
 }
 
-/** Whether any run of the entry has left the line (an aborted one too: the entry has started). */
-async function hasRun(tx: Tx, entryId: number) {
+/**
+ * Every entry that shares the entry's rider or machine (the rows are shared: a change of one is a change of all),
+ * itself included, locked in id order.
+ */
+async function sharingEntries(tx: Tx, current: { rider: { id: number }, machine: { id: number } }) {
+  const rows = await tx.select({ id: tables.entries.id }).from(tables.entries)
+    .where(or(eq(tables.entries.riderId, current.rider.id), eq(tables.entries.machineId, current.machine.id)))
+    .orderBy(asc(tables.entries.id)).for('update')
+  return rows.map(r => r.id)
+}
+
+/** Whether any run of these entries has left the line (an aborted one too: the entry has started). */
+async function hasRun(tx: Tx, entryIds: number[]) {
   const [run] = await tx.select({ id: tables.runs.id }).from(tables.runs)
     .innerJoin(tables.attempts, eq(tables.attempts.id, tables.runs.attemptId))
-    .where(eq(tables.attempts.entryId, entryId)).limit(1)
+    .where(inArray(tables.attempts.entryId, entryIds)).limit(1)
   return !!run
 }
 
@@ -36,27 +47,30 @@ async function apply(tx: Tx, current: Awaited<ReturnType<typeof lockEntry>>, cha
   reason: string) {
   await tx.update(tables.riders).set(changes.rider).where(eq(tables.riders.id, current.rider.id))
   await tx.update(tables.machines).set(changes.machine).where(eq(tables.machines.id, current.machine.id))
-  await tx.insert(tables.setupChanges).values({
+  // The history of every entry the shared rider or machine belongs to: each shows what changed under it.
+  const affected = await sharingEntries(tx, current)
+  await tx.insert(tables.setupChanges).values(affected.map(entryId => ({
     eventId: current.entry.eventId,
-    subject: 'entry',
-    subjectId: current.entry.id,
-    action: 'edit',
+    subject: 'entry' as const,
+    subjectId: entryId,
+    action: 'edit' as const,
     before: detailsOf(current),
     after: { rider: changes.rider, machine: changes.machine },
-    reason,
+    reason: entryId === current.entry.id ? reason : `${reason} (made through entry #${current.entry.id}, which shares it)`,
     changedBy: by,
-  })
+  })))
 }
 
 /**
  * A team corrects its entry: at once until its first run; after it, the change waits for the organiser
- * (a request, with the reason), since results and inspection already rest on what was entered.
+ * (a request, with the reason), since results and inspection already rest on what was entered. The rider and
+ * machine are rows shared by every entry that names them: once any of those has run, the change waits too.
  */
 export async function changeEntry(entryId: number, teamIds: number[], input: EntryDetailsInput, userId: number) {
   return useDb().transaction(async (tx) => {
     const current = await lockEntry(tx, entryId)
     if (!teamIds.includes(current.entry.teamId)) throw notFound('No such entry')
-    if (!(await hasRun(tx, entryId))) {
+    if (!(await hasRun(tx, await sharingEntries(tx, current)))) {
       await apply(tx, current, input, userId, input.reason || 'corrected by the team before its first run')
       return { status: 'applied' as const }
     }

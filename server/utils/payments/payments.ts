@@ -174,23 +174,26 @@ export async function refundPayment(
   input: { amountMinor?: number, reason: string },
   userId: number,
 ) {
-  const [p] = await useDb().select().from(tables.payments).where(eq(tables.payments.id, paymentId))
-  if (!p) throw notFound('No such payment')
-  if (p.status !== 'paid') throw conflict('Only a paid fee is refunded')
-  const pending = await useDb().select({ amount: tables.refunds.amountMinor }).from(tables.refunds)
-    .where(and(eq(tables.refunds.paymentId, p.id), eq(tables.refunds.status, 'pending')))
-  const left = p.amountMinor - p.refundedMinor - pending.reduce((t, r) => t + r.amount, 0)
-  const amount = input.amountMinor ?? left
-  if (amount <= 0 || amount > left) {
-    throw fieldInvalid('amountMinor', `must be more than nothing and at most ${formatMoney(left, p.currency)}`)
-  }
-  const refund = await usePaymentProvider().refunds.create({
-    payment_intent: p.providerPaymentId!, amount, metadata: { paymentId: String(p.id) },
+  // One refund of a payment at a time, under a lock on it: what is left is counted with every refund before.
+  return useDb().transaction(async (tx) => {
+    const [p] = await tx.select().from(tables.payments).where(eq(tables.payments.id, paymentId)).for('update')
+    if (!p) throw notFound('No such payment')
+    if (p.status !== 'paid') throw conflict('Only a paid fee is refunded')
+    const pending = await tx.select({ amount: tables.refunds.amountMinor }).from(tables.refunds)
+      .where(and(eq(tables.refunds.paymentId, p.id), eq(tables.refunds.status, 'pending')))
+    const left = p.amountMinor - p.refundedMinor - pending.reduce((t, r) => t + r.amount, 0)
+    const amount = input.amountMinor ?? left
+    if (amount <= 0 || amount > left) {
+      throw fieldInvalid('amountMinor', `must be more than nothing and at most ${formatMoney(left, p.currency)}`)
+    }
+    const refund = await usePaymentProvider().refunds.create({
+      payment_intent: p.providerPaymentId!, amount, metadata: { paymentId: String(p.id) },
+    })
+    const [row] = await tx.insert(tables.refunds).values({
+      paymentId: p.id, amountMinor: amount, reason: input.reason, providerRefundId: refund.id, createdBy: userId,
+    }).returning()
+    return row!
   })
-  const [row] = await useDb().insert(tables.refunds).values({
-    paymentId: p.id, amountMinor: amount, reason: input.reason, providerRefundId: refund.id, createdBy: userId,
-  }).returning()
-  return row!
 }
 
 /** The organiser's view: every payment with its entry, refunds, and totals by fee. */

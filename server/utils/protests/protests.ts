@@ -43,8 +43,9 @@ const stewardEmails = async (eventId: number) => (await useDb().select({ email: 
     isNull(tables.appointments.endedAt)))).map(r => r.email)
 
 async function insertSigned(values: typeof tables.protests.$inferInsert, input: ProtestInput | AppealInput,
-  user: { id: number }, proof: SignerProof) {
+  user: { id: number }, proof: SignerProof, guard: (tx: Tx) => Promise<void> = async () => {}) {
   return useDb().transaction(async (tx) => {
+    await guard(tx)
     const [row] = await tx.insert(tables.protests).values(values).returning()
     const content = {
       eventId: row!.eventId, protest: row!.id, appealOf: row!.appealOf, attemptId: row!.attemptId, kind: row!.kind,
@@ -102,9 +103,6 @@ export async function lodgeAppeal(protestId: number, input: AppealInput, user: {
   if (!rule.appeal) throw conflict('The rule profile provides no appeal')
   const party = [protest.teamId, entry.teamId].find(t => teamIds.includes(t))
   if (party === undefined) throw forbidden('Only a party to the protest may appeal')
-  const [already] = await useDb().select({ id: tables.protests.id }).from(tables.protests)
-    .where(eq(tables.protests.appealOf, protestId))
-  if (already) throw conflict('This decision is already under appeal')
   const deadline = new Date(deadlineAfter(+protest.decidedAt, rule.appeal.deadline, event.timeZone))
   if (now > deadline) {
     throw conflict(`Too late: an appeal was due by ${clockTime(+deadline, event.timeZone)}; nothing was lodged`,
@@ -115,7 +113,14 @@ export async function lodgeAppeal(protestId: number, input: AppealInput, user: {
     eventId: protest.eventId, attemptId: protest.attemptId, appealOf: protest.id, kind: protest.kind,
     grounds: input.grounds, teamId: party, lodgedBy: user.id, lodgedAt: now, publishedAt: protest.decidedAt,
     deadline, feeNote: null,
-  }, input, user, proof)
+  }, input, user, proof, async (tx) => {
+    // One appeal per decision: checked under a lock on the protest, so appeals sent together are one.
+    await tx.select({ id: tables.protests.id }).from(tables.protests).where(eq(tables.protests.id, protestId))
+      .for('update')
+    const [already] = await tx.select({ id: tables.protests.id }).from(tables.protests)
+      .where(eq(tables.protests.appealOf, protestId))
+    if (already) throw conflict('This decision is already under appeal')
+  })
 }
 
 /**

@@ -14,6 +14,9 @@ export default defineEventHandler(async (event) => {
       id: e.entry.id,
       teamName: e.teamName,
       hasRun: ran.has(e.entry.id),
+      /** The rider and machine rows, which other entries may share. */
+      riderId: e.entry.riderId,
+      machineId: e.entry.machineId,
       rider: {
         name: e.rider.name, licenceNo: e.rider.licenceNo, licenceExpires: e.rider.licenceExpires,
         licenceGrade: e.rider.licenceGrade, medicalExpires: e.rider.medicalExpires,
