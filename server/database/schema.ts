@@ -20,7 +20,7 @@ import {
   varchar,
 } from 'drizzle-orm/pg-core'
 import type { RuleProfile } from '#shared/rules/profile'
-import type { ProtestKind, ProtestOutcome } from '#shared/rules/protests'
+import type { ProtestKind, ProtestOutcome, ProtestVoids } from '#shared/rules/protests'
 import type { PlanRequest } from '#shared/schemas/planner'
 import type { DeviceLayout } from '#shared/rules/device-file'
 import type { ChecklistTemplate } from '#shared/inspection/template'
@@ -1126,6 +1126,9 @@ export const protests = pgTable('protests', {
   decidedBy: integer('decided_by').references(() => users.id),
   decidedAt: timestamp('decided_at', { withTimezone: true }),
   decisionSignatureId: integer('decision_signature_id').references(() => signatures.id),
+  /** What the upheld decision makes void: nothing, the attempt's result, or the run named. */
+  voids: text('voids').$type<ProtestVoids>(),
+  voidRunId: integer('void_run_id').references(() => runs.id),
 })
 
 /** An attempt plan saved by a team, for one of its machines where it names one: private to the team. */

@@ -104,6 +104,13 @@ export const SET_ASIDE_RULES: SetAsideRule[] = [
     certainty: 'common practice',
   },
   {
+    codes: ['protest.'],
+    authority: 'never',
+    why: 'the stewards\' decision on a protest stands until the appeal body decides otherwise; it is not set aside',
+    source: 'a decision on a protest is open to appeal only (common practice of sporting codes)',
+    certainty: 'common practice',
+  },
+  {
     codes: ['timing.cross-check'],
     authority: 'stewards',
     why: 'a disagreement between the two timing systems beyond their tolerances may be resolved in writing by the '

@@ -30,6 +30,47 @@ export const PROTEST_KIND_LABELS: Record<ProtestKind, string> = {
 export const PROTEST_OUTCOMES = ['upheld', 'dismissed'] as const
 export type ProtestOutcome = (typeof PROTEST_OUTCOMES)[number]
 
+/** What an upheld decision makes void: nothing (it corrects in the team's favour), the attempt's result, or one run. */
+export const PROTEST_VOIDS = ['nothing', 'result', 'run'] as const
+export type ProtestVoids = (typeof PROTEST_VOIDS)[number]
+export const PROTEST_VOIDS_LABELS: Record<ProtestVoids, string> = {
+  nothing: 'Nothing is void (the decision corrects in the team\'s favour)',
+  result: 'The attempt\'s result is void',
+  run: 'One run is void',
+}
+
+/** A decided protest or appeal, as far as its consequence goes. */
+export interface DecidedProtest extends ProtestLike {
+  outcome: ProtestOutcome | null
+  voids: ProtestVoids | null
+  voidRunId: number | null
+}
+
+/** What stands void on an attempt, and by whose decision: the protest's, or the appeal's that changed it. */
+export interface Consequence {
+  protestId: number
+  decidedBy: number
+  voids: 'result' | 'run'
+  runId: number | null
+}
+
+/**
+ * The consequences standing on an attempt. Each protest's consequence is that of the decision that stands: the
+ * appeal's once it is decided and upheld (the appeal body decided otherwise, and says what is void), else the
+ * protest's own when it was upheld. A dismissed decision, or an upheld one that voids nothing, leaves nothing void;
+ * one not yet decided, nothing yet (the open protest blocks the claim on its own).
+ */
+export function consequencesOn<T extends DecidedProtest>(list: T[], attemptId: number): Consequence[] {
+  const out: Consequence[] = []
+  for (const p of list.filter(x => x.attemptId === attemptId && x.appealOf === null && x.decidedAt)) {
+    const appeal = list.find(a => a.appealOf === p.id && a.decidedAt)
+    const standing = appeal?.outcome === 'upheld' ? appeal : p.outcome === 'upheld' ? p : null
+    if (!standing || !standing.voids || standing.voids === 'nothing') continue
+    out.push({ protestId: p.id, decidedBy: standing.id, voids: standing.voids, runId: standing.voidRunId })
+  }
+  return out
+}
+
 /** The instant a deadline falls, counted from the instant of publication in the event's zone. */
 export function deadlineAfter(publishedMs: number, rule: Deadline, timeZone: string): number {
   if (rule.kind === 'minutes') return publishedMs + rule.minutes * 60_000

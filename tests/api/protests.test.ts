@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { call, url, useTestServer } from '../support/api'
+import { call, invitedPerson, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { pdfText } from '../support/pdf-tools'
 import { makeReady } from '../support/ready-attempt'
@@ -172,5 +172,62 @@ describe('a protest too late', () => {
     const r = await lodge(event, { attemptId: run.body.attemptId, kind: 'result', grounds: 'The result cannot stand as shown.' })
     expect(r.status).toBe(409)
     expect(r.body.message).toContain('not published yet')
+  })
+})
+
+describe('an upheld protest\'s consequence', () => {
+  it('voids the result it names, on every page and in readiness, until an appeal decides otherwise', async () => {
+    const { event, attemptId } = await publishedAttempt('Europe/Paris', { protestMinutes: 60, appealMinutes: 60 }, 'Voided Sprite')
+    // A rival team of the event protests the entry; the stewards (the event's official, appointed) uphold it.
+    const rival = await invitedPerson('team', 'first-password-1', 'Rival team', { eventId: event.eventId, organiser: event.cookie.organiser, teamName: 'Rival Team' })
+    const protest = await call('POST', `/api/events/${event.eventId}/protests`, {
+      cookie: rival.cookie, body: { attemptId, kind: 'entry', grounds: 'The machine ran with a fairing not inspected.', ...sign('Rival team') },
+    })
+    expect(protest.status, JSON.stringify(protest.body)).toBe(201)
+    await call('POST', `/api/events/${event.eventId}/appointments`, {
+      cookie: event.cookie.organiser, body: { function: 'steward', userId: await idOf(event.cookie.official) },
+    })
+    const hearing = {
+      heardAt: new Date().toISOString(), present: 'Both teams, the chief scrutineer', hearing: 'The fairing was shown.',
+      reasons: 'The fairing was fitted after the inspection.', ...sign('Test official'),
+    }
+    const decide = (id: number, body: Record<string, unknown>) => call('POST', `/api/protests/${id}/decision`, { cookie: event.cookie.official, body: { ...hearing, ...body } })
+    // What a decision voids is checked with it: nothing for a dismissal, a run of the attempt for a run.
+    const dismissedVoiding = await decide(protest.body.id, { outcome: 'dismissed', voids: 'result' })
+    expect(dismissedVoiding.status).toBe(422)
+    expect(dismissedVoiding.body.data.issues[0]).toEqual({ path: 'voids', message: 'a dismissed protest makes nothing void' })
+    expect((await decide(protest.body.id, { outcome: 'upheld', voids: 'run' })).body.data.issues[0].path).toBe('voidRunId')
+    expect((await decide(protest.body.id, { outcome: 'upheld', voids: 'run', voidRunId: 999_999 })).body.data.issues[0])
+      .toEqual({ path: 'voidRunId', message: 'is not a run of the attempt protested' })
+    const upheld = await decide(protest.body.id, { outcome: 'upheld', voids: 'result' })
+    expect(upheld.status, JSON.stringify(upheld.body)).toBe(201)
+    expect(upheld.body).toMatchObject({ outcome: 'upheld', voids: 'result', voidRunId: null })
+
+    const live = async () => (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.team })).body
+      .find((a: { id: number }) => a.id === attemptId)
+    const voided = await live()
+    expect(voided.valid).toBe(false)
+    expect(voided.findings).toContainEqual({ code: 'protest.result-void', severity: 'fail', message: `The stewards upheld protest #${protest.body.id}: the attempt's result is void.` })
+    const ready = (await call('GET', `/api/attempts/${attemptId}/readiness`, { cookie: event.cookie.team })).body
+    expect(ready.ready).toBe(false)
+    expect(ready.items.find((i: { key: string }) => i.key === 'finding-protest.result-void-attempt')).toMatchObject({ met: false, finding: { setAsideable: false } })
+    expect((await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).status).toBe(422)
+    // Nobody sets it aside: only the appeal body's decision changes it.
+    const aside = await call('POST', `/api/attempts/${attemptId}/set-asides`, {
+      cookie: event.cookie.official, body: { code: 'protest.result-void', runId: null, reason: 'we think it harsh on them', ...sign('Test official') },
+    })
+    expect(aside.status).toBe(422)
+    expect(aside.body.data.issues[0].message).toContain('can never be set aside: the stewards\' decision on a protest stands')
+
+    // The team appeals; the appeal body upholds the appeal and voids nothing: the result stands again.
+    const appeal = await call('POST', `/api/protests/${protest.body.id}/appeals`, {
+      cookie: event.cookie.team, body: { grounds: 'The fairing is the one inspected; the photo shows it.', ...sign('Test team') },
+    })
+    expect(appeal.status, JSON.stringify(appeal.body)).toBe(201)
+    const reversed = await decide(appeal.body.id, { outcome: 'upheld', voids: 'nothing', reasons: 'The photograph shows the inspected fairing.' })
+    expect(reversed.status, JSON.stringify(reversed.body)).toBe(201)
+    const after = await live()
+    expect(after.findings.map((f: { code: string }) => f.code)).not.toContain('protest.result-void')
+    expect(after.valid).toBe(true)
   })
 })

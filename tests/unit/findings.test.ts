@@ -15,7 +15,8 @@ const CODES: [string, SetAsideAuthority][] = [
   ['class.outside', 'never'], ['impound.missing', 'never'], ['impound.late', 'never'], ['impound.before-run', 'never'],
   ['qualifier.not-over-record', 'never'], ['record.not-beaten', 'never'], ['record.margin-not-met', 'never'],
   ['record.minimum-not-reached', 'never'], ['return.unreachable', 'never'], ['reading.out-of-order', 'never'],
-  ['reading.implausible-speed', 'never'], ['timing.cross-check', 'stewards'],
+  ['reading.implausible-speed', 'never'], ['protest.result-void', 'never'], ['protest.run-void', 'never'],
+  ['timing.cross-check', 'stewards'],
 ]
 
 describe('setting findings aside', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { profiles } from '#shared/rules/profiles'
-import { clockTime, deadlineAfter, describeProtestRule, openProtests } from '#shared/rules/protests'
+import { clockTime, consequencesOn, deadlineAfter, describeProtestRule, openProtests, type DecidedProtest } from '#shared/rules/protests'
 
 // Protest deadlines in the event's zone. The international profiles' 30 min after publication and 1 h for notice of
 // appeal are recalled from the sporting codes (from memory); the club's hour and noon the next day are common
@@ -43,5 +43,41 @@ describe('protest deadlines', () => {
     ]
     expect(openProtests(list, 5).map(p => p.id)).toEqual([2])
     expect(openProtests(list, 7)).toEqual([])
+  })
+})
+
+describe('what an upheld protest makes void', () => {
+  // Sporting codes, common practice: the stewards' decision stands unless the appeal body decides otherwise; a
+  // protest still open decides nothing yet (it blocks the claim on its own). Invented ids.
+  const at = '2026-12-05T10:00:00.000Z'
+  const protest = (x: Partial<DecidedProtest> = {}): DecidedProtest =>
+    ({ id: 1, attemptId: 7, appealOf: null, decidedAt: at, outcome: 'upheld', voids: 'result', voidRunId: null, ...x })
+  const appeal = (x: Partial<DecidedProtest> = {}): DecidedProtest =>
+    protest({ id: 2, appealOf: 1, voids: 'nothing', ...x })
+
+  it('an upheld protest voids what it names; a dismissed one, or one voiding nothing, voids nothing', () => {
+    expect(consequencesOn([protest()], 7)).toEqual([{ protestId: 1, decidedBy: 1, voids: 'result', runId: null }])
+    expect(consequencesOn([protest({ voids: 'run', voidRunId: 31 })], 7)).toEqual([{ protestId: 1, decidedBy: 1, voids: 'run', runId: 31 }])
+    expect(consequencesOn([protest({ outcome: 'dismissed', voids: 'nothing' })], 7)).toEqual([])
+    expect(consequencesOn([protest({ voids: 'nothing' })], 7)).toEqual([])
+    // A decision from before the consequence was recorded (none stored) voids nothing.
+    expect(consequencesOn([protest({ voids: null })], 7)).toEqual([])
+  })
+
+  it('only the attempt\'s own protests, only decided ones', () => {
+    expect(consequencesOn([protest({ attemptId: 8 })], 7)).toEqual([])
+    expect(consequencesOn([protest({ decidedAt: null })], 7)).toEqual([])
+  })
+
+  it('an appeal decided and upheld replaces the decision; one dismissed or still open leaves it', () => {
+    // Upheld on appeal by the attempt's team: nothing void.
+    expect(consequencesOn([protest(), appeal()], 7)).toEqual([])
+    // Dismissed on appeal: the protest's decision stands.
+    expect(consequencesOn([protest(), appeal({ outcome: 'dismissed' })], 7)).toEqual([{ protestId: 1, decidedBy: 1, voids: 'result', runId: null }])
+    // Open: the protest's decision stands meanwhile.
+    expect(consequencesOn([protest(), appeal({ decidedAt: null, outcome: null, voids: null })], 7)).toEqual([{ protestId: 1, decidedBy: 1, voids: 'result', runId: null }])
+    // A dismissed protest, upheld on appeal by the protester: the appeal's consequence.
+    expect(consequencesOn([protest({ outcome: 'dismissed', voids: 'nothing' }), appeal({ voids: 'run', voidRunId: 31 })], 7))
+      .toEqual([{ protestId: 1, decidedBy: 2, voids: 'run', runId: 31 }])
   })
 })

@@ -248,7 +248,7 @@ async function hearDemoProtest({ people, event, attempt }: Awaited<ReturnType<ty
     hearing: 'The chief timekeeper showed both systems\' printouts; the backup\'s reading agrees with the primary '
       + 'within the systems\' tolerances.',
     reasons: 'The cross-check holds on both runs; nothing in the timing calls the pair into question.',
-    typedName: people.official2.name, password: demo.password,
+    voids: 'nothing', voidRunId: null, typedName: people.official2.name, password: demo.password,
   }, people.official2, ['official'])
 }
 

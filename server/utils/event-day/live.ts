@@ -7,6 +7,7 @@ import { formatTimeOfDay } from '#shared/rules/timing'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { blocks, withSetAsides, type Finding } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
+import { consequencesOn } from '#shared/rules/protests'
 import { publishedInMs } from '#shared/rules/units'
 import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
 import type { EventDay } from './load'
@@ -294,6 +295,23 @@ function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted:
   }]
 }
 
+/**
+ * What the stewards' decisions on protests make void on the attempt (the decision that stands: the appeal's where it
+ * changed the protest's): the result, or a run. A condition of the record: nobody sets it aside.
+ */
+function protestFindings(ix: DayIndex, attempt: Attempt): Finding[] {
+  return consequencesOn(ix.day.protests, attempt.id).map((c) => {
+    const by = c.decidedBy === c.protestId
+      ? `protest #${c.protestId}`
+      : `appeal #${c.decidedBy} on protest #${c.protestId}`
+    return c.voids === 'result'
+      ? { code: 'protest.result-void', severity: 'fail' as const,
+          message: `The stewards upheld ${by}: the attempt's result is void.` }
+      : { code: 'protest.run-void', severity: 'fail' as const,
+          message: `The stewards upheld ${by}: run #${c.runId} is void, and no pair counts it.` }
+  })
+}
+
 /** The pair's figures, window and margin as the pages show them. */
 function liveResult(ix: DayIndex, evaluation: AttemptResult | null, findings: Finding[], valid: boolean) {
   const { timeDecimals } = ix
@@ -340,7 +358,8 @@ function liveDistance(
   const evaluation = evaluateCounted(ix, attempt, setting, counted)
   const liveRuns = runs.map(r => liveRun(ix, setting, r, pair.has(r.run.id), withReadings))
   const findings = withSetAsides(
-    [...(evaluation?.findings ?? []), ...(counted.length ? settingFindings(ix, attempt, setting, counted) : [])],
+    [...(evaluation?.findings ?? []),
+      ...(counted.length ? [...settingFindings(ix, attempt, setting, counted), ...protestFindings(ix, attempt)] : [])],
     null,
     setting.setAsides,
   )

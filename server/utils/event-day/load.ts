@@ -111,6 +111,16 @@ function setAsideRows(eventId: number) {
     .orderBy(asc(t.setAsides.id))
 }
 
+/** The event's decided protests and appeals, as far as their consequences go (the decision stands or is appealed). */
+async function protestRows(eventId: number) {
+  const p = tables.protests
+  const rows = await useDb().select({
+    id: p.id, attemptId: p.attemptId, appealOf: p.appealOf, outcome: p.outcome, decidedAt: p.decidedAt,
+    voids: p.voids, voidRunId: p.voidRunId,
+  }).from(p).where(eq(p.eventId, eventId)).orderBy(asc(p.id))
+  return rows.map(r => ({ ...r, decidedAt: r.decidedAt?.toISOString() ?? null }))
+}
+
 /**
  * The figures a class is judged on (mass, engine capacity) of every signed inspection of the event,
  * with the machine it cleared and when it was signed, oldest first.
@@ -157,7 +167,7 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
   if (!event) throw notFound('No such event')
   const courseIds = db.select({ id: t.courses.id }).from(t.courses).where(eq(t.courses.eventId, eventId))
   const [courses, traps, distances, systems, entries, records, attempts, runs, readings, weather, signatures,
-    setAsides, impounds, inspected] = await Promise.all([
+    setAsides, impounds, inspected, protests] = await Promise.all([
     db.select().from(t.courses).where(eq(t.courses.eventId, eventId)).orderBy(asc(t.courses.id)),
     // Retired set-up items leave the day (nothing that uses them may be retired); their history stays.
     db.select().from(t.traps).where(and(inArray(t.traps.courseId, courseIds), isNull(t.traps.retiredAt)))
@@ -178,9 +188,10 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
     setAsideRows(eventId),
     impoundRows(eventId),
     inspectedFigureRows(eventId),
+    protestRows(eventId),
   ])
   const day = { event, courses, traps, distances, systems, records, attempts, runs, readings, signatures, entries }
-  return { ...day, setAsides, impounds, inspected, weather: weather.map(w => w.weather) }
+  return { ...day, setAsides, impounds, inspected, protests, weather: weather.map(w => w.weather) }
 }
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>

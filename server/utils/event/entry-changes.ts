@@ -56,7 +56,9 @@ async function apply(tx: Tx, current: Awaited<ReturnType<typeof lockEntry>>, cha
     action: 'edit' as const,
     before: detailsOf(current),
     after: { rider: changes.rider, machine: changes.machine },
-    reason: entryId === current.entry.id ? reason : `${reason} (made through entry #${current.entry.id}, which shares it)`,
+    reason: entryId === current.entry.id
+      ? reason
+      : `${reason} (made through entry #${current.entry.id}, which shares it)`,
     changedBy: by,
   })))
 }

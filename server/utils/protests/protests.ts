@@ -147,15 +147,20 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
     const [locked] = await tx.select().from(tables.protests).where(eq(tables.protests.id, protestId)).for('update')
     const p = locked!
     if (p.decidedAt) throw conflict(`This ${p.appealOf ? 'appeal' : 'protest'} is already decided`)
+    if (input.voidRunId !== null) {
+      const [run] = await tx.select({ id: tables.runs.id }).from(tables.runs)
+        .where(and(eq(tables.runs.id, input.voidRunId), eq(tables.runs.attemptId, p.attemptId)))
+      if (!run) throw fieldInvalid('voidRunId', 'is not a run of the attempt protested')
+    }
     const decidedAt = new Date()
     const decision = {
       heardAt: new Date(input.heardAt), present: input.present, hearing: input.hearing, outcome: input.outcome,
-      reasons: input.reasons, decidedBy: user.id, decidedAt,
+      reasons: input.reasons, decidedBy: user.id, decidedAt, voids: input.voids, voidRunId: input.voidRunId,
     }
     const content = {
       eventId: p.eventId, protest: p.id, appealOf: p.appealOf, attemptId: p.attemptId, grounds: p.grounds,
       heardAt: input.heardAt, present: input.present, hearing: input.hearing, outcome: input.outcome,
-      reasons: input.reasons,
+      reasons: input.reasons, voids: input.voids, voidRunId: input.voidRunId,
     }
     const signature = await insertSignature(tx, {
       proof, kind: 'protest-decision', subjectId: p.id, eventId: p.eventId, signerId: user.id,
