@@ -124,6 +124,19 @@ export const memberships = pgTable(
   ],
 )
 
+/**
+ * A signed-in session as the server knows it: the cookie names its id; signing out ends the row, so the same
+ * cookie is refused afterwards. Only the SHA-256 of the id is kept.
+ */
+export const sessions = pgTable('sessions', {
+  idSha256: text('id_sha256').primaryKey(),
+  userId: integer('user_id')
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+  endedAt: timestamp('ended_at', { withTimezone: true }),
+}, t => [index('sessions_user').on(t.userId)])
+
 /** Single-use links for invitations and password resets; only the SHA-256 of the token is kept. */
 export const authTokens = pgTable('auth_tokens', {
   id: serial('id').primaryKey(),

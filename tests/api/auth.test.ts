@@ -80,6 +80,16 @@ describe('sign-in', () => {
     expect(cleared).toMatch(/^nuxt-session=;|Max-Age=0|Expires=Thu, 01 Jan 1970/i)
     // What a browser keeps after that answer: the cookie's new, empty value.
     expect((await call('GET', '/api/me', { cookie: cleared.split(';')[0] })).status).toBe(401)
+    // And the cookie as it was, kept by someone else: the session ended on the server, so it is refused too.
+    expect((await call('GET', '/api/me', { cookie: session })).status).toBe(401)
+  })
+
+  it('signing out one session leaves the person\'s other sessions signed in', async () => {
+    const phone = await login(demoEmail('official'))
+    const desk = await login(demoEmail('official'))
+    expect((await call('POST', '/api/auth/logout', { cookie: phone })).status).toBe(204)
+    expect((await call('GET', '/api/me', { cookie: phone })).status).toBe(401)
+    expect((await call('GET', '/api/me', { cookie: desk })).status).toBe(200)
   })
 })
 
@@ -150,9 +160,16 @@ describe('invitations and passwords', () => {
     const short = await call('POST', '/api/auth/password', { cookie, body: { currentPassword: person.password, newPassword: 'short' } })
     expect(short.status).toBe(422)
     expect(short.body.data.issues[0].path).toBe('newPassword')
+    // A reset link asked for before the change (by anyone who could read the mail) is spent by it.
+    expect((await call('POST', '/api/auth/forgot', { body: { email: person.email } })).status).toBe(202)
+    const before = linkToken((await mailTo(person.email, 'new password')).text)
     const ok = await call('POST', '/api/auth/password', { cookie, body: { currentPassword: person.password, newPassword: 'changed-password-4' } })
     expect(ok.status).toBe(200)
     expect((await call('POST', '/api/auth/login', { body: { email: person.email, password: 'changed-password-4' } })).status).toBe(200)
+    const late = await call('POST', '/api/auth/token', { body: { token: before, password: 'taken-over-password-5' } })
+    expect(late.status).toBe(410)
+    expect(late.body.statusMessage).toBe('This link has already been used')
+    expect((await call('POST', '/api/auth/login', { body: { email: person.email, password: 'taken-over-password-5' } })).status).toBe(401)
   })
 })
 

@@ -8,11 +8,13 @@ export default defineEventHandler(async (event) => {
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, currentPassword))) {
     throw fieldInvalid('currentPassword', 'is not your current password')
   }
-  await useDb()
-    .update(tables.users)
-    .set({ passwordHash: await hashPassword(newPassword), passwordChangedAt: new Date() })
-    .where(eq(tables.users.id, me.id))
-  // Every other session ends; this one goes on under the new version.
-  await signIn(event, await endSessions(me.id))
+  const passwordHash = await hashPassword(newPassword)
+  // The new password spends every open reset or invitation link, and ends every session; this one goes on anew.
+  const renewed = await useDb().transaction(async (tx) => {
+    await tx.update(tables.users).set({ passwordHash, passwordChangedAt: new Date() }).where(eq(tables.users.id, me.id))
+    await spendOpenLinks(tx, me.id)
+    return endSessions(me.id, tx)
+  })
+  await signIn(event, renewed)
   return { ok: true }
 })

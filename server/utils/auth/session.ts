@@ -1,4 +1,5 @@
-import { eq, sql } from 'drizzle-orm'
+import { createHash, randomBytes } from 'node:crypto'
+import { and, eq, isNull, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { User } from '#auth-utils'
 
@@ -15,15 +16,31 @@ export async function signIn(
   user: Pick<UserRow, 'id' | 'email' | 'name' | 'isAdmin' | 'sessionVersion'>,
 ): Promise<User> {
   const sessionUser = { id: user.id, email: user.email, name: user.name, isAdmin: user.isAdmin }
+  // The session before this one on the same browser ends: a sign-in replaces it.
+  await endThisSession(event)
+  const sid = randomBytes(24).toString('base64url')
+  await useDb().insert(tables.sessions).values({ idSha256: sidDigest(sid), userId: user.id })
   await replaceUserSession(
     event,
-    { user: sessionUser, loggedInAt: new Date().toISOString(), version: user.sessionVersion },
+    { user: sessionUser, loggedInAt: new Date().toISOString(), version: user.sessionVersion, sid },
     cookieFor(event),
   )
   return sessionUser
 }
 
+const sidDigest = (sid: string) => createHash('sha256').update(sid).digest('hex')
+
+/** Ends the session this request carries on the server, if it names one. */
+async function endThisSession(event: H3Event) {
+  const { sid } = await getUserSession(event)
+  if (!sid) return
+  await useDb().update(tables.sessions).set({ endedAt: new Date() })
+    .where(and(eq(tables.sessions.idSha256, sidDigest(sid)), isNull(tables.sessions.endedAt)))
+}
+
+/** Signing out ends the session on the server, then clears the cookie: the same cookie is refused after. */
 export async function signOut(event: H3Event) {
+  await endThisSession(event)
   await clearUserSession(event, cookieFor(event))
 }
 
@@ -35,9 +52,15 @@ export async function signOut(event: H3Event) {
 export async function sessionUser(event: H3Event): Promise<User | null> {
   const session = await getUserSession(event)
   if (!session.user) return null
-  const [row] = await useDb().select().from(tables.users).where(eq(tables.users.id, session.user.id))
-  if (!row || row.sessionVersion !== (session.version ?? -1)) {
-    await signOut(event)
+  // One query: the person, and the session as the server knows it (ended, or never known, is signed out).
+  const [found] = await useDb().select({ row: tables.users, endedAt: tables.sessions.endedAt })
+    .from(tables.users)
+    .innerJoin(tables.sessions, and(eq(tables.sessions.userId, tables.users.id),
+      eq(tables.sessions.idSha256, sidDigest(session.sid ?? ''))))
+    .where(eq(tables.users.id, session.user.id))
+  const row = found?.row
+  if (!row || found.endedAt || row.sessionVersion !== (session.version ?? -1)) {
+    await clearUserSession(event, cookieFor(event))
     return null
   }
   // For the request log: who made the request, by id only.
@@ -47,6 +70,8 @@ export async function sessionUser(event: H3Event): Promise<User | null> {
 
 /** Ends every session of a person; returns the row with the new version. */
 export async function endSessions(userId: number, db: Tx | Db = useDb()) {
+  await db.update(tables.sessions).set({ endedAt: new Date() })
+    .where(and(eq(tables.sessions.userId, userId), isNull(tables.sessions.endedAt)))
   const [row] = await db.update(tables.users)
     .set({ sessionVersion: sql`${tables.users.sessionVersion} + 1` })
     .where(eq(tables.users.id, userId))

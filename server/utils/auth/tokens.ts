@@ -45,16 +45,19 @@ export async function spendToken(token: string, passwordHash: string, name?: str
       .returning({ id: tables.authTokens.id })
     if (!spent.length) throw createError({ statusCode: 410, statusMessage: 'This link has already been used' })
     // A new password spends the person's other open links and ends every session they had.
-    await tx
-      .update(tables.authTokens)
-      .set({ usedAt: new Date() })
-      .where(and(eq(tables.authTokens.userId, row.user.id), isNull(tables.authTokens.usedAt)))
+    await spendOpenLinks(tx, row.user.id)
     await tx
       .update(tables.users)
       .set({ passwordHash, passwordChangedAt: new Date(), ...(name ? { name } : {}) })
       .where(eq(tables.users.id, row.user.id))
     return endSessions(row.user.id, tx)
   })
+}
+
+/** Every open invitation or reset link of the person is spent: after a new password, none of them sets one. */
+export async function spendOpenLinks(db: Tx | Db, userId: number) {
+  await db.update(tables.authTokens).set({ usedAt: new Date() })
+    .where(and(eq(tables.authTokens.userId, userId), isNull(tables.authTokens.usedAt)))
 }
 
 export function linkFor(token: string) {
