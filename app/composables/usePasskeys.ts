@@ -12,7 +12,7 @@ const refused = (e: unknown) => {
  * the server sets to the SHA-256 of exactly the content to sign (or of what a new record will say).
  */
 export function usePasskeys() {
-  async function register(name: string) {
+  async function register(name: string, password: string) {
     const optionsJSON = await $fetch('/api/me/passkeys/options', { method: 'POST' })
     let response
     try {
@@ -21,7 +21,7 @@ export function usePasskeys() {
     catch (e) {
       throw refused(e)
     }
-    return $fetch('/api/me/passkeys', { method: 'POST', body: { name, response } })
+    return $fetch('/api/me/passkeys', { method: 'POST', body: { name, password, response } })
   }
   /** The passkey's answer for the record whose signing options are at `optionsUrl`. */
   async function answer(optionsUrl: string, draft?: Record<string, unknown>) {

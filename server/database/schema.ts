@@ -495,8 +495,13 @@ export interface PasskeyAssertion {
   clientDataJSON: string
   signature: string
   userHandle: string | null
-  /** The digest signed: SHA-256 of the canonical content with the record's own new id left out, base64url. */
+  /**
+   * The challenge signed: SHA-256 of (the content's digest, "." and the server's nonce) where a nonce is kept, else
+   * (signatures made before challenges were issued) the content's digest itself, base64url.
+   */
   challenge: string
+  /** The server's single-use nonce the challenge was made with. */
+  nonce?: string
 }
 
 export const signatures = pgTable(
@@ -673,6 +678,29 @@ export const passkeys = pgTable('passkeys', {
   transports: jsonb('transports').$type<string[]>().notNull().default([]),
   name: text('name').notNull(),
   createdAt: createdAt(),
+})
+
+/** A passkey revoked by its owner: it signs nothing more; what it signed before stays checkable. Never undone. */
+export const passkeyRevocations = pgTable('passkey_revocations', {
+  id: serial('id').primaryKey(),
+  passkeyId: integer('passkey_id').notNull().unique().references(() => passkeys.id),
+  reason: text('reason').notNull(),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }).notNull().defaultNow(),
+})
+
+/**
+ * A signing challenge the server issued: random, for one signer and one act over one content digest, used once
+ * within minutes. The passkey signs SHA-256(digest + "." + nonce), so no answer is ever good twice.
+ */
+export const signingChallenges = pgTable('signing_challenges', {
+  id: serial('id').primaryKey(),
+  userId: integer('user_id').notNull().references(() => users.id),
+  kind: text('kind').notNull(),
+  digest: text('digest').notNull(),
+  nonce: text('nonce').notNull(),
+  challenge: text('challenge').notNull().unique(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
 })
 
 /** A registration's challenge, used once within minutes. */

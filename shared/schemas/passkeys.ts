@@ -7,6 +7,8 @@ const base64url = z.string().regex(/^[A-Za-z0-9_-]*$/, { error: 'must be base64u
 /** The browser's answer to a registration (a WebAuthn attestation as the browser library returns it). */
 export const passkeyRegistrationSchema = z.object({
   name: z.string().trim().min(1, { error: 'name the device, e.g. "timing hut laptop"' }).max(80),
+  /** The account's password: a session alone never adds a way to sign in the person's name. */
+  password: z.string().min(1, { error: 'type your password to add a passkey' }).max(200),
   response: z.object({
     id: base64url.min(1),
     rawId: base64url.min(1),
@@ -24,6 +26,12 @@ export const passkeyRegistrationSchema = z.object({
   }),
 })
 export type PasskeyRegistrationInput = z.infer<typeof passkeyRegistrationSchema>
+
+/** The owner revokes a passkey, with the password and a reason. */
+export const passkeyRevocationSchema = z.object({
+  password: z.string().min(1, { error: 'type your password to revoke a passkey' }).max(200),
+  reason: z.string().trim().min(3, { error: 'say why (a lost phone, a borrowed laptop)' }).max(300),
+})
 
 /** What a statement will say, so that a passkey can sign it before it is written. */
 export const statementDraftSchema = z.object({

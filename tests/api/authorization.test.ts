@@ -39,6 +39,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   'GET /api/me/passkeys': { expect: signedIn(200) },
   'POST /api/me/passkeys/options': { expect: signedIn(200) },
   'POST /api/me/passkeys': { expect: signedIn(422), body: {} },
+  'POST /api/me/passkeys/[id]/revocation': { expect: signedIn(422), body: {} },
   // Signing options name the content's digest; the demo's people have no passkey (409 for the right role).
   'POST /api/inspections/[id]/signing-options': { expect: rolesOnly(409, 'scrutineer') },
   'POST /api/attempts/[id]/signing-options': { expect: rolesOnly(409, 'timekeeper') },
@@ -169,6 +170,9 @@ describe('authorization table', () => {
   let eventId = 0
   const ids = { 'runs': 0, 'readings': 0, 'attempts': 0, 'inspections': 0, 'statements': 0, 'signatures': 0, 'evidence': 0, 'dossiers': 0, 'machines': 0, 'checklists': 0, 'unreadyAttempt': 0, 'entries': 0, 'change-requests': 0, 'payments': 0, 'appointments': 0, 'briefings': 0, 'protests': 0, 'plans': 0, 'set-asides': 0 }
   let sha = ''
+  let outsiderEmail = ''
+  // Signing out ends the session it was sent with: it is sent a session of its own, so the others go on.
+  const ownSession = (who: Who) => (who === 'outsider' ? login(outsiderEmail, 'outsider-password-1') : login(demoEmail(who)))
 
   beforeAll(async () => {
     for (const who of ['admin', 'organiser', 'timekeeper', 'scrutineer', 'team', 'official'] as const) cookies[who] = await login(demoEmail(who))
@@ -260,6 +264,7 @@ describe('authorization table', () => {
     const set = await call('POST', '/api/auth/token', { body: { token, password: 'outsider-password-1' } })
     expect(set.status).toBe(200)
     cookies.outsider = await login(email, 'outsider-password-1')
+    outsiderEmail = email
   })
 
   it('has an entry for every route file, and no entry without a file', () => {
@@ -273,7 +278,8 @@ describe('authorization table', () => {
         const owner = /^\/api\/(runs|readings|attempts|inspections|statements|signatures|evidence|dossiers|machines|checklists|entries|change-requests|payments|appointments|briefings|protests|plans|set-asides)\/\[/.exec(path)?.[1] as keyof typeof ids | undefined
         const id = route === 'POST /api/attempts/[id]/dossiers' ? ids.unreadyAttempt : owner ? ids[owner] : eventId
         const filled = path.replace('[id]', String(id)).replace('[sha]', sha).replace('[kind]', 'traps').replace('[itemId]', '1')
-        const r = await call(method, filled, { cookie: cookies[who], body: spec.body })
+        const cookie = route === 'POST /api/auth/logout' && who !== 'anonymous' ? await ownSession(who) : cookies[who]
+        const r = await call(method, filled, { cookie, body: spec.body })
         expect(r.status, JSON.stringify(r.body)).toBe(spec.expect[who])
       })
     }

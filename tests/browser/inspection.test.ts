@@ -154,6 +154,7 @@ it('a scrutineer adds a passkey on the account page and signs an inspection with
     options: { protocol: 'ctap2', transport: 'internal', hasResidentKey: true, hasUserVerification: true, isUserVerified: true },
   })
   await page.fill('#pk-name', 'test laptop')
+  await page.fill('#pk-password', demo.password)
   await page.click('button:has-text("Add a passkey")')
   await expect.poll(() => page.locator('[data-test="passkeys"]').innerText()).toContain('test laptop')
 
@@ -170,6 +171,18 @@ it('a scrutineer adds a passkey on the account page and signs an inspection with
   const view = (await call('GET', `/api/inspections/${started.body.id}`, { cookie: scrutineer.cookie })).body
   const report = (await call('GET', `/api/signatures/${view.signature.id}`, { cookie: scrutineer.cookie })).body
   expect(report).toMatchObject({ method: 'passkey', passkeyHolds: true, recordStillMatches: true })
+
+  // Revoked on the account page (a lost laptop): it signs nothing more, and what it signed still holds.
+  await page.goto(`${ctx.baseUrl}/account`)
+  await page.waitForSelector('html[data-hydrated="true"]')
+  const key = page.locator('[data-test="passkeys"] li', { hasText: 'test laptop' })
+  await key.getByRole('button', { name: 'Revoke…' }).click()
+  await key.getByLabel('Why').fill('laptop lost')
+  await key.getByLabel('Your password').fill(demo.password)
+  await key.getByRole('button', { name: 'Revoke it' }).click()
+  await expect.poll(() => key.innerText()).toContain('revoked')
+  const again = (await call('GET', `/api/signatures/${view.signature.id}`, { cookie: scrutineer.cookie })).body
+  expect(again).toMatchObject({ passkeyHolds: true })
 })
 
 it('the capacity calculator fills the engine capacity from bore, stroke and cylinders', async () => {

@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto'
+import { createHash, randomBytes } from 'node:crypto'
 import { and, eq, gt } from 'drizzle-orm'
 import {
   generateAuthenticationOptions,
@@ -28,11 +28,44 @@ export function passkeyDigest(kind: string, content: unknown) {
   return isoBase64URL.fromBuffer(createHash('sha256').update(canonicalJson(signed)).digest())
 }
 
-const mine = (userId: number) => useDb().select().from(tables.passkeys).where(eq(tables.passkeys.userId, userId))
+/** The person's passkeys, with their revocation where there is one. */
+const allMine = (userId: number) => useDb()
+  .select({ p: tables.passkeys, revokedAt: tables.passkeyRevocations.revokedAt })
+  .from(tables.passkeys)
+  .leftJoin(tables.passkeyRevocations, eq(tables.passkeyRevocations.passkeyId, tables.passkeys.id))
+  .where(eq(tables.passkeys.userId, userId))
+
+/** The person's passkeys that may still sign: not revoked. */
+const mine = async (userId: number) => (await allMine(userId)).filter(r => !r.revokedAt).map(r => r.p)
 
 export async function listPasskeys(userId: number) {
-  const rows = await mine(userId)
-  return rows.map(p => ({ id: p.id, name: p.name, createdAt: p.createdAt, credentialId: p.credentialId }))
+  const rows = await allMine(userId)
+  return rows.map(({ p, revokedAt }) =>
+    ({ id: p.id, name: p.name, createdAt: p.createdAt, credentialId: p.credentialId, revokedAt }))
+}
+
+/** The challenge a passkey signs: SHA-256 of the content's digest and the server's single-use nonce, base64url. */
+const challengeOf = (digest: string, nonce: string) =>
+  isoBase64URL.fromBuffer(createHash('sha256').update(`${digest}.${nonce}`).digest())
+
+/**
+ * The owner revokes a passkey (a lost phone, a borrowed laptop): it signs nothing from then on; the signatures it
+ * made stay checkable with its public key, kept. Confirmed with the password; the owner is mailed.
+ */
+export async function revokePasskey(user: { id: number, email: string }, passkeyId: number, reason: string) {
+  const [key] = await useDb().select().from(tables.passkeys)
+    .where(and(eq(tables.passkeys.id, passkeyId), eq(tables.passkeys.userId, user.id)))
+  if (!key) throw notFound('No such passkey')
+  const [row] = await useDb().insert(tables.passkeyRevocations).values({ passkeyId, reason })
+    .onConflictDoNothing().returning()
+  if (!row) throw conflict('This passkey is already revoked')
+  await queueMail([{
+    to: user.email,
+    subject: `Trapline: passkey "${key.name}" revoked`,
+    text: `The passkey "${key.name}" of your account was revoked: it signs nothing more. Reason given: ${reason}\n`
+      + 'What it signed before stays checkable. If you did not do this, change your password now.\n',
+  }], { wait: false })
+  return row
 }
 
 /** Options for registering a new passkey; the challenge is kept for five minutes, once. */
@@ -54,8 +87,13 @@ export async function registrationOptions(user: { id: number, email: string, nam
   return options
 }
 
-/** Checks a registration against the challenge given (once) and keeps the passkey's public key. */
-export async function registerPasskey(userId: number, name: string, response: RegistrationResponseJSON) {
+/**
+ * Checks a registration against the challenge given (once) and keeps the passkey's public key. The caller has
+ * checked the password: a session alone never adds a way to sign. The owner is mailed.
+ */
+export async function registerPasskey(user: { id: number, email: string }, name: string,
+  response: RegistrationResponseJSON) {
+  const userId = user.id
   const { rpID, origin } = relyingParty()
   const [challenge] = await useDb().delete(tables.passkeyChallenges)
     .where(and(eq(tables.passkeyChallenges.userId, userId), gt(tables.passkeyChallenges.expiresAt, new Date())))
@@ -85,16 +123,29 @@ export async function registerPasskey(userId: number, name: string, response: Re
     name,
   }).onConflictDoNothing().returning()
   if (!row) throw conflict('This passkey is already registered')
+  await queueMail([{
+    to: user.email,
+    subject: `Trapline: passkey "${name}" added`,
+    text: `A passkey named "${name}" was added to your account: it can sign in your name. If you did not add it, `
+      + 'revoke it on your account page and change your password now.\n',
+  }], { wait: false })
   return { id: row.id, name: row.name, createdAt: row.createdAt }
 }
 
-/** Options for signing a record's content with one of the signer's passkeys: the challenge is its digest. */
-export async function signingOptions(userId: number, digest: string) {
+/**
+ * Options for signing a record's content with one of the signer's passkeys. The server issues the challenge:
+ * random, for this signer and this act over this content's digest, good once for five minutes.
+ */
+export async function signingOptions(userId: number, kind: string, digest: string) {
   const keys = await mine(userId)
   if (!keys.length) throw conflict('You have no passkey: register one on your account page, or sign with your password')
+  const nonce = randomBytes(16).toString('base64url')
+  const challenge = challengeOf(digest, nonce)
+  await useDb().insert(tables.signingChallenges)
+    .values({ userId, kind, digest, nonce, challenge, expiresAt: new Date(Date.now() + 5 * 60_000) })
   return generateAuthenticationOptions({
     rpID: relyingParty().rpID,
-    challenge: isoBase64URL.toBuffer(digest),
+    challenge: isoBase64URL.toBuffer(challenge),
     allowCredentials: keys.map(k => ({ id: k.credentialId, transports: k.transports as never })),
     userVerification: 'required',
   })
@@ -107,6 +158,7 @@ export async function signingOptions(userId: number, digest: string) {
 export async function verifyPasskeySignature(
   tx: Tx,
   signerId: number,
+  kind: string,
   digest: string,
   response: AuthenticationResponseJSON,
 ): Promise<PasskeyAssertion> {
@@ -114,12 +166,16 @@ export async function verifyPasskeySignature(
     .where(and(eq(tables.passkeys.credentialId, response.id), eq(tables.passkeys.userId, signerId)))
     .for('update')
   if (!key) throw fieldInvalid('passkey', 'is not one of your passkeys; nothing was signed')
+  const [revoked] = await tx.select().from(tables.passkeyRevocations)
+    .where(eq(tables.passkeyRevocations.passkeyId, key.id))
+  if (revoked) throw fieldInvalid('passkey', 'was revoked; nothing was signed')
+  const issued = await issuedChallenge(tx, signerId, kind, digest, response)
   const { rpID, origin } = relyingParty()
   let result
   try {
     result = await verifyAuthenticationResponse({
       response,
-      expectedChallenge: digest,
+      expectedChallenge: issued.challenge,
       expectedOrigin: origin,
       expectedRPID: rpID,
       credential: { id: key.credentialId, publicKey: isoBase64URL.toBuffer(key.publicKey), counter: key.counter },
@@ -135,14 +191,42 @@ export async function verifyPasskeySignature(
   if (!result.verified) throw fieldInvalid('passkey', 'did not sign this content; nothing was signed')
   await tx.update(tables.passkeys).set({ counter: result.authenticationInfo.newCounter })
     .where(eq(tables.passkeys.id, key.id))
+  await tx.update(tables.signingChallenges).set({ usedAt: new Date() })
+    .where(eq(tables.signingChallenges.id, issued.id))
   return {
     credentialId: key.credentialId,
     authenticatorData: response.response.authenticatorData,
     clientDataJSON: response.response.clientDataJSON,
     signature: response.response.signature,
     userHandle: response.response.userHandle ?? null,
-    challenge: digest,
+    challenge: issued.challenge,
+    nonce: issued.nonce,
   }
+}
+
+/**
+ * The challenge the answer signed, as this server issued it: to this signer, for this act, over the content as it
+ * is stored now, unused and within its five minutes. Locked, so it is spent once.
+ */
+async function issuedChallenge(tx: Tx, signerId: number, kind: string, digest: string,
+  response: AuthenticationResponseJSON) {
+  let signed = ''
+  try {
+    signed = JSON.parse(Buffer.from(response.response.clientDataJSON, 'base64url').toString('utf8')).challenge ?? ''
+  }
+  catch {
+    throw fieldInvalid('passkey', 'is not a passkey\'s answer (its client data cannot be read); nothing was signed')
+  }
+  const [issued] = await tx.select().from(tables.signingChallenges)
+    .where(and(eq(tables.signingChallenges.challenge, signed), eq(tables.signingChallenges.userId, signerId)))
+    .for('update')
+  const refuse = (why: string) => fieldInvalid('passkey', `${why}; nothing was signed`)
+  if (!issued) throw refuse('answers a challenge this server did not issue to you')
+  if (issued.usedAt) throw refuse('answers a challenge already used: a passkey\'s answer counts once')
+  if (issued.expiresAt.getTime() < Date.now()) throw refuse('answers a challenge that has expired: sign again')
+  if (issued.kind !== kind) throw refuse(`answers a challenge issued for another act (${issued.kind})`)
+  if (issued.digest !== digest) throw refuse('signed other content than is stored now (it changed meanwhile)')
+  return issued
 }
 
 /**
@@ -167,7 +251,9 @@ export async function assertionHolds(kind: string, content: unknown, a: PasskeyA
           userHandle: a.userHandle ?? undefined,
         },
       },
-      expectedChallenge: passkeyDigest(kind, content),
+      expectedChallenge: a.nonce
+        ? challengeOf(passkeyDigest(kind, content), a.nonce)
+        : passkeyDigest(kind, content),
       expectedOrigin: origin,
       expectedRPID: rpID,
       credential: { id: key.credentialId, publicKey: isoBase64URL.toBuffer(key.publicKey), counter: 0 },

@@ -58,7 +58,8 @@ export async function insertSignature(
   await assertSignerName(tx, input.signerId, input.typedName, input.nameNote, input.nameOnFile)
   // A passkey signs the SHA-256 of exactly this content: checked here, under the caller's lock.
   const assertion = input.proof.method === 'passkey'
-    ? await verifyPasskeySignature(tx, input.signerId, passkeyDigest(input.kind, input.content), input.proof.response)
+    ? await verifyPasskeySignature(tx, input.signerId, input.kind, passkeyDigest(input.kind, input.content),
+        input.proof.response)
     : null
   const [row] = await tx
     .insert(tables.signatures)
