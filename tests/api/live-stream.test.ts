@@ -2,7 +2,7 @@ import { resolve } from 'node:path'
 import { afterAll, beforeAll, expect, inject, it } from 'vitest'
 import type { LiveMessage } from '#shared/types/live'
 import { applyLiveMessage } from '../../app/composables/useLiveResults'
-import { call, useTestServer } from '../support/api'
+import { call, invitedPerson, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { openLiveStream } from '../support/live-stream'
 import { startApp, type Started } from '../support/processes'
@@ -91,6 +91,26 @@ it('pushes a reading written through one server to clients of both within a seco
   finally {
     here.close()
     there.close()
+  }
+})
+
+it('ends an open stream within seconds when the person\'s role is removed', async () => {
+  const person = await invitedPerson('official', 'first-password-1', 'Streaming official', { eventId: event.eventId, organiser: event.cookie.organiser })
+  const stream = await openLiveStream(inject('baseUrl').replace(/\/$/, ''), event.eventId, person.cookie)
+  try {
+    expect(stream.status).toBe(200)
+    await stream.next(m => m.kind === 'full')
+    const people = (await call('GET', `/api/events/${event.eventId}/people`, { cookie: event.cookie.organiser })).body as { email: string, membershipId: number }[]
+    const removedAt = Date.now()
+    const membership = people.find(p => p.email === person.email)!.membershipId
+    expect((await call('DELETE', `/api/events/${event.eventId}/people/${membership}`, { cookie: event.cookie.organiser })).status).toBe(204)
+    // Checked every 3 s on the server: ended well within 10 s, not at the stream's five-minute end.
+    await expect.poll(() => stream.state.endedAt, { timeout: 10_000, interval: 100 }).not.toBeNull()
+    expect(stream.state.endedAt! - removedAt).toBeLessThan(10_000)
+    expect((await call('GET', `/api/events/${event.eventId}/live-stream`, { cookie: person.cookie })).status).toBe(404)
+  }
+  finally {
+    stream.close()
   }
 })
 

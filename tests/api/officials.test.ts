@@ -1,5 +1,5 @@
 import { beforeAll, expect, it } from 'vitest'
-import { call, url, useTestServer } from '../support/api'
+import { call, invitedPerson, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { pdfText } from '../support/pdf-tools'
 import { makeReady } from '../support/ready-attempt'
@@ -67,4 +67,33 @@ it('holds the dossier back while a required function is vacant, and names the pe
   expect(text).toContain('Permit TF-P-9 of Test federation, valid 2026-01-01 to 2027-12-31.')
   expect(text).toContain('Clerk of the course: Test official')
   expect(text).toContain('Observer of the sanctioning body: Test official')
+})
+
+it('the timing sheet is the appointed chief timekeeper\'s, and the clearance the appointed chief scrutineer\'s', async () => {
+  // Another timekeeper and another scrutineer of the event, neither appointed chief (the profile appoints both:
+  // international motorcycle, common practice, a setting of the profile).
+  const at = { eventId: event.eventId, organiser: event.cookie.organiser }
+  const timekeeper2 = await invitedPerson('timekeeper', 'first-password-1', 'Second timekeeper', at)
+  const scrutineer2 = await invitedPerson('scrutineer', 'first-password-1', 'Second scrutineer', at)
+  const entryId = await clearedEntry(event.eventId, 'Deputy Sprite', {}, {
+    team: event.cookie.team, scrutineer: scrutineer2.cookie, scrutineerPassword: 'first-password-1',
+  })
+  const place = { eventId: event.eventId, timeZone: event.timeZone, timekeeper: timekeeper2.cookie, traps: event.traps, systems: event.systems }
+  const quick = { primary: [0, 8.9] as [number, number], backup: [0, 8.9] as [number, number] }
+  const start = Math.ceil(Date.now() / 1000) * 1000 + 1000
+  const out = await kilometreRun(place, entryId, 'out', start, quick)
+  await kilometreRun(place, entryId, 'back', start + 120_000, quick)
+  const signed = await call('POST', `/api/attempts/${out.attemptId}/signatures`, { cookie: timekeeper2.cookie, body: { password: 'first-password-1', typedName: 'Second timekeeper' } })
+  expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+  const items = async () => (await call('GET', `/api/attempts/${out.attemptId}/readiness`, { cookie: event.cookie.team })).body.items
+  const sheet = (await items()).find((i: { key: string }) => i.key === 'timing-sheet')
+  expect(sheet).toMatchObject({ met: false, detail: 'signed by Second timekeeper, who was not the appointed chief timekeeper: reopen it and have the chief timekeeper sign it' })
+  const inspection = (await items()).find((i: { key: string }) => i.key === 'inspection')
+  expect(inspection.met).toBe(false)
+  expect(inspection.detail).toMatch(/^inspection #\d+ was signed by Second scrutineer, not the appointed chief scrutineer/)
+  // The chief timekeeper reopens it and signs it: the sheet is theirs now.
+  const sign = { password: 'first-password-1', typedName: 'Test timekeeper' }
+  expect((await call('POST', `/api/attempts/${out.attemptId}/reopen`, { cookie: event.cookie.timekeeper, body: { ...sign, reason: 'the chief signs it' } })).status).toBe(201)
+  expect((await call('POST', `/api/attempts/${out.attemptId}/signatures`, { cookie: event.cookie.timekeeper, body: sign })).status).toBe(201)
+  expect((await items()).find((i: { key: string }) => i.key === 'timing-sheet')).toMatchObject({ met: true, detail: 'signed by Test timekeeper' })
 })

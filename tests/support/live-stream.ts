@@ -10,11 +10,16 @@ export async function openLiveStream(base: string, eventId: number, cookie: stri
   })
   const messages: { at: number, event: string, msg: LiveMessage }[] = []
   const reader = r.body!.pipeThrough(new TextDecoderStream()).getReader()
+  /** When the server ended the stream (null while it is open). */
+  const state = { endedAt: null as number | null }
   void (async () => {
     let buffer = ''
     for (;;) {
       const { value, done } = await reader.read()
-      if (done) return
+      if (done) {
+        state.endedAt = Date.now()
+        return
+      }
       buffer += value
       for (let i = buffer.indexOf('\n\n'); i >= 0; i = buffer.indexOf('\n\n')) {
         const lines = buffer.slice(0, i).split('\n')
@@ -31,5 +36,5 @@ export async function openLiveStream(base: string, eventId: number, cookie: stri
     await expect.poll(() => (found = messages.slice(skip).find(m => test(m.msg))), { timeout: timeoutMs }).toBeDefined()
     return found!
   }
-  return { status: r.status, type: r.headers.get('content-type'), messages, next, close: () => controller.abort() }
+  return { status: r.status, type: r.headers.get('content-type'), messages, next, state, close: () => controller.abort() }
 }

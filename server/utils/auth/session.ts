@@ -68,6 +68,26 @@ export async function sessionUser(event: H3Event): Promise<User | null> {
   return { id: row.id, email: row.email, name: row.name, isAdmin: row.isAdmin }
 }
 
+/**
+ * Whether the session a long-lived answer (the live stream) began with still stands, and the person still holds a
+ * role at the event (or is the site's administrator): checked again every few seconds while it is open.
+ */
+export async function sessionStillHolds(event: H3Event, eventId: number) {
+  const session = await getUserSession(event)
+  if (!session.user) return false
+  const [found] = await useDb().select({ version: tables.users.sessionVersion, isAdmin: tables.users.isAdmin,
+    endedAt: tables.sessions.endedAt })
+    .from(tables.users)
+    .innerJoin(tables.sessions, and(eq(tables.sessions.userId, tables.users.id),
+      eq(tables.sessions.idSha256, sidDigest(session.sid ?? ''))))
+    .where(eq(tables.users.id, session.user.id))
+  if (!found || found.endedAt || found.version !== (session.version ?? -1)) return false
+  if (found.isAdmin) return true
+  const [role] = await useDb().select({ id: tables.memberships.id }).from(tables.memberships)
+    .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.userId, session.user.id))).limit(1)
+  return !!role
+}
+
 /** Ends every session of a person; returns the row with the new version. */
 export async function endSessions(userId: number, db: Tx | Db = useDb()) {
   await db.update(tables.sessions).set({ endedAt: new Date() })

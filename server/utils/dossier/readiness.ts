@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm'
+import { and, eq, inArray } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
 import { blocks, mayBeSetAside, setAsideRule } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
@@ -54,8 +54,22 @@ async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: 
     statements,
     officials: await officialsOf(eventId, attempt.profile.appointments?.value ?? []),
     openProtests: await openProtestsOn([attemptId]),
-    ...(await clearances(entry.entry.id, counted)),
+    ...(await clearancesWithSigners(entry.entry.id, counted)),
   }
+}
+
+/** The clearances, and who signed each inspection the file rests on (and when). */
+async function clearancesWithSigners(entryId: number, counted: { id: number, startedAt: string }[]) {
+  const c = await clearances(entryId, counted)
+  const ids = [...new Set([...c.atRuns.map(a => a.inspectionId), c.clearance.inspectionId]
+    .filter((i): i is number => typeof i === 'number'))]
+  const inspectionSigners = ids.length
+    ? await useDb().select({ inspectionId: tables.signatures.subjectId, id: tables.signatures.signerId,
+        at: tables.signatures.signedAt, name: tables.users.name })
+        .from(tables.signatures).innerJoin(tables.users, eq(tables.users.id, tables.signatures.signerId))
+        .where(and(eq(tables.signatures.kind, 'inspection'), inArray(tables.signatures.subjectId, ids)))
+    : []
+  return { ...c, inspectionSigners }
 }
 
 /**
@@ -80,9 +94,24 @@ async function clearances(entryId: number, counted: { id: number, startedAt: str
 }
 type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 
+/**
+ * Where the profile appoints a chief timekeeper or chief scrutineer, the sheet and the clearance are theirs: the
+ * signer held that appointment when signing (recorded before or after, not ended before the signature).
+ */
+function chiefSigned(file: AttemptFile, fn: 'chief-timekeeper' | 'chief-scrutineer', signer: { id: number, at: Date }) {
+  if (!(file.attempt.profile.appointments?.value ?? []).includes(fn)) return true
+  return file.officials.appointments.some(a => a.function === fn && a.userId === signer.id
+    && (!a.endedAt || a.endedAt > signer.at))
+}
+
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
 function recordItems(file: AttemptFile): ReadinessItem[] {
   const { at, day, live, counted, clearance, statements, attempt, officials, openProtests } = file
+  const sheetSigner = day.signatures
+    .filter(x => x.s.subjectId === attempt.id && x.s.kind.startsWith('timing-sheet')).at(-1)?.s
+  const sheetByChief = !sheetSigner
+    || chiefSigned(file, 'chief-timekeeper', { id: sheetSigner.signerId, at: sheetSigner.signedAt })
+  const notChiefScrutineer = file.inspectionSigners.filter(s => !chiefSigned(file, 'chief-scrutineer', s))
   // The dossier is issued on figures somebody signed: the sheet's content now must hash as signed.
   const sheetUnchanged = live.sheet.locked
     && sha256(canonicalJson(timingSheetContent(day, attempt.id))) === live.sheet.latest?.sha256
@@ -103,19 +132,26 @@ function recordItems(file: AttemptFile): ReadinessItem[] {
       key: 'timing-sheet',
       label: 'The signed timing sheet, unchanged since it was signed',
       fix: `${at}/run-sheet`,
-      met: live.sheet.locked && sheetUnchanged,
+      met: live.sheet.locked && sheetUnchanged && sheetByChief,
       detail: !live.sheet.locked
         ? 'not signed'
-        : sheetUnchanged
-          ? `signed by ${live.sheet.latest?.typedName}`
-          : 'what the timing sheet holds now differs from what was signed: reopen it and sign it again',
+        : !sheetUnchanged
+            ? 'what the timing sheet holds now differs from what was signed: reopen it and sign it again'
+            : sheetByChief
+              ? `signed by ${live.sheet.latest?.typedName}`
+              : `signed by ${live.sheet.latest?.typedName}, who was not the appointed chief timekeeper: reopen it and `
+                + 'have the chief timekeeper sign it',
     },
     {
       key: 'inspection',
       label: 'A signed inspection that cleared the machine before each counted run',
       fix: `${at}/inspections`,
-      met: clearance.cleared,
-      detail: clearance.why,
+      met: clearance.cleared && !notChiefScrutineer.length,
+      detail: notChiefScrutineer.length
+        ? `inspection ${notChiefScrutineer.map(s => `#${s.inspectionId}`).join(', ')} was signed by `
+        + `${notChiefScrutineer.map(s => s.name).join(', ')}, not the appointed chief scrutineer: the chief `
+        + 'scrutineer signs a new inspection'
+        : clearance.why,
     },
     {
       key: 'statements',

@@ -75,6 +75,7 @@ function sheetSignatureRows(eventId: number) {
         contentSha256: s.contentSha256,
         reason: s.reason,
         method: s.method,
+        signerId: s.signerId,
       },
       signerName: t.users.name,
     })
