@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { call, invitedPerson, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, invitedPerson, login, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { pdfText } from '../support/pdf-tools'
 import { makeReady } from '../support/ready-attempt'
@@ -229,5 +229,22 @@ describe('an upheld protest\'s consequence', () => {
     const after = await live()
     expect(after.findings.map((f: { code: string }) => f.code)).not.toContain('protest.result-void')
     expect(after.valid).toBe(true)
+  })
+})
+
+describe('the demo\'s upheld protest', () => {
+  it('voids the second team\'s run: its attempt says so, and the decision names the run', async () => {
+    const organiser = await login(demoEmail('organiser'))
+    const eventId = await demoEventId(organiser)
+    const upheld = (await call('GET', `/api/events/${eventId}/protests`, { cookie: organiser })).body
+      .find((p: { kind: string, outcome: string }) => p.kind === 'inspection' && p.outcome === 'upheld')
+    expect(upheld).toMatchObject({ team: 'Larkspur Works', voids: 'run', voidRunId: expect.any(Number), open: false })
+    const wisp = (await call('GET', `/api/events/${eventId}/live`, { cookie: await login('team2@trapline.test') })).body
+      .find((a: { id: number }) => a.id === upheld.attemptId)
+    expect(wisp.entry.machineName).toBe('Cinder Wisp')
+    expect(wisp.findings).toContainEqual({ code: 'protest.run-void', severity: 'fail', message: `The stewards upheld protest #${upheld.id}: run #${upheld.voidRunId} is void: no pair with it is valid.` })
+    // And the chief timekeeper's retired laptop: a passkey revoked, kept with its public key, signing nothing.
+    const keys = (await call('GET', '/api/me/passkeys', { cookie: await login(demoEmail('timekeeper')) })).body
+    expect(keys.find((k: { name: string }) => k.name === 'old timing-hut laptop')).toMatchObject({ revokedAt: expect.any(String) })
   })
 })

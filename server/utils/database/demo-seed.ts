@@ -1,4 +1,6 @@
+import { generateKeyPairSync, randomBytes } from 'node:crypto'
 import { eq } from 'drizzle-orm'
+import { isoBase64URL, isoCBOR } from '@simplewebauthn/server/helpers'
 import { allItems } from '#shared/inspection/evaluate'
 import { addDays, localMidnight, localToInstant } from '#shared/rules/zoned'
 import { DEMO_TIME_ZONE, demoCalendar, demoToday, seedDemo } from '../../database/demo'
@@ -253,6 +255,56 @@ async function hearDemoProtest({ people, event, attempt }: Awaited<ReturnType<ty
 }
 
 /**
+ * The second team's story: the streamliner's team protests the Wisp's inspection (lodged within the half hour after it
+ * was signed, on the run day's clock); the stewards hear it and uphold it: the tyres fitted were not the ones
+ * inspected, so its one run is void. Its attempt shows so: no pair with that run is valid.
+ */
+async function upholdDemoInspectionProtest({ people, event }: DemoFacts) {
+  const [larkspur] = await useDb().select({ id: tables.teams.id }).from(tables.teams)
+    .where(eq(tables.teams.name, 'Larkspur Works'))
+  const [wisp] = await useDb().select({ attempt: tables.attempts, entryId: tables.entries.id }).from(tables.attempts)
+    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
+    .innerJoin(tables.teams, eq(tables.teams.id, tables.entries.teamId))
+    .where(eq(tables.teams.name, 'Cinder Hollow Engineering')).limit(1)
+  const [run] = await useDb().select({ id: tables.runs.id }).from(tables.runs)
+    .where(eq(tables.runs.attemptId, wisp!.attempt.id)).limit(1)
+  const [inspected] = await useDb().select({ at: tables.signatures.signedAt }).from(tables.inspections)
+    .innerJoin(tables.signatures, eq(tables.signatures.id, tables.inspections.signatureId))
+    .where(eq(tables.inspections.entryId, wisp!.entryId))
+  const protest = await lodgeProtest(event.id, {
+    attemptId: wisp!.attempt.id, kind: 'inspection', typedName: people.team.name, password: demo.password,
+    grounds: 'The Wisp ran on rear tyres of a lower speed rating than the pair shown at inspection; we ask that '
+      + 'the tyres be checked against the inspection record.',
+  }, people.team, [larkspur!.id], new Date(+inspected!.at + 10 * 60_000))
+  await decideProtest(protest.id, {
+    heardAt: new Date().toISOString(), present: 'Both teams; the chief scrutineer', outcome: 'upheld',
+    hearing: 'The chief scrutineer read the sidewalls in the paddock: the rear tyre fitted for the run is not the '
+      + 'one whose rating was recorded at inspection.',
+    reasons: 'The machine ran on a tyre not inspected: its run is void. The machine may run again once the tyre '
+      + 'fitted is inspected.',
+    voids: 'run', voidRunId: run!.id, typedName: people.official2.name, password: demo.password,
+  }, people.official2, ['official'])
+}
+
+/**
+ * The chief timekeeper's old laptop: a passkey registered before the season and revoked when the laptop was retired.
+ * Its public key is kept (a real P-256 key, made here; it signed nothing in the demo); it signs nothing more.
+ */
+async function revokedDemoPasskey({ people }: DemoFacts) {
+  const { publicKey } = generateKeyPairSync('ec', { namedCurve: 'P-256' })
+  const jwk = publicKey.export({ format: 'jwk' }) as { x: string, y: string }
+  const cose = isoCBOR.encode(new Map<number, number | Uint8Array>([
+    [1, 2], [3, -7], [-1, 1], [-2, isoBase64URL.toBuffer(jwk.x)], [-3, isoBase64URL.toBuffer(jwk.y)],
+  ]))
+  const [key] = await useDb().insert(tables.passkeys).values({
+    userId: people.timekeeper.id, credentialId: isoBase64URL.fromBuffer(randomBytes(16)),
+    publicKey: isoBase64URL.fromBuffer(cose), name: 'old timing-hut laptop',
+  }).returning()
+  await useDb().insert(tables.passkeyRevocations)
+    .values({ passkeyId: key!.id, reason: 'the laptop was retired at the end of last season' })
+}
+
+/**
  * The streamliner's team's plan for the north course's flying mile, in the run day's air: invented figures that
  * come out near what it ran (391–395 km/h each way against a record of 239.227 mph).
  */
@@ -297,6 +349,8 @@ async function seedDemoDossier() {
     typedName: people.timekeeper.name,
   })
   await hearDemoProtest(facts)
+  await upholdDemoInspectionProtest(facts)
+  await revokedDemoPasskey(facts)
   await saveDemoPlan(facts)
   const reasons = 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, '
     + 'two statements.'

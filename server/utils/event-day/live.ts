@@ -308,7 +308,7 @@ function protestFindings(ix: DayIndex, attempt: Attempt): Finding[] {
       ? { code: 'protest.result-void', severity: 'fail' as const,
           message: `The stewards upheld ${by}: the attempt's result is void.` }
       : { code: 'protest.run-void', severity: 'fail' as const,
-          message: `The stewards upheld ${by}: run #${c.runId} is void, and no pair counts it.` }
+          message: `The stewards upheld ${by}: run #${c.runId} is void: no pair with it is valid.` }
   })
 }
 
