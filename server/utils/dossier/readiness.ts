@@ -95,13 +95,15 @@ async function clearances(entryId: number, counted: { id: number, startedAt: str
 type AttemptFile = Awaited<ReturnType<typeof loadAttemptFile>>
 
 /**
- * Where the profile appoints a chief timekeeper or chief scrutineer, the sheet and the clearance are theirs: the
- * signer held that appointment when signing (recorded before or after, not ended before the signature).
+ * Where the profile appoints a chief timekeeper or chief scrutineer and someone is appointed, the sheet and the
+ * clearance are theirs: the signer held that appointment when signing (recorded before or after, not ended before
+ * the signature).
  */
 function chiefSigned(file: AttemptFile, fn: 'chief-timekeeper' | 'chief-scrutineer', signer: { id: number, at: Date }) {
   if (!(file.attempt.profile.appointments?.value ?? []).includes(fn)) return true
-  return file.officials.appointments.some(a => a.function === fn && a.userId === signer.id
-    && (!a.endedAt || a.endedAt > signer.at))
+  // Nobody appointed yet: the appointments item says the function is vacant; this one judges the signer once it is.
+  const held = file.officials.appointments.filter(a => a.function === fn)
+  return !held.length || held.some(a => a.userId === signer.id && (!a.endedAt || a.endedAt > signer.at))
 }
 
 /** The records made on the day: the pair, the signed timing sheet, the inspection, the statements. */
