@@ -68,6 +68,9 @@ export default defineConfig({
           globalSetup: ['tests/support/global-setup.ts'],
           ...E2E_TIMEOUTS,
           fileParallelism: false,
+          // One worker takes the files one after another without a fresh module graph each (no file mocks here):
+          // the imports and set-up of each file are paid once.
+          isolate: false,
           sequence: { groupOrder: 2 },
         },
       },
