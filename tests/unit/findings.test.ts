@@ -43,7 +43,13 @@ describe('setting findings aside', () => {
   })
 
   it('a code nobody listed is refused with a reason of its own', () => {
-    expect(setAsideRule('novel.finding')).toMatchObject({ authority: 'never', why: 'no rule lets this finding be set aside' })
+    expect(setAsideRule('novel.finding')).toEqual({
+      codes: ['novel.finding'],
+      authority: 'never',
+      why: 'no rule lets this finding be set aside',
+      source: 'a finding no rule lists is a condition of the record until one does (common practice)',
+      certainty: 'common practice',
+    })
   })
 
   it('a failing finding blocks until it is set aside; a warning never does', () => {

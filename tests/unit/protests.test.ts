@@ -62,6 +62,8 @@ describe('what an upheld protest makes void', () => {
     expect(consequencesOn([protest({ voids: 'nothing' })], 7)).toEqual([])
     // A decision from before the consequence was recorded (none stored) voids nothing.
     expect(consequencesOn([protest({ voids: null })], 7)).toEqual([])
+    // A dismissal voids nothing, whatever it records (the decision form refuses such a record; this holds anyway).
+    expect(consequencesOn([protest({ outcome: 'dismissed', voids: 'result' })], 7)).toEqual([])
   })
 
   it('only the attempt\'s own protests, only decided ones', () => {
