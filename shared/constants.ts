@@ -48,6 +48,7 @@ export const SIGNED_KINDS = [
   'briefing-sign-on',
   'protest',
   'protest-decision',
+  'revocation',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 
@@ -56,7 +57,7 @@ export const RECORD_UNITS = ['km/h', 'mph'] as const
 export type RecordUnit = (typeof RECORD_UNITS)[number]
 
 /** What became of a claim (a submitted dossier): awaiting the officials, decided, or withdrawn by the team. */
-export const CLAIM_STATUSES = ['claimed', 'ratified', 'homologated', 'refused', 'withdrawn'] as const
+export const CLAIM_STATUSES = ['claimed', 'ratified', 'homologated', 'refused', 'withdrawn', 'revoked'] as const
 export type ClaimStatus = (typeof CLAIM_STATUSES)[number]
 
 /** The officials' decision on a submitted dossier. */

@@ -856,6 +856,24 @@ export const setAsides = pgTable('set_asides', {
   createdAt: createdAt(),
 })
 
+/**
+ * A ratification revoked, with reasons, signed by the holder of the function the profile names: the claim is open
+ * again (a new version may be built and decided); the decision and its revocation both stay. Never edited.
+ */
+export const claimRevocations = pgTable('claim_revocations', {
+  id: serial('id').primaryKey(),
+  dossierId: integer('dossier_id')
+    .notNull()
+    .references(() => dossiers.id)
+    .unique(),
+  reason: text('reason').notNull(),
+  revokedBy: integer('revoked_by')
+    .notNull()
+    .references(() => users.id),
+  signatureId: integer('signature_id').references(() => signatures.id),
+  createdAt: createdAt(),
+})
+
 /** The machine's check-in at the impound after a qualifying run, as the club procedure asks. */
 export const impoundCheckIns = pgTable('impound_check_ins', {
   id: serial('id').primaryKey(),

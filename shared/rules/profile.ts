@@ -10,6 +10,10 @@ export type Certainty = 'seen' | 'from memory' | 'common practice' | 'not settle
 /** The number of appointed stewards who sign a decision of the stewards under this profile (one where it says none). */
 export const stewardsQuorum = (profile: Pick<RuleProfile, 'stewards'>) => profile.stewards?.value.quorum ?? 1
 
+/** Who may revoke a ratification under this profile (a steward where it says none). */
+export const revokedByOf = (profile: Pick<RuleProfile, 'revokedBy'>): OfficialFunction =>
+  profile.revokedBy?.value ?? 'steward'
+
 /** A rule value with where it comes from. */
 export interface Sourced<T> {
   value: T
@@ -81,6 +85,8 @@ export interface RuleProfile {
   protests?: Sourced<ProtestRule>
   /** How many appointed stewards sign a decision of the stewards (absent in older copies: one). */
   stewards?: Sourced<{ quorum: number }>
+  /** The function whose holder may revoke a ratification, reopening the claim (absent in older copies: a steward). */
+  revokedBy?: Sourced<OfficialFunction>
 }
 
 export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'name' | 'summary'>, string> = {
@@ -104,6 +110,7 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
   briefing: 'Riders\' briefing',
   protests: 'Protests and appeals',
   stewards: 'Stewards\' decisions',
+  revokedBy: 'Revoking a ratification',
 }
 
 export function describeWindow(w: RunWindow): string {
@@ -177,6 +184,9 @@ export function describeRuleValue(key: keyof typeof ruleLabels, value: unknown):
       return value ? 'each rider signs on to the latest briefing before running' : 'not required'
     case 'protests':
       return describeProtestRule(value as ProtestRule)
+    case 'revokedBy':
+      return `signed by the appointed ${OFFICIAL_FUNCTION_LABELS[value as OfficialFunction].toLowerCase()}, `
+        + 'with reasons'
     case 'stewards': {
       const { quorum } = value as { quorum: number }
       return quorum === 1 ? 'signed by an appointed steward' : `signed by ${quorum} appointed stewards`

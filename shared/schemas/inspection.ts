@@ -143,6 +143,12 @@ export const postRunCheckSchema = signSheetSchema.extend({
 })
 export type PostRunCheckInput = z.infer<typeof postRunCheckSchema>
 
+/** A ratification revoked by the function the profile names, with the reasons in writing, signed. */
+export const revocationSchema = signSheetSchema.extend({
+  reason: z.string().trim().min(10, { error: 'give the reasons in writing (at least 10 characters)' }).max(4000),
+})
+export type RevocationInput = z.infer<typeof revocationSchema>
+
 /** The sanctioning body's homologation of a ratified record, as an official enters it. */
 export const homologationSchema = signSheetSchema.extend({
   reference: z.string().trim().min(2, { error: 'give the sanctioning body\'s reference' }).max(120),

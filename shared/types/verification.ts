@@ -17,7 +17,7 @@ export interface Verification {
   } | null
   /** What became of the dossier, when this server issued it. */
   standing: {
-    state: 'current' | 'superseded' | 'ratified' | 'refused' | 'withdrawn'
+    state: 'current' | 'superseded' | 'ratified' | 'refused' | 'withdrawn' | 'revoked'
     latestVersion: number
     words: string
   } | null

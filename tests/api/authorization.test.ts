@@ -50,6 +50,7 @@ const TABLE: Record<string, { expect: Record<Who, number>, body?: unknown }> = {
   // The team's own ratified demo dossier: past the role check, the empty body answers 422.
   'POST /api/dossiers/[id]/withdrawal': { expect: { ...eventMembers(403), admin: 404, team: 422 }, body: {} },
   'POST /api/dossiers/[id]/homologation': { expect: rolesOnly(422, 'official'), body: {} },
+  'POST /api/dossiers/[id]/revocation': { expect: rolesOnly(422, 'official'), body: {} },
   'POST /api/dossiers/[id]/signing-options': { expect: rolesOnly(422, 'official'), body: {} },
   'GET /api/home': { expect: signedIn(200) },
   'GET /api/events': { expect: signedIn(200) },

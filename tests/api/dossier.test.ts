@@ -336,11 +336,14 @@ describe('submission and ratification', { shuffle: false }, () => {
   let event: TestEvent
   let attemptId = 0
   let secondAttemptId = 0
+  let observer = ''
   let v1 = { id: 0, version: 0 }
   const officialSigns = { password: 'first-password-1', typedName: 'Test official' }
   beforeAll(async () => {
     event = await newTestEvent('intl-motorcycle', 'Europe/Paris')
-    attemptId = (await readyPair(event, 'Claim machine')).attemptId
+    const pair = await readyPair(event, 'Claim machine')
+    attemptId = pair.attemptId
+    observer = pair.second.cookie
     // A second pair of the team, its claim built later with the mail server down (invitations need it up).
     secondAttemptId = (await readyPair(event, 'Claim machine two')).attemptId
     const built = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
@@ -408,6 +411,28 @@ describe('submission and ratification', { shuffle: false }, () => {
     expect(third.status).toBe(409)
     expect(third.body.statusMessage).toContain(`Version ${built.body.version} of this claim was ratified`)
     expect((await db.query('select count(*) from dossiers where attempt_id = $1', [attemptId])).rows[0].count).toBe(count)
+
+    // Only a signed revocation reopens it, by the function the profile names (international: the sanctioning body's
+    // observer, from memory): not by another official; both the decision and its revocation stay.
+    const revoke = (cookie: string, typedName: string) => call('POST', `/api/dossiers/${built.body.id}/revocation`, {
+      cookie, body: { reason: 'The survey certificate was found to be for another course.', password: 'first-password-1', typedName },
+    })
+    const byClerk = await revoke(event.cookie.official, 'Test official')
+    expect(byClerk.status).toBe(403)
+    expect(byClerk.body.statusMessage).toBe('Only the appointed observer of the sanctioning body revokes a ratification under this profile')
+    const revoked = await revoke(observer, 'Second official')
+    expect(revoked.status, JSON.stringify(revoked.body)).toBe(201)
+    expect((await revoke(observer, 'Second official')).status).toBe(409)
+    const revokedReport = (await call('GET', `/api/signatures/${revoked.body.signatureId}`, { cookie: event.cookie.official })).body
+    expect(revokedReport).toMatchObject({ kind: 'revocation', storedContentMatches: true, recordStillMatches: true })
+    expect((await verify(newPdf)).body.standing).toMatchObject({ state: 'revoked' })
+    expect((await call('GET', '/api/record-book')).body.claims.find((c: any) => c.id === built.body.id))
+      .toMatchObject({ status: 'revoked', reasons: 'The survey certificate was found to be for another course.' })
+    const history = (await call('GET', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).body
+      .find((v: any) => v.id === built.body.id)
+    expect(history).toMatchObject({ decision: { decision: 'ratified' }, revocation: { reason: expect.stringContaining('another course') } })
+    // The claim is open again: a new version is built.
+    expect((await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).status).toBe(201)
   })
 
   it('with the mail server down, the submission is kept and the e-mail goes out once it is back', async () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { profiles } from '#shared/rules/profiles'
-import { describeRuleValue, describeWindow, ruleLabels, stewardsQuorum } from '#shared/rules/profile'
+import { describeRuleValue, describeWindow, revokedByOf, ruleLabels, stewardsQuorum } from '#shared/rules/profile'
 
 // Each rule value as the rules page and the dossier print it, read off the profiles by hand: the international
 // motorcycle rule (FIM world records page, seen: two runs in opposite directions within 2 h, distance over the mean
@@ -94,10 +94,19 @@ describe('rule values in words', () => {
     expect(stewardsQuorum({})).toBe(1)
   })
 
+  it('who revokes a ratification: the body\'s observer internationally, a steward at a club meet', () => {
+    expect(words(moto, 'revokedBy')).toBe('signed by the appointed observer of the sanctioning body, with reasons')
+    expect(words(club, 'revokedBy')).toBe('signed by the appointed steward, with reasons')
+    expect(revokedByOf(auto)).toBe('observer')
+    // A copy frozen before the rule existed: a steward.
+    expect(revokedByOf({})).toBe('steward')
+  })
+
   it('labels every rule', () => {
     expect(ruleLabels.window).toBe('Time window')
     expect(ruleLabels.tailWindLimitMs).toBe('Tail-wind limit')
     expect(ruleLabels.stewards).toBe('Stewards\' decisions')
-    expect(Object.keys(ruleLabels)).toHaveLength(20)
+    expect(ruleLabels.revokedBy).toBe('Revoking a ratification')
+    expect(Object.keys(ruleLabels)).toHaveLength(21)
   })
 })

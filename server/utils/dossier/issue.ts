@@ -1,7 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto'
 import { mkdir, rm, writeFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import { and, desc, eq, sql } from 'drizzle-orm'
+import { and, desc, eq, isNull, sql } from 'drizzle-orm'
 import { buildManifest, PERSONAL_EVIDENCE, publicManifest, type Manifest } from './manifest'
 import type { Readiness } from './readiness'
 import { renderDossier, type Attachment } from './render'
@@ -125,14 +125,16 @@ export async function lockClaim(tx: Tx, attemptId: number, distanceId: number) {
 
 /**
  * Decided is final: once a version of a claim is ratified, no new version of it is built or submitted and no other
- * version is decided. (A refused claim may be corrected and submitted again as a new version.)
+ * version is decided, until the ratification is revoked (signed, with reasons: revokeRatification). A refused claim
+ * may be corrected and submitted again as a new version.
  */
 export async function refuseIfDecided(attemptId: number, distanceId: number, db: Tx | Db = useDb()) {
   const [ratified] = await db.select({ version: tables.dossiers.version, at: tables.decisions.decidedAt })
     .from(tables.decisions)
     .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.decisions.dossierId))
+    .leftJoin(tables.claimRevocations, eq(tables.claimRevocations.dossierId, tables.dossiers.id))
     .where(and(eq(tables.dossiers.attemptId, attemptId), eq(tables.dossiers.distanceId, distanceId),
-      eq(tables.decisions.decision, 'ratified')))
+      eq(tables.decisions.decision, 'ratified'), isNull(tables.claimRevocations.id)))
     .limit(1)
   if (ratified) {
     throw conflict(`Version ${ratified.version} of this claim was ratified on ${ratified.at.toISOString()}: a decided `

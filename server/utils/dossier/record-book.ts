@@ -19,23 +19,26 @@ const profileName = (p: { id: string, name: string }) =>
 async function claimRows() {
   const t = tables
   const rows = await useDb()
-    .select({ d: t.dossiers, decision: t.decisions, h: t.homologations, w: t.withdrawals })
+    .select({ d: t.dossiers, decision: t.decisions, h: t.homologations, w: t.withdrawals, revoked: t.claimRevocations })
     .from(t.submissions)
     .innerJoin(t.dossiers, eq(t.dossiers.id, t.submissions.dossierId))
     .leftJoin(t.decisions, eq(t.decisions.dossierId, t.dossiers.id))
     .leftJoin(t.homologations, eq(t.homologations.dossierId, t.dossiers.id))
     .leftJoin(t.withdrawals, eq(t.withdrawals.dossierId, t.dossiers.id))
+    .leftJoin(t.claimRevocations, eq(t.claimRevocations.dossierId, t.dossiers.id))
     .orderBy(asc(t.submissions.id))
   const latest = new Map<string, number>()
   for (const r of rows) latest.set(`${r.d.attemptId}:${r.d.distanceId}`, r.d.id)
   return rows.map((r) => {
     const status: ClaimStatus = r.w
       ? 'withdrawn'
-      : r.decision?.decision === 'refused'
-        ? 'refused'
-        : r.decision
-          ? (r.h?.signatureId ? 'homologated' : 'ratified')
-          : 'claimed'
+      : r.revoked
+        ? 'revoked'
+        : r.decision?.decision === 'refused'
+          ? 'refused'
+          : r.decision
+            ? (r.h?.signatureId ? 'homologated' : 'ratified')
+            : 'claimed'
     const isLatest = latest.get(`${r.d.attemptId}:${r.d.distanceId}`) === r.d.id
     return { ...r, status, latest: isLatest, order: r.decision?.id ?? Number.MAX_SAFE_INTEGER }
   })
@@ -61,7 +64,7 @@ function claimView(r: ClaimRow, site: string, protested: Set<number>) {
     rider: m.entry.riderName,
     team: m.entry.teamName,
     /** Why it was refused or withdrawn, in the officials' or the team's words. */
-    reasons: r.w?.reason ?? (r.decision?.decision === 'refused' ? r.decision.reasons : null),
+    reasons: r.w?.reason ?? r.revoked?.reason ?? (r.decision?.decision === 'refused' ? r.decision.reasons : null),
     dossierUrl: `${site}/api/dossiers/${r.d.id}/pdf`,
     certificateUrl: decided ? `${site}/api/dossiers/${r.d.id}/certificate` : null,
     verifyUrl: `${site}/verify`,

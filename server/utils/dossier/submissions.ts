@@ -3,7 +3,9 @@ import { cmp, fromDecimal } from '#shared/rules/exact'
 import { convertSpeed, publishedInMs } from '#shared/rules/units'
 import { localDate } from '#shared/rules/zoned'
 import type { EventAccess } from '../auth/auth'
-import type { DecisionInput, HomologationInput } from '#shared/schemas/inspection'
+import type { DecisionInput, HomologationInput, RevocationInput } from '#shared/schemas/inspection'
+import { revokedByOf } from '#shared/rules/profile'
+import { OFFICIAL_FUNCTION_LABELS } from '#shared/constants'
 
 /** The team an attempt belongs to; a team may act only on its own attempts (else 404). */
 export async function assertOwnAttempt(access: EventAccess, attemptId: number) {
@@ -29,12 +31,14 @@ export async function dossiersOf(attemptId: number) {
       signatureId: tables.decisions.signatureId,
       withdrawal: tables.withdrawals,
       homologation: tables.homologations,
+      revocation: tables.claimRevocations,
     })
     .from(tables.dossiers)
     .leftJoin(tables.submissions, eq(tables.submissions.dossierId, tables.dossiers.id))
     .leftJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
     .leftJoin(tables.withdrawals, eq(tables.withdrawals.dossierId, tables.dossiers.id))
     .leftJoin(tables.homologations, eq(tables.homologations.dossierId, tables.dossiers.id))
+    .leftJoin(tables.claimRevocations, eq(tables.claimRevocations.dossierId, tables.dossiers.id))
     .where(eq(tables.dossiers.attemptId, attemptId))
     .orderBy(desc(tables.dossiers.version))
   return rows.map(r => ({
@@ -56,7 +60,53 @@ export async function dossiersOf(attemptId: number) {
     homologation: r.homologation?.signatureId
       ? { reference: r.homologation.reference, on: r.homologation.homologatedOn }
       : null,
+    revocation: r.revocation?.signatureId ? { reason: r.revocation.reason, at: r.revocation.createdAt } : null,
   }))
+}
+
+/** What the revoking official signs: the ratified file by its hashes, the decision revoked, and why. */
+export const revocationContent = (d: typeof tables.dossiers.$inferSelect, decisionId: number, reason: string) => ({
+  dossier: d.id,
+  attempt: d.attemptId,
+  version: d.version,
+  pdfSha256: d.pdfSha256,
+  decision: decisionId,
+  reason,
+})
+
+/**
+ * The holder of the function the attempt's profile names (the sanctioning body's observer internationally, a
+ * steward at a club meet) revokes a ratification, with reasons, signed: the claim is open again, the record it set
+ * no longer stands, and the decision and its revocation both stay in the history. Never by a member of the team.
+ */
+export async function revokeRatification(dossierId: number, input: RevocationInput,
+  user: { id: number, name: string }) {
+  const d = await dossierRow(dossierId)
+  const [attempt] = await useDb().select({ profile: tables.attempts.profile }).from(tables.attempts)
+    .where(eq(tables.attempts.id, d.attemptId))
+  const fn = revokedByOf(attempt!.profile)
+  if (!(await holdsAppointment(d.eventId, user.id, fn))) {
+    throw forbidden(`Only the appointed ${OFFICIAL_FUNCTION_LABELS[fn].toLowerCase()} revokes a ratification under `
+      + 'this profile')
+  }
+  await refuseConflicted(useDb(), { eventId: d.eventId, userId: user.id },
+    [await teamOfAttemptIn(useDb(), d.attemptId)], 'revoke this team\'s ratification')
+  const proof = await signerProof(user.id, input)
+  return useDb().transaction(async (tx) => {
+    await lockClaim(tx, d.attemptId, d.distanceId)
+    const [decision] = await tx.select().from(tables.decisions).where(eq(tables.decisions.dossierId, dossierId))
+    if (decision?.decision !== 'ratified') throw conflict('Only a ratified claim is revoked')
+    const [row] = await tx.insert(tables.claimRevocations)
+      .values({ dossierId, reason: input.reason, revokedBy: user.id }).onConflictDoNothing().returning()
+    if (!row) throw conflict('This ratification is already revoked')
+    const sig = await insertSignature(tx, {
+      proof, kind: 'revocation', subjectId: row.id, eventId: d.eventId, signerId: user.id,
+      typedName: input.typedName, nameNote: input.nameNote, content: revocationContent(d, decision.id, input.reason),
+    })
+    const [signed] = await tx.update(tables.claimRevocations).set({ signatureId: sig.id })
+      .where(eq(tables.claimRevocations.id, row.id)).returning()
+    return signed!
+  })
 }
 
 /**

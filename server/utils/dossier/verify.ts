@@ -77,11 +77,16 @@ async function standingOf(d: typeof tables.dossiers.$inferSelect): Promise<NonNu
     .orderBy(desc(tables.dossiers.version)).limit(1)
   const [decision] = await useDb().select().from(tables.decisions).where(eq(tables.decisions.dossierId, d.id))
   const [withdrawal] = await useDb().select().from(tables.withdrawals).where(eq(tables.withdrawals.dossierId, d.id))
-  const state = decision
-    ? (decision.decision === 'ratified' ? 'ratified' : 'refused')
-    : withdrawal ? 'withdrawn' : newer ? 'superseded' : 'current'
+  const [revoked] = await useDb().select().from(tables.claimRevocations)
+    .where(eq(tables.claimRevocations.dossierId, d.id))
+  const state = revoked
+    ? 'revoked'
+    : decision
+      ? (decision.decision === 'ratified' ? 'ratified' : 'refused')
+      : withdrawal ? 'withdrawn' : newer ? 'superseded' : 'current'
   const words = [
     decision ? `It was ${decision.decision}.` : '',
+    revoked ? `The ratification was revoked: ${revoked.reason}` : '',
     withdrawal ? `The team withdrew its claim: ${withdrawal.reason}` : '',
     newer ? `It is superseded: version ${newer.version} is the latest of this attempt.` : '',
     !decision && !newer && !withdrawal ? 'It is the latest version of this attempt, not yet decided.' : '',

@@ -45,7 +45,10 @@ function standingRecordRows(eventId: number) {
     .select({ ...getTableColumns(t.standingRecords), fromAttemptId: t.dossiers.attemptId })
     .from(t.standingRecords)
     .leftJoin(t.dossiers, eq(t.dossiers.id, t.standingRecords.dossierId))
-    .where(and(eq(t.standingRecords.eventId, eventId), isNull(t.standingRecords.retiredAt)))
+    // A record from a ratification since revoked no longer stands.
+    .leftJoin(t.claimRevocations, eq(t.claimRevocations.dossierId, t.standingRecords.dossierId))
+    .where(and(eq(t.standingRecords.eventId, eventId), isNull(t.standingRecords.retiredAt),
+      isNull(t.claimRevocations.id)))
     .orderBy(asc(t.standingRecords.id))
 }
 

@@ -97,6 +97,17 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x?.d.attemptId ?? 0)
     title = `Decision on dossier #${s.subjectId}`
   }
+  else if (s.kind === 'revocation') {
+    const [x] = await useDb()
+      .select({ r: tables.claimRevocations, d: tables.dossiers, decision: tables.decisions })
+      .from(tables.claimRevocations)
+      .innerJoin(tables.dossiers, eq(tables.dossiers.id, tables.claimRevocations.dossierId))
+      .innerJoin(tables.decisions, eq(tables.decisions.dossierId, tables.dossiers.id))
+      .where(eq(tables.claimRevocations.id, s.subjectId))
+    current = x ? revocationContent(x.d, x.decision.id, x.r.reason) : null
+    teamId = await teamOfAttempt(x?.d.attemptId ?? 0)
+    title = `Revocation of the ratification of dossier #${x?.d.id ?? '?'}`
+  }
   else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
     teamId = await teamOfAttempt(s.subjectId)

@@ -1,6 +1,6 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
-import { briefingRequired, clubLicence, clubProtests, clubStewards } from './officials-rules'
+import { briefingRequired, clubLicence, clubProtests, clubStewards, clubRevocation } from './officials-rules'
 
 const CLUB_PAGES = 'club record procedure pages'
 
@@ -73,6 +73,7 @@ export const clubSameDirection: RuleProfile = {
   briefing: briefingRequired,
   protests: clubProtests,
   stewards: clubStewards,
+  revokedBy: clubRevocation,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

@@ -1,5 +1,11 @@
 import type { RuleProfile } from '../profile'
-import { briefingRequired, internationalLicence, internationalProtests, internationalStewards } from './officials-rules'
+import {
+  briefingRequired,
+  internationalLicence,
+  internationalProtests,
+  internationalStewards,
+  internationalRevocation,
+} from './officials-rules'
 import type { RecordClass } from '../classes'
 
 const electricCar = (words: string, massKg: { over: number, upTo: number | null }): RecordClass =>
@@ -71,6 +77,7 @@ export const intlAutomobile: RuleProfile = {
   briefing: briefingRequired,
   protests: internationalProtests,
   stewards: internationalStewards,
+  revokedBy: internationalRevocation,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

@@ -1,6 +1,12 @@
 import { motorcycleClasses } from '../classes'
 import type { RuleProfile } from '../profile'
-import { briefingRequired, internationalLicence, internationalProtests, internationalStewards } from './officials-rules'
+import {
+  briefingRequired,
+  internationalLicence,
+  internationalProtests,
+  internationalStewards,
+  internationalRevocation,
+} from './officials-rules'
 
 const FIM_PAGE = 'FIM world records page'
 
@@ -70,6 +76,7 @@ export const intlMotorcycle: RuleProfile = {
   briefing: briefingRequired,
   protests: internationalProtests,
   stewards: internationalStewards,
+  revokedBy: internationalRevocation,
   postRunCheck: {
     value: false,
     source: 'not asked by default; the organiser asks for it where the rulebook does (common practice: mass or '

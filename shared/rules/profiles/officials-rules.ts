@@ -1,6 +1,7 @@
 import { q, toNumber } from '../exact'
 import { mphToKmh } from '../units'
 import type { Sourced } from '../profile'
+import type { OfficialFunction } from '../../constants'
 import type { LicenceGrade, LicenceRule } from '../start-line'
 import type { ProtestRule } from '../protests'
 
@@ -70,5 +71,21 @@ export const clubStewards: Sourced<{ quorum: number }> = {
   value: { quorum: 1 },
   source: 'a club meet names one steward for its decisions (common practice, not checked against a rulebook: a '
     + 'setting of the profile)',
+  certainty: 'common practice',
+}
+
+/** The sanctioning body's observer revokes a ratification made at the event (common practice, from memory). */
+export const internationalRevocation: Sourced<OfficialFunction> = {
+  value: 'observer',
+  source: 'a ratification is revoked only by the sanctioning body, through its appointed observer, with reasons '
+    + '(common practice, from memory; confirm in the code in force)',
+  certainty: 'from memory',
+}
+
+/** At a club meet, the steward revokes (a setting of the profile). */
+export const clubRevocation: Sourced<OfficialFunction> = {
+  value: 'steward',
+  source: 'a club meet\'s steward revokes a ratification, with reasons (common practice, not checked against a '
+    + 'rulebook: a setting of the profile)',
   certainty: 'common practice',
 }
