@@ -51,16 +51,9 @@ export async function signOut(event: H3Event) {
  */
 export async function sessionUser(event: H3Event): Promise<User | null> {
   const session = await getUserSession(event)
-  if (!session.user) return null
-  // One query: the person, and the session as the server knows it (ended, or never known, is signed out).
-  const [found] = await useDb().select({ row: tables.users, endedAt: tables.sessions.endedAt })
-    .from(tables.users)
-    .innerJoin(tables.sessions, and(eq(tables.sessions.userId, tables.users.id),
-      eq(tables.sessions.idSha256, sidDigest(session.sid ?? ''))))
-    .where(eq(tables.users.id, session.user.id))
-  const row = found?.row
-  if (!row || found.endedAt || row.sessionVersion !== (session.version ?? -1)) {
-    await clearUserSession(event, cookieFor(event))
+  const row = await standingPerson(session)
+  if (!row) {
+    if (session.user) await clearUserSession(event, cookieFor(event))
     return null
   }
   // For the request log: who made the request, by id only.
@@ -73,19 +66,27 @@ export async function sessionUser(event: H3Event): Promise<User | null> {
  * role at the event (or is the site's administrator): checked again every few seconds while it is open.
  */
 export async function sessionStillHolds(event: H3Event, eventId: number) {
-  const session = await getUserSession(event)
-  if (!session.user) return false
-  const [found] = await useDb().select({ version: tables.users.sessionVersion, isAdmin: tables.users.isAdmin,
-    endedAt: tables.sessions.endedAt })
+  const row = await standingPerson(await getUserSession(event))
+  if (!row) return false
+  if (row.isAdmin) return true
+  const [role] = await useDb().select({ id: tables.memberships.id }).from(tables.memberships)
+    .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.userId, row.id))).limit(1)
+  return !!role
+}
+
+/**
+ * The person behind a session, in one query with the session as the server knows it; null when there is no session,
+ * or it ended, was never known, or is of an older version than the person's (a new password, "sign out everywhere").
+ */
+async function standingPerson(session: Awaited<ReturnType<typeof getUserSession>>) {
+  if (!session.user) return null
+  const [found] = await useDb().select({ row: tables.users, endedAt: tables.sessions.endedAt })
     .from(tables.users)
     .innerJoin(tables.sessions, and(eq(tables.sessions.userId, tables.users.id),
       eq(tables.sessions.idSha256, sidDigest(session.sid ?? ''))))
     .where(eq(tables.users.id, session.user.id))
-  if (!found || found.endedAt || found.version !== (session.version ?? -1)) return false
-  if (found.isAdmin) return true
-  const [role] = await useDb().select({ id: tables.memberships.id }).from(tables.memberships)
-    .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.userId, session.user.id))).limit(1)
-  return !!role
+  if (!found || found.endedAt || found.row.sessionVersion !== (session.version ?? -1)) return null
+  return found.row
 }
 
 /** Ends every session of a person; returns the row with the new version. */

@@ -39,11 +39,17 @@ export async function refuseTeamMemberAsJudge(db: Tx | Db, eventId: number, user
   await refuseConflicted(db, { eventId, userId }, rows.map(r => r.teamId!), `be appointed ${fn} at this event`)
 }
 
-/** The team of an attempt. */
-export async function teamOfAttemptIn(db: Tx | Db, attemptId: number) {
+/** The team of an attempt, or null when there is no such attempt. */
+export async function findTeamOfAttempt(db: Tx | Db, attemptId: number) {
   const [row] = await db.select({ teamId: tables.entries.teamId }).from(tables.attempts)
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(eq(tables.attempts.id, attemptId))
-  if (!row) throw notFound('No such attempt')
-  return row.teamId
+  return row?.teamId ?? null
+}
+
+/** The team of an attempt; 404 when there is no such attempt. */
+export async function teamOfAttemptIn(db: Tx | Db, attemptId: number) {
+  const teamId = await findTeamOfAttempt(db, attemptId)
+  if (teamId === null) throw notFound('No such attempt')
+  return teamId
 }

@@ -46,11 +46,16 @@ async function currentFinding(eventId: number, attemptId: number, input: SetAsid
   return { finding, teamId: live.entry.teamId }
 }
 
-/** Only a steward appointed at the event signs a decision of the stewards; asked before the password. */
-async function refuseUnlessSteward(eventId: number, userId: number) {
+/**
+ * Only a steward appointed at the event, and of no team of the attempt, signs a decision of the stewards; asked
+ * before the password.
+ */
+async function refuseUnlessIndependentSteward(eventId: number, userId: number, attemptId: number) {
   if (!(await holdsAppointment(eventId, userId, 'steward'))) {
     throw forbidden('Only a steward appointed at this event signs a set-aside: it is a decision of the stewards')
   }
+  await refuseConflicted(useDb(), { eventId, userId }, [await teamOfAttemptIn(useDb(), attemptId)],
+    'set aside a finding of this team\'s attempt')
 }
 
 /** The set-aside's signers so far and how many the attempt's profile asks for. */
@@ -77,9 +82,7 @@ export async function setAsideFinding(
   input: SetAsideInput,
   user: { id: number, name: string },
 ) {
-  await refuseUnlessSteward(eventId, user.id)
-  await refuseConflicted(useDb(), { eventId, userId: user.id }, [await teamOfAttemptIn(useDb(), attemptId)],
-    'set aside a finding of this team\'s attempt')
+  await refuseUnlessIndependentSteward(eventId, user.id, attemptId)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts)
@@ -125,9 +128,7 @@ export async function setAsideFinding(
 export async function cosignSetAside(setAsideId: number, input: SignSheetInput, user: { id: number, name: string }) {
   const [found] = await useDb().select().from(tables.setAsides).where(eq(tables.setAsides.id, setAsideId))
   if (!found) throw notFound('No such set-aside')
-  await refuseUnlessSteward(found.eventId, user.id)
-  await refuseConflicted(useDb(), { eventId: found.eventId, userId: user.id },
-    [await teamOfAttemptIn(useDb(), found.attemptId)], 'set aside a finding of this team\'s attempt')
+  await refuseUnlessIndependentSteward(found.eventId, user.id, found.attemptId)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts).where(eq(tables.attempts.id, found.attemptId))

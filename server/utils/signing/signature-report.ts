@@ -135,11 +135,4 @@ export async function signatureReport(signatureId: number) {
   }
 }
 
-async function teamOfAttempt(attemptId: number) {
-  const [a] = await useDb()
-    .select({ teamId: tables.entries.teamId })
-    .from(tables.attempts)
-    .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
-    .where(eq(tables.attempts.id, attemptId))
-  return a?.teamId ?? 0
-}
+const teamOfAttempt = async (attemptId: number) => (await findTeamOfAttempt(useDb(), attemptId)) ?? 0
