@@ -49,6 +49,7 @@ export const SIGNED_KINDS = [
   'protest',
   'protest-decision',
   'revocation',
+  'confirmation',
 ] as const
 export type SignedKind = (typeof SIGNED_KINDS)[number]
 

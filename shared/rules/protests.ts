@@ -115,3 +115,51 @@ export interface ProtestLike {
 export function openProtests<T extends ProtestLike>(list: T[], attemptId: number): T[] {
   return list.filter(p => p.attemptId === attemptId && !p.decidedAt)
 }
+
+/** What the stewards' confirmation of a result waits for, judged at one instant. */
+export interface ConfirmationFacts {
+  attemptId: number
+  /** When each thing a protest may be lodged against was published (the signed timing sheet, the inspection). */
+  published: number[]
+  /** The attempt's frozen protest rule; null where its profile provides none (nothing to wait for). */
+  rule: ProtestRule | null
+  timeZone: string
+  /** The protests and appeals of the event (any attempt's; only this one's count), decided or not. */
+  protests: { id: number, attemptId: number, appealOf: number | null, decidedAt: string | Date | null }[]
+}
+
+/**
+ * The instant from which a result may be confirmed: once the protest period of everything published has ended and,
+ * for each decided protest nobody appealed, the appeal period too (a result stays provisional while it can still be
+ * protested or appealed: sporting codes, common practice). Null where nothing was published yet.
+ */
+export function confirmableAfter(f: ConfirmationFacts): number | null {
+  if (!f.published.length) return null
+  if (!f.rule) return Math.max(...f.published)
+  const ends = f.published.map(p => deadlineAfter(p, f.rule!.lodge, f.timeZone))
+  if (f.rule.appeal) {
+    const appeal = f.rule.appeal.deadline
+    for (const p of f.protests.filter(x => x.attemptId === f.attemptId && !x.appealOf && x.decidedAt)) {
+      if (f.protests.some(a => a.appealOf === p.id)) continue
+      ends.push(deadlineAfter(new Date(p.decidedAt!).getTime(), appeal, f.timeZone))
+    }
+  }
+  return Math.max(...ends)
+}
+
+/**
+ * Why the stewards may not confirm the result at `now`, in words; empty when they may. A protest lodged at its
+ * deadline is in time (lodging refuses only after it), so the result is confirmed only after that instant.
+ */
+export function confirmationWaits(f: ConfirmationFacts, now: number): string[] {
+  const waits: string[] = []
+  const after = confirmableAfter(f)
+  if (after === null) waits.push('the result is not published yet: its timing sheet is not signed')
+  else if (now <= after) {
+    waits.push(`the protest and appeal periods run until ${clockTime(after, f.timeZone)}`)
+  }
+  for (const p of f.protests.filter(x => x.attemptId === f.attemptId && !x.decidedAt)) {
+    waits.push(`${p.appealOf ? 'appeal' : 'protest'} #${p.id} is not decided`)
+  }
+  return waits
+}

@@ -6,7 +6,7 @@ import { newTestEvent, type TestEvent } from '../support/test-event'
 await useTestServer()
 
 // Independence, one check for every signed act: a person who holds a role in a team (its rider among them) never
-// witnesses, times, inspects, sets aside, decides a protest or appeal, ratifies or homologates anything of that
+// witnesses, times, inspects, sets aside, decides a protest or appeal, confirms a result, ratifies or homologates anything of that
 // team, nor is appointed steward or observer where it competes (common practice of sporting codes: an official
 // with an interest in a competitor does not judge it). The conflicted person here holds every official role at the
 // test event and the functions that need an appointment, given before the team role was added, so that only
@@ -85,6 +85,7 @@ describe('nobody of a team signs an act about it', () => {
     ['post-run check', () => ['POST', `/api/attempts/${ids.attempt}/post-run-check`, { ...signs(), massKg: 181 }], 'sign the post-run check of this team\'s attempt'],
     ['suspension', () => ['POST', `/api/machines/${ids.machine}/suspensions`, { ...signs(), reason: 'a loose fairing' }], 'suspend this team\'s machine'],
     ['start override', () => ['POST', `/api/entries/${ids.entry}/start-overrides`, { ...signs(), codes: ['licence.expired'], reason: 'renewal seen' }], 'let this team\'s entry start'],
+    ['confirmation of the result', () => ['POST', `/api/attempts/${ids.attempt}/confirmations`, signs()], 'confirm this team\'s result'],
     ['ratification', () => ['POST', `/api/dossiers/${ids.dossier}/decision`, { ...signs(), decision: 'ratified', reasons: 'all in order' }], 'ratify this team\'s claim'],
     ['refusal', () => ['POST', `/api/dossiers/${ids.dossier}/decision`, { ...signs(), decision: 'refused', reasons: 'not in order' }], 'refuse this team\'s claim'],
     ['homologation', () => ['POST', `/api/dossiers/${ids.dossier}/homologation`, { ...signs(), reference: 'HOM-1', homologatedOn: '2026-12-01' }], 'enter the homologation of this team\'s record'],

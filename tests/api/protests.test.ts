@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { call, demoEmail, demoEventId, invitedPerson, login, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { pdfText } from '../support/pdf-tools'
-import { makeReady } from '../support/ready-attempt'
+import { confirmByStewards, makeReady } from '../support/ready-attempt'
 import { kilometreRun } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 import { addDays, localDate, localDateTime } from '#shared/rules/zoned'
@@ -45,8 +45,8 @@ async function publishedAttempt(zone: string, adapt: Record<string, unknown>, na
   const t0 = Math.ceil(Date.now() / 1000) * 1000 + 1000
   const out = await kilometreRun(place, entryId, 'out', t0, quick)
   const back = await kilometreRun(place, entryId, 'back', t0 + 120_000, quick)
-  await makeReady(event, out.attemptId, [out.id, back.id], entryId)
-  return { event, attemptId: out.attemptId, entryId }
+  const { second } = await makeReady(event, out.attemptId, [out.id, back.id], entryId)
+  return { event, attemptId: out.attemptId, entryId, second }
 }
 
 const lodge = (event: TestEvent, body: Record<string, unknown>) =>
@@ -58,7 +58,7 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
     const zone = zoneAtHour(22)
     const local = localDateTime(Date.now(), zone)
     const toMidnight = 24 * 60 - (Number(local.slice(11, 13)) * 60 + Number(local.slice(14, 16)))
-    const { event, attemptId } = await publishedAttempt(zone, { protestMinutes: toMidnight + 10, appealMinutes: 60 },
+    const { event, attemptId, second } = await publishedAttempt(zone, { protestMinutes: toMidnight + 10, appealMinutes: 60 },
       'Protested Sprite')
     const today = localDate(Date.now(), zone)
     // The claim is issued and submitted before anyone protests.
@@ -101,10 +101,11 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
         hearing: 'The backup printout shows the K-out time; the team saw it.', reasons: 'Both systems recorded the pass.',
       },
     })
-    expect((await decide(p.id, event.cookie.official, 'Test official')).status).toBe(403)
-    await call('POST', `/api/events/${event.eventId}/appointments`, {
-      cookie: event.cookie.organiser, body: { function: 'steward', userId: await idOf(event.cookie.official) },
-    })
+    // An official who is not appointed steward is refused (the event's official is one: appointed to confirm results).
+    const plain = await invitedPerson('official', 'first-password-1', 'Plain official', { eventId: event.eventId, organiser: event.cookie.organiser })
+    const notSteward = await decide(p.id, plain.cookie, 'Plain official')
+    expect(notSteward.status).toBe(403)
+    expect(notSteward.body.statusMessage).toBe('Only a steward appointed at this event decides a protest')
     const decided = await decide(p.id, event.cookie.official, 'Test official')
     expect(decided.status, JSON.stringify(decided.body)).toBe(201)
     expect(decided.body).toMatchObject({ outcome: 'dismissed', decisionSignatureId: expect.any(Number) })
@@ -127,6 +128,12 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
     expect((await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).status).toBe(422)
     expect((await decide(appeal.body.id, event.cookie.organiser, 'Test Organiser')).status).toBe(403)
     expect((await decide(appeal.body.id, event.cookie.official, 'Test official')).status).toBe(201)
+
+    // The stewards' confirmation given before (the test server's clock) no longer counts: a decision came since.
+    const unconfirmed = (await call('GET', `/api/attempts/${attemptId}/readiness`, { cookie: event.cookie.team })).body
+    expect(unconfirmed.items.find((i: { key: string }) => i.key === 'confirmation')).toMatchObject({ met: false })
+    expect((await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })).status).toBe(422)
+    await confirmByStewards(event, attemptId, [[event.cookie.official, 'Test official'], [second.cookie, 'Second official']])
 
     // A new version carries both decisions, the briefing and start line, and is ratified.
     const v2 = await call('POST', `/api/attempts/${attemptId}/dossiers`, { cookie: event.cookie.team })
@@ -218,6 +225,10 @@ describe('an upheld protest\'s consequence', () => {
     })
     expect(aside.status).toBe(422)
     expect(aside.body.data.issues[0].message).toContain('can never be set aside: the stewards\' decision on a protest stands')
+    // Nor do the stewards confirm a void result, whenever they try.
+    const confirmVoid = await call('POST', `/api/attempts/${attemptId}/confirmations`, { cookie: event.cookie.official, now: new Date(Date.now() + 86_400_000), body: sign('Test official') })
+    expect(confirmVoid.status).toBe(409)
+    expect(confirmVoid.body.statusMessage).toBe(`Nothing to confirm: The stewards upheld protest #${protest.body.id}: the attempt's result is void.`)
 
     // The team appeals; the appeal body upholds the appeal and voids nothing: the result stands again.
     const appeal = await call('POST', `/api/protests/${protest.body.id}/appeals`, {
@@ -243,6 +254,14 @@ describe('the demo\'s upheld protest', () => {
       .find((a: { id: number }) => a.id === upheld.attemptId)
     expect(wisp.entry.machineName).toBe('Cinder Wisp')
     expect(wisp.findings).toContainEqual({ code: 'protest.run-void', severity: 'fail', message: `The stewards upheld protest #${upheld.id}: run #${upheld.voidRunId} is void: no pair with it is valid.` })
+    // The streamliner's result, confirmed by the two stewards once the appeal period of the decision on the other
+    // protest had ended (10:00 + 1 h on the run day's clock).
+    const streamliner = (await call('GET', `/api/events/${eventId}/protests`, { cookie: organiser })).body
+      .find((p: { kind: string }) => p.kind === 'timing')
+    const ready = (await call('GET', `/api/attempts/${streamliner.attemptId}/readiness`, { cookie: organiser })).body
+    expect(ready.confirmation).toMatchObject({ confirmed: true, quorum: 2, waits: [] })
+    expect(ready.confirmation.signers.map((s: { name: string }) => s.name)).toEqual(['Orla Ormsby', 'Stellan Vey'])
+    expect(ready.confirmation.afterClock).toMatch(/^11:00 on \d{4}-\d\d-\d\d \(/)
     // And the chief timekeeper's retired laptop: a passkey revoked, kept with its public key, signing nothing.
     const keys = (await call('GET', '/api/me/passkeys', { cookie: await login(demoEmail('timekeeper')) })).body
     expect(keys.find((k: { name: string }) => k.name === 'old timing-hut laptop')).toMatchObject({ revokedAt: expect.any(String) })

@@ -5,7 +5,7 @@ import { demoEventPath } from '../support/api'
 import { launchBrowser, open, signIn } from '../support/browser'
 import { enterRun } from '../support/run-sheet'
 
-// The whole day through the pages: readings → inspection → statements → uploads → dossier →
+// The whole day through the pages: readings → inspection → statements → the stewards' confirmation → uploads → dossier →
 // the e-mail in the catcher → verification → ratification → record book.
 let ctx: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => {
@@ -63,6 +63,26 @@ it('runs the demo day from the first reading to the record book', async () => {
     await page.click('button:has-text("Sign the statement")')
     await page.locator('article', { hasText: `${name}'s post on the course` }).waitFor()
   }
+
+  // The stewards' confirmation: refused while the protest period runs (30 min after the sheet was signed, from memory
+  // of the sporting codes); then the two stewards sign it, the result read back first. The browser gives the test
+  // server the first instant after the period (x-trapline-now), as a test may; nothing else of the day changes.
+  page = await as('official2@trapline.test', `/attempts/${attemptId}/dossier`)
+  const confirmation = page.locator('[data-test="confirmation-form"]')
+  expect(await confirmation.locator('[data-test="confirmation-waits"]').innerText()).toMatch(/^Not yet: the protest and appeal periods run until \d\d:\d\d on \d{4}-\d\d-\d\d \(America\/Denver\)\.$/)
+  const after = (await (await page.request.get(`${ctx.baseUrl}/api/attempts/${attemptId}/readiness`)).json()).confirmation.after
+  await ctx.browser.setExtraHTTPHeaders({ 'x-trapline-now': new Date(Date.parse(after) + 1).toISOString() })
+  for (const [email, name] of [['official2@trapline.test', 'Orla Ormsby'], ['official3@trapline.test', 'Stellan Vey']] as const) {
+    page = await as(email, `/attempts/${attemptId}/dossier`)
+    const form = page.locator('[data-test="confirmation-form"]')
+    // Mean of 14.2 s and 14.1 s over the mile: 409.444 km/h (see the record book below).
+    expect(await form.locator('[data-test="confirmation-readback"]').innerText()).toMatch(/Result\s+409\.444 km\/h/)
+    await form.locator('#confirm-name').fill(name)
+    await form.locator('#confirm-password').fill(demo.password)
+    await form.getByRole('button', { name: 'Sign the confirmation of the result' }).click()
+    await expect.poll(() => page.locator('[data-test="ready-confirmation"]').innerText()).toContain(`confirmed by ${email === 'official2@trapline.test' ? 'Orla Ormsby' : 'Orla Ormsby and Stellan Vey'}`)
+  }
+  await ctx.browser.setExtraHTTPHeaders({})
 
   // Uploads: the team attaches a data log to the first run.
   page = await as('team@trapline.test', `${await demoEventPath()}/evidence?kind=data-log&target=runId:${out}`)

@@ -22,14 +22,14 @@ export interface Started {
   stop: () => Promise<void>
 }
 
-async function answers(url: string, child: ChildProcess, timeoutMs: number) {
+async function answers(url: string, child: ChildProcess, timeoutMs: number, log: () => string) {
   const until = Date.now() + timeoutMs
   while (Date.now() < until) {
     if (child.exitCode !== null || child.signalCode !== null) return false
     if (await fetch(url).then(r => r.ok, () => false)) return true
     await new Promise(r => setTimeout(r, 100))
   }
-  throw new Error(`${url} did not answer within ${timeoutMs} ms`)
+  throw new Error(`${url} did not answer within ${timeoutMs} ms; its output ends:\n${log().slice(-3000)}`)
 }
 
 /**
@@ -49,7 +49,7 @@ export async function startListening(
     let log = ''
     child.stdout!.on('data', d => (log += d))
     child.stderr!.on('data', d => (log += d))
-    if (await answers(`http://127.0.0.1:${port}${readyPath}`, child, timeoutMs)) {
+    if (await answers(`http://127.0.0.1:${port}${readyPath}`, child, timeoutMs, () => log)) {
       const stop = async () => {
         if (child.exitCode !== null || child.signalCode !== null) return
         const exited = new Promise(r => child.once('exit', r))

@@ -26,15 +26,16 @@ export async function readyPair(event: TestEvent, machineName: string, seconds =
 
 /**
  * Brings an attempt of a test event (its two runs in) to a dossier: the course survey, both calibration
- * certificates, the rider's licence, weather at each run, the timing sheet signed and two officials'
- * statements. The files are invented PDFs; only what readiness asks for, nothing of the figures.
+ * certificates, the rider's licence, weather at each run, the timing sheet signed, two officials'
+ * statements and (unless `confirm: false`) the stewards' confirmation of the result. The files are invented
+ * PDFs; only what readiness asks for, nothing of the figures.
  */
 export async function makeReady(
   event: TestEvent,
   attemptId: number,
   runIds: number[],
   entryId: number,
-  options: { uploadBase?: string } = {},
+  options: { uploadBase?: string, confirm?: boolean } = {},
 ) {
   // The files go through the server named (another app server, in the test of several), else the tests' own.
   const at = (path: string) => (options.uploadBase ? `${options.uploadBase}${path}` : url(path))
@@ -75,6 +76,29 @@ export async function makeReady(
     })
     expect(s.status, JSON.stringify(s.body)).toBe(201)
   }
+  if (options.confirm !== false) await confirmByStewards(event, attemptId, [[event.cookie.official, 'Test official'], [second.cookie, 'Second official']])
   /** The second official, appointed observer of the sanctioning body here unless someone already was. */
   return { second }
+}
+
+/** The first instant the stewards may confirm the attempt's result, as its readiness says (the periods' end + 1 ms). */
+export async function confirmableAt(cookie: string, attemptId: number) {
+  const r = await call('GET', `/api/attempts/${attemptId}/readiness`, { cookie })
+  expect(r.body.confirmation?.after, JSON.stringify(r.body)).toBeTruthy()
+  return new Date(Date.parse(r.body.confirmation.after) + 1)
+}
+
+/**
+ * The stewards' confirmation of the attempt's result: these officials appointed stewards (where not yet) and each
+ * signing it, judged (the test server's clock) at the first instant after the protest and appeal periods.
+ */
+export async function confirmByStewards(event: TestEvent, attemptId: number, stewards: (readonly [string, string])[]) {
+  const idOf = async (cookie: string) => (await call('GET', '/api/me', { cookie })).body.user.id as number
+  const now = await confirmableAt(event.cookie.organiser, attemptId)
+  for (const [cookie, name] of stewards) {
+    const a = await call('POST', `/api/events/${event.eventId}/appointments`, { cookie: event.cookie.organiser, body: { function: 'steward', userId: await idOf(cookie) } })
+    expect([201, 409], JSON.stringify(a.body)).toContain(a.status)
+    const c = await call('POST', `/api/attempts/${attemptId}/confirmations`, { cookie, now, body: { password: 'first-password-1', typedName: name } })
+    expect(c.status, JSON.stringify(c.body)).toBe(201)
+  }
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { profiles } from '#shared/rules/profiles'
-import { clockTime, consequencesOn, deadlineAfter, describeProtestRule, openProtests, type DecidedProtest } from '#shared/rules/protests'
+import { clockTime, confirmableAfter, confirmationWaits, consequencesOn, deadlineAfter, describeProtestRule, openProtests, type ConfirmationFacts, type DecidedProtest } from '#shared/rules/protests'
 
 // Protest deadlines in the event's zone. The international profiles' 30 min after publication and 1 h for notice of
 // appeal are recalled from the sporting codes (from memory); the club's hour and noon the next day are common
@@ -81,5 +81,60 @@ describe('what an upheld protest makes void', () => {
     // A dismissed protest, upheld on appeal by the protester: the appeal's consequence.
     expect(consequencesOn([protest({ outcome: 'dismissed', voids: 'nothing' }), appeal({ voids: 'run', voidRunId: 31 })], 7))
       .toEqual([{ protestId: 1, decidedBy: 2, voids: 'run', runId: 31 }])
+  })
+})
+
+// The stewards confirm a result only once it can no longer be protested or appealed (sporting codes: results are
+// provisional until the protest period has passed and any protest is decided; common practice, from memory).
+describe('when the stewards may confirm a result', () => {
+  const intl = profiles['intl-motorcycle']!.protests!.value // 30 min to protest, 60 min to give notice of appeal
+  const club = profiles['club-same-direction']!.protests!.value // 60 min; appeal by noon the next day
+  const facts = (over: Partial<ConfirmationFacts> = {}): ConfirmationFacts => ({
+    attemptId: 7,
+    published: [at('2026-12-05T10:00:00Z')],
+    rule: intl,
+    timeZone: 'Europe/Paris',
+    protests: [],
+    ...over,
+  })
+  const decided = (id: number, decidedAt: string, appealOf: number | null = null) => ({ id, attemptId: 7, appealOf, decidedAt })
+
+  it('waits until the instant after the protest deadline: a protest lodged at the deadline is in time', () => {
+    expect(new Date(confirmableAfter(facts())!).toISOString()).toBe('2026-12-05T10:30:00.000Z')
+    // 10:30 UTC is 11:30 in Paris (UTC+1 in December).
+    expect(confirmationWaits(facts(), at('2026-12-05T10:30:00Z'))).toEqual(['the protest and appeal periods run until 11:30 on 2026-12-05 (Europe/Paris)'])
+    expect(confirmationWaits(facts(), at('2026-12-05T10:30:00.001Z'))).toEqual([])
+  })
+  it('counts from the latest thing published: an inspection signed after the timing sheet', () => {
+    const f = facts({ published: [at('2026-12-05T10:00:00Z'), at('2026-12-05T10:20:00Z')] })
+    expect(new Date(confirmableAfter(f)!).toISOString()).toBe('2026-12-05T10:50:00.000Z')
+    expect(confirmationWaits(f, at('2026-12-05T10:40:00Z'))).toHaveLength(1)
+  })
+  it('waits for every open protest and appeal of the attempt, not for another attempt\'s', () => {
+    const open = [{ id: 3, attemptId: 7, appealOf: null, decidedAt: null }, { id: 4, attemptId: 8, appealOf: null, decidedAt: null }]
+    expect(confirmationWaits(facts({ protests: open }), at('2026-12-05T12:00:00Z'))).toEqual(['protest #3 is not decided'])
+    const appealOpen = [decided(3, '2026-12-05T10:40:00Z'), { id: 5, attemptId: 7, appealOf: 3, decidedAt: null }]
+    expect(confirmationWaits(facts({ protests: appealOpen }), at('2026-12-05T12:00:00Z'))).toEqual(['appeal #5 is not decided'])
+  })
+  it('waits out the appeal period of a decision nobody appealed, to the millisecond', () => {
+    const f = facts({ protests: [decided(3, '2026-12-05T10:40:00Z')] })
+    // Notice of appeal within 60 min of the decision: 11:40 UTC.
+    expect(new Date(confirmableAfter(f)!).toISOString()).toBe('2026-12-05T11:40:00.000Z')
+    expect(confirmationWaits(f, at('2026-12-05T11:40:00Z'))).toHaveLength(1)
+    expect(confirmationWaits(f, at('2026-12-05T11:40:00.001Z'))).toEqual([])
+    // Once appealed and the appeal decided, its period does not apply: the appeal body has decided.
+    const appealed = facts({ protests: [decided(3, '2026-12-05T10:40:00Z'), decided(5, '2026-12-05T10:50:00Z', 3)] })
+    expect(confirmableAfter(appealed)).toBe(at('2026-12-05T10:30:00Z'))
+  })
+  it('counts a clock deadline in the event\'s zone: a club appeal by noon the next day', () => {
+    // Decided 16:00 on 5 December in Denver (UTC-7): the appeal runs until 12:00 on the 6th there, 19:00 UTC.
+    const f = facts({ rule: club, timeZone: 'America/Denver', published: [at('2026-12-05T22:00:00Z')], protests: [decided(3, '2026-12-05T23:00:00Z')] })
+    expect(new Date(confirmableAfter(f)!).toISOString()).toBe('2026-12-06T19:00:00.000Z')
+    expect(confirmationWaits(f, at('2026-12-06T19:00:00.001Z'))).toEqual([])
+  })
+  it('asks nothing to wait for where the profile provides no protests, and refuses what is not published', () => {
+    expect(confirmationWaits(facts({ rule: null }), at('2026-12-05T10:00:00.001Z'))).toEqual([])
+    expect(confirmableAfter(facts({ published: [] }))).toBeNull()
+    expect(confirmationWaits(facts({ published: [] }), at('2026-12-06T00:00:00Z'))).toEqual(['the result is not published yet: its timing sheet is not signed'])
   })
 })

@@ -119,8 +119,9 @@ type CertificateKind = 'survey-certificate' | 'calibration-certificate' | 'rider
 async function demoFacts() {
   const db = useDb()
   const user = async (email: string) => (await db.select().from(tables.users).where(eq(tables.users.email, email)))[0]!
-  const [organiser, timekeeper, team, official, official2, team2] = await Promise.all(
-    ['organiser', 'timekeeper', 'team', 'official', 'official2', 'team2'].map(r => user(`${r}@trapline.test`)),
+  const [organiser, timekeeper, team, official, official2, official3, team2] = await Promise.all(
+    ['organiser', 'timekeeper', 'team', 'official', 'official2', 'official3', 'team2']
+      .map(r => user(`${r}@trapline.test`)),
   )
   const [event] = await db.select().from(tables.events).orderBy(tables.events.id).limit(1)
   const [course] = await db.select().from(tables.courses).where(eq(tables.courses.eventId, event!.id))
@@ -138,9 +139,13 @@ async function demoFacts() {
     team: team!,
     official: official!,
     official2: official2!,
+    official3: official3!,
     team2: team2!,
   }
-  return { people, event: event!, course: course!, systems, streamliner: streamliner!, attempt: attempt! }
+  /** An instant on the run day's clock, "HH:MM" in the event's zone. */
+  const { runDay } = demoCalendar(String(useRuntimeConfig().demoToday || '') || demoToday())
+  const onRunDay = (hhmm: string) => new Date(localToInstant(`${runDay}T${hhmm}`, event!.timeZone))
+  return { people, event: event!, course: course!, systems, streamliner: streamliner!, attempt: attempt!, onRunDay }
 }
 type DemoFacts = Awaited<ReturnType<typeof demoFacts>>
 
@@ -237,21 +242,21 @@ async function holdDemoBriefing({ people, event }: Awaited<ReturnType<typeof dem
  * Once the streamliner's result is published, the second team protests its timing; the steward hears both teams
  * and the chief timekeeper, and dismisses it. The decision goes into the dossiers issued after it.
  */
-async function hearDemoProtest({ people, event, attempt }: Awaited<ReturnType<typeof demoFacts>>) {
+async function hearDemoProtest({ people, event, attempt, onRunDay }: DemoFacts) {
   const [team2] = await useDb().select({ id: tables.teams.id }).from(tables.teams)
     .where(eq(tables.teams.name, 'Cinder Hollow Engineering'))
   const protest = await lodgeProtest(event.id, {
     attemptId: attempt.id, kind: 'timing', typedName: people.team2.name, password: demo.password,
     grounds: 'The back run\'s backup reading at the mile exit looks late against the primary; we ask that the '
       + 'pair be checked before it is published as a record.',
-  }, people.team2, [team2!.id])
+  }, people.team2, [team2!.id], onRunDay('09:25'))
   await decideProtest(protest.id, {
-    heardAt: new Date().toISOString(), present: 'Both teams; the chief timekeeper', outcome: 'dismissed',
+    heardAt: onRunDay('09:50').toISOString(), present: 'Both teams; the chief timekeeper', outcome: 'dismissed',
     hearing: 'The chief timekeeper showed both systems\' printouts; the backup\'s reading agrees with the primary '
       + 'within the systems\' tolerances.',
     reasons: 'The cross-check holds on both runs; nothing in the timing calls the pair into question.',
     voids: 'nothing', voidRunId: null, typedName: people.official2.name, password: demo.password,
-  }, people.official2, ['official'])
+  }, people.official2, ['official'], onRunDay('10:00'))
 }
 
 /**
@@ -259,7 +264,7 @@ async function hearDemoProtest({ people, event, attempt }: Awaited<ReturnType<ty
  * was signed, on the run day's clock); the stewards hear it and uphold it: the tyres fitted were not the ones
  * inspected, so its one run is void. Its attempt shows so: no pair with that run is valid.
  */
-async function upholdDemoInspectionProtest({ people, event }: DemoFacts) {
+async function upholdDemoInspectionProtest({ people, event, onRunDay }: DemoFacts) {
   const [larkspur] = await useDb().select({ id: tables.teams.id }).from(tables.teams)
     .where(eq(tables.teams.name, 'Larkspur Works'))
   const [wisp] = await useDb().select({ attempt: tables.attempts, entryId: tables.entries.id }).from(tables.attempts)
@@ -277,13 +282,24 @@ async function upholdDemoInspectionProtest({ people, event }: DemoFacts) {
       + 'the tyres be checked against the inspection record.',
   }, people.team, [larkspur!.id], new Date(+inspected!.at + 10 * 60_000))
   await decideProtest(protest.id, {
-    heardAt: new Date().toISOString(), present: 'Both teams; the chief scrutineer', outcome: 'upheld',
+    heardAt: onRunDay('10:05').toISOString(), present: 'Both teams; the chief scrutineer', outcome: 'upheld',
     hearing: 'The chief scrutineer read the sidewalls in the paddock: the rear tyre fitted for the run is not the '
       + 'one whose rating was recorded at inspection.',
     reasons: 'The machine ran on a tyre not inspected: its run is void. The machine may run again once the tyre '
       + 'fitted is inspected.',
     voids: 'run', voidRunId: run!.id, typedName: people.official2.name, password: demo.password,
-  }, people.official2, ['official'])
+  }, people.official2, ['official'], onRunDay('10:15'))
+}
+
+/**
+ * The streamliner's result, confirmed by the two stewards once nothing could be protested or appealed any more: the
+ * appeal period of the decision on the second team's protest (10:00, one hour) ended at 11:00 on the run day.
+ */
+async function confirmDemoResult({ people, attempt, onRunDay }: DemoFacts) {
+  for (const [steward, at] of [[people.official2, '11:05'], [people.official3, '11:08']] as const) {
+    await confirmResult(attempt.id, { typedName: steward.name, password: demo.password }, steward,
+      { now: onRunDay(at), signedAt: onRunDay(at) })
+  }
 }
 
 /**
@@ -341,15 +357,18 @@ async function seedDemoDossier() {
   await attachDemoCertificates(facts)
   await holdDemoBriefing(facts)
   await signDemoStatements(facts)
+  // Signed after the back run (08:52): the result is published, and can be protested until 09:40.
   await signTimingSheet({
     eventId: event.id,
     attemptId: attempt.id,
     userId: people.timekeeper.id,
     password: demo.password,
     typedName: people.timekeeper.name,
+    signedAt: facts.onRunDay('09:10'),
   })
   await hearDemoProtest(facts)
   await upholdDemoInspectionProtest(facts)
+  await confirmDemoResult(facts)
   await revokedDemoPasskey(facts)
   await saveDemoPlan(facts)
   const reasons = 'Pair within the window, timing sheet signed, both timing systems agree, machine cleared, '

@@ -64,6 +64,12 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     officials: await manifestOfficials(day.event.id),
     startLine: await manifestStartLine(r),
     protests: await manifestProtests(day.event.id, r.attemptId, issuedAt),
+    /** The stewards' confirmation of the result on the timing sheet in force, with the instant it was due from. */
+    confirmation: {
+      quorum: r.confirmation.quorum,
+      after: r.confirmation.afterClock,
+      signers: r.confirmation.signers.map(s => ({ name: s.name, at: s.at.toISOString(), sha256: s.sha256 })),
+    },
     evidence: r.evidence.filter(e => isForAttempt(e, r)).map(e => ({
       id: e.id,
       kind: e.kind,

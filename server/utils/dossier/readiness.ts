@@ -26,7 +26,7 @@ export interface ReadinessItem {
 }
 
 /** Everything an attempt's file for one claimed distance (by default its first) is judged on, read once. */
-async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: number) {
+async function loadAttemptFile(eventId: number, attemptId: number, distanceId: number | undefined, now: Date) {
   const day = await loadEventDay(eventId, { history: true })
   const attempt = day.attempts.find(a => a.id === attemptId)
   if (!attempt) throw notFound('No such attempt')
@@ -54,6 +54,10 @@ async function loadAttemptFile(eventId: number, attemptId: number, distanceId?: 
     statements,
     officials: await officialsOf(eventId, attempt.profile.appointments?.value ?? []),
     openProtests: await openProtestsOn([attemptId]),
+    confirmation: await confirmationOf({
+      eventId, attemptId, entryId: attempt.entryId, profile: attempt.profile, timeZone: day.event.timeZone,
+      sheet: sheetInForce(day, attemptId),
+    }, now),
     ...(await clearancesWithSigners(entry.entry.id, counted)),
   }
 }
@@ -185,6 +189,29 @@ function recordItems(file: AttemptFile): ReadinessItem[] {
         : 'none open',
     },
   ]
+}
+
+/**
+ * Where the profile names stewards, their confirmation of the result: the quorum's signatures on the timing sheet in
+ * force, given only after the protest and appeal periods and every protest decided (see confirmResult).
+ */
+function confirmationItems({ attemptId, confirmation: c }: AttemptFile): ReadinessItem[] {
+  if (!c.required) return []
+  const names = c.signers.map(s => s.name).join(' and ')
+  const stewards = c.quorum === 1 ? 'an appointed steward signs' : `${c.quorum} appointed stewards sign`
+  return [{
+    key: 'confirmation',
+    label: 'The stewards\' confirmation of the result, after the protest and appeal periods',
+    fix: `/attempts/${attemptId}/dossier#confirmation`,
+    met: c.confirmed,
+    detail: c.confirmed
+      ? `confirmed by ${names}`
+      : c.signers.length
+        ? `confirmed by ${names}; ${c.quorum - c.signers.length} more steward(s) to sign`
+        : c.waits.length
+          ? `not yet: ${c.waits.join('; ')}; then ${stewards} it`
+          : `${stewards} it now`,
+  }]
 }
 
 /** Where a finding is resolved, by what it is about. */
@@ -378,19 +405,20 @@ function runAndRiderItems({ at, counted, entry, evidence, runDays }: AttemptFile
  * What a dossier needs, each item met or missing, with where to fix it. Built from the same data
  * and engine as the live results.
  */
-export async function readinessOf(eventId: number, attemptId: number, distanceId?: number) {
-  const file = await loadAttemptFile(eventId, attemptId, distanceId)
+export async function readinessOf(eventId: number, attemptId: number, distanceId?: number, now = new Date()) {
+  const file = await loadAttemptFile(eventId, attemptId, distanceId, now)
   const items = [
     ...recordItems(file),
+    ...confirmationItems(file),
     ...findingItems(file),
     ...equipmentItems(file),
     ...runAndRiderItems(file),
     ...(await postRunItems(file)),
     ...(await classItems(file)),
   ]
-  const { live, day, entry, distance, evidence, statements, clearance, atRuns } = file
+  const { live, day, entry, distance, evidence, statements, clearance, atRuns, confirmation } = file
   const ready = items.every(i => i.met)
-  return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance, atRuns }
+  return { attemptId, ready, items, live, day, entry, distance, evidence, statements, clearance, atRuns, confirmation }
 }
 
 export async function attemptOfEvent(eventId: number, attemptId: number) {

@@ -147,6 +147,7 @@ export function renderStatements(L: PdfLayout, m: Manifest) {
   }
   renderStartLine(L, m)
   renderProtests(L, m)
+  renderConfirmation(L, m)
   L.heading('Witness statements')
   for (const s of m.statements) renderStatement(L, s)
   // A dossier sealed before notices were kept has none in its manifest.
@@ -279,6 +280,19 @@ function renderStartLine(L: PdfLayout, m: Manifest) {
     L.text(`Override #${o.id} by the clerk of the course ${o.clerk} for ${o.day}: ${o.codes.join(', ')}. `
       + `Reason: ${o.reason}. SHA-256 ${o.sha256}`, { indent: 10, gap: 1 })
   }
+}
+
+/** The stewards' confirmation of the result (newer dossiers only). */
+function renderConfirmation(L: PdfLayout, m: Manifest) {
+  const c = (m as { confirmation?: Manifest['confirmation'] }).confirmation
+  if (!c) return
+  L.heading('Confirmation of the result by the stewards')
+  if (!c.signers.length) L.text('Not confirmed by the stewards at the issue of this dossier.', { gap: 2 })
+  else {
+    L.text(`Confirmed after the protest and appeal periods, which ended at ${c.after}; ${c.quorum} steward(s) `
+      + 'sign under the profile.', { gap: 1 })
+  }
+  for (const s of c.signers) L.text(`${s.name}, ${utcStamp(s.at)} UTC; SHA-256 ${s.sha256}`, { indent: 10, gap: 1 })
 }
 
 /** Protests and appeals on the attempt with their hearings and decisions (newer dossiers only). */

@@ -43,7 +43,7 @@ const stewardEmails = async (eventId: number) => (await useDb().select({ email: 
     isNull(tables.appointments.endedAt)))).map(r => r.email)
 
 async function insertSigned(values: typeof tables.protests.$inferInsert, input: ProtestInput | AppealInput,
-  user: { id: number }, proof: SignerProof, guard: (tx: Tx) => Promise<void> = async () => {}) {
+  user: { id: number }, proof: SignerProof, guard: (tx: Tx) => Promise<void> = async () => {}, signedAt?: Date) {
   return useDb().transaction(async (tx) => {
     await guard(tx)
     const [row] = await tx.insert(tables.protests).values(values).returning()
@@ -53,7 +53,7 @@ async function insertSigned(values: typeof tables.protests.$inferInsert, input: 
     }
     const signature = await insertSignature(tx, {
       proof, kind: 'protest', subjectId: row!.id, eventId: row!.eventId, signerId: user.id,
-      typedName: input.typedName, nameNote: input.nameNote, content,
+      typedName: input.typedName, nameNote: input.nameNote, content, signedAt,
     })
     const [signed] = await tx.update(tables.protests).set({ signatureId: signature.id })
       .where(eq(tables.protests.id, row!.id)).returning()
@@ -66,7 +66,9 @@ async function insertSigned(values: typeof tables.protests.$inferInsert, input: 
  * event's zone; a protest too late is refused with the deadline as the event's clock showed it.
  */
 export async function lodgeProtest(eventId: number, input: ProtestInput, user: { id: number }, teamIds: number[],
-  now = new Date()) {
+  seededAt?: Date) {
+  // The demo's seed lodges on its own calendar, and its signature says so; otherwise now.
+  const now = seededAt ?? new Date()
   const { attempt, event, entry, rule } = await attemptOf(eventId, input.attemptId)
   const teamId = teamIds[0]
   if (teamId === undefined) throw forbidden('Only a team of the event lodges a protest')
@@ -83,7 +85,7 @@ export async function lodgeProtest(eventId: number, input: ProtestInput, user: {
   const row = await insertSigned({
     eventId, attemptId: attempt.id, kind: input.kind, grounds: input.grounds, teamId, lodgedBy: user.id,
     lodgedAt: now, publishedAt: published, deadline, feeNote: rule.fee,
-  }, input, user, proof)
+  }, input, user, proof, undefined, seededAt)
   await queueMail((await stewardEmails(eventId)).map(to => ({
     to,
     subject: `Protest lodged: attempt #${attempt.id} (${event.name})`,
@@ -128,7 +130,7 @@ export async function lodgeAppeal(protestId: number, input: AppealInput, user: {
  * event; an appeal's decision (taken by the appeal body) is recorded by an official of the event.
  */
 export async function decideProtest(protestId: number, input: ProtestDecisionInput, user: { id: number },
-  roles: string[]) {
+  roles: string[], at?: Date) {
   const [found] = await useDb().select().from(tables.protests).where(eq(tables.protests.id, protestId))
   if (!found) throw notFound('No such protest')
   // Who may decide comes before the password: a person not allowed is told so, not asked to sign.
@@ -152,7 +154,8 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
         .where(and(eq(tables.runs.id, input.voidRunId), eq(tables.runs.attemptId, p.attemptId)))
       if (!run) throw fieldInvalid('voidRunId', 'is not a run of the attempt protested')
     }
-    const decidedAt = new Date()
+    // The demo's seed decides on its own calendar (`at`); otherwise now.
+    const decidedAt = at ?? new Date()
     const decision = {
       heardAt: new Date(input.heardAt), present: input.present, hearing: input.hearing, outcome: input.outcome,
       reasons: input.reasons, decidedBy: user.id, decidedAt, voids: input.voids, voidRunId: input.voidRunId,
@@ -164,7 +167,7 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
     }
     const signature = await insertSignature(tx, {
       proof, kind: 'protest-decision', subjectId: p.id, eventId: p.eventId, signerId: user.id,
-      typedName: input.typedName, nameNote: input.nameNote, content,
+      typedName: input.typedName, nameNote: input.nameNote, content, signedAt: at,
     })
     const [row] = await tx.update(tables.protests).set({ ...decision, decisionSignatureId: signature.id })
       .where(and(eq(tables.protests.id, p.id), isNull(tables.protests.decidedAt))).returning()

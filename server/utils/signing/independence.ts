@@ -53,3 +53,15 @@ export async function teamOfAttemptIn(db: Tx | Db, attemptId: number) {
   if (teamId === null) throw notFound('No such attempt')
   return teamId
 }
+
+/**
+ * Only a steward appointed at the event, and of no team of the attempt, signs a decision of the stewards (a
+ * set-aside, the confirmation of a result); asked before the password. `act` completes "signs …" and "cannot …".
+ */
+export async function refuseUnlessIndependentSteward(eventId: number, userId: number, attemptId: number,
+  act: { signs: string, conflicted: string }) {
+  if (!(await holdsAppointment(eventId, userId, 'steward'))) {
+    throw forbidden(`Only a steward appointed at this event signs ${act.signs}: it is a decision of the stewards`)
+  }
+  await refuseConflicted(useDb(), { eventId, userId }, [await teamOfAttemptIn(useDb(), attemptId)], act.conflicted)
+}

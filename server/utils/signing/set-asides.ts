@@ -46,17 +46,8 @@ async function currentFinding(eventId: number, attemptId: number, input: SetAsid
   return { finding, teamId: live.entry.teamId }
 }
 
-/**
- * Only a steward appointed at the event, and of no team of the attempt, signs a decision of the stewards; asked
- * before the password.
- */
-async function refuseUnlessIndependentSteward(eventId: number, userId: number, attemptId: number) {
-  if (!(await holdsAppointment(eventId, userId, 'steward'))) {
-    throw forbidden('Only a steward appointed at this event signs a set-aside: it is a decision of the stewards')
-  }
-  await refuseConflicted(useDb(), { eventId, userId }, [await teamOfAttemptIn(useDb(), attemptId)],
-    'set aside a finding of this team\'s attempt')
-}
+/** The words of the steward's gate for a set-aside. */
+const SET_ASIDE_ACT = { signs: 'a set-aside', conflicted: 'set aside a finding of this team\'s attempt' }
 
 /** The set-aside's signers so far and how many the attempt's profile asks for. */
 async function signersOf(tx: Tx, setAsideId: number) {
@@ -82,7 +73,7 @@ export async function setAsideFinding(
   input: SetAsideInput,
   user: { id: number, name: string },
 ) {
-  await refuseUnlessIndependentSteward(eventId, user.id, attemptId)
+  await refuseUnlessIndependentSteward(eventId, user.id, attemptId, SET_ASIDE_ACT)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts)
@@ -128,7 +119,7 @@ export async function setAsideFinding(
 export async function cosignSetAside(setAsideId: number, input: SignSheetInput, user: { id: number, name: string }) {
   const [found] = await useDb().select().from(tables.setAsides).where(eq(tables.setAsides.id, setAsideId))
   if (!found) throw notFound('No such set-aside')
-  await refuseUnlessIndependentSteward(found.eventId, user.id, found.attemptId)
+  await refuseUnlessIndependentSteward(found.eventId, user.id, found.attemptId, SET_ASIDE_ACT)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts).where(eq(tables.attempts.id, found.attemptId))

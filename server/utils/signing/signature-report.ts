@@ -108,6 +108,11 @@ export async function signatureReport(signatureId: number) {
     teamId = await teamOfAttempt(x?.d.attemptId ?? 0)
     title = `Revocation of the ratification of dossier #${x?.d.id ?? '?'}`
   }
+  else if (s.kind === 'confirmation') {
+    current = await confirmationContentNow(s.eventId, s.subjectId)
+    teamId = await teamOfAttempt(s.subjectId)
+    title = `The stewards' confirmation of the result of attempt #${s.subjectId}`
+  }
   else {
     current = timingSheetContent(await loadEventDay(s.eventId, { history: true }), s.subjectId)
     teamId = await teamOfAttempt(s.subjectId)

@@ -1,0 +1,1 @@
+ALTER TYPE "public"."signed_kind" ADD VALUE 'confirmation';
