@@ -3,7 +3,7 @@
 // passes the event's runs and traps, the page shows the same assignment before anything is written.
 import Papa from 'papaparse'
 import { parseTimeOfDay } from './timing'
-import { addDays, localMidnight } from './zoned'
+import { addDays, onDate, wallClockInstants } from './zoned'
 
 export interface DeviceLayout {
   delimiter: 'auto' | ',' | ';' | '\t' | '|'
@@ -158,6 +158,7 @@ export function assignPassings(input: {
   const unmatched: Unmatched[] = []
   let day = input.firstDay
   let lastMs: number | null = null
+  let lastAtMs: number | null = null
   for (const p of inDeviceOrder(input.passings)) {
     const refuse = (reason: string) => unmatched.push({ line: p.line, channel: p.channel, time: p.time, reason })
     let ticks: bigint
@@ -181,13 +182,25 @@ export function assignPassings(input: {
       day = addDays(day, 1)
     }
     lastMs = ofDayMs
-    const atMs = localMidnight(day, input.timeZone) + ofDayMs
     const trap = trapOf.get(p.channel)
     if (!trap) {
       refuse(`channel ${p.channel} is not in the channel map`)
       continue
     }
-    const run = runs.filter(r => r.courseId === trap.courseId && r.startedAtMs <= atMs).at(-1)
+    // The device's clock shows the event's wall-clock time. In the hour repeated when the clocks go back it is the
+    // first instant, not before the passing before it (the device writes in order), that a run can take; none
+    // exists in the hour skipped when they go forward.
+    const all = wallClockInstants(onDate(day, ofDayMs), input.timeZone)
+    const inOrder = all.filter(t => lastAtMs === null || t >= lastAtMs)
+    const instants = all.length > 1 && inOrder.length ? inOrder : all
+    const runAt = (t: number) => runs.filter(r => r.courseId === trap.courseId && r.startedAtMs <= t).at(-1)
+    const atMs = instants.find(t => runAt(t) && t - runAt(t)!.startedAtMs <= MAX_AFTER_START_MS) ?? instants[0]
+    if (atMs === undefined) {
+      refuse(`${p.time} did not exist on ${day} in ${input.timeZone}: the clocks skipped that hour`)
+      continue
+    }
+    lastAtMs = atMs
+    const run = runAt(atMs)
     if (!run) {
       refuse(`before any run on ${trap.label}'s course started`)
       continue

@@ -20,8 +20,11 @@ export interface Finding {
   setAside?: SetAside
 }
 
-/** Who may set a failing finding aside: nobody (a condition of a record), or the appointed stewards together. */
-export type SetAsideAuthority = 'never' | 'stewards'
+/**
+ * Who may set a failing finding aside: nobody (a condition of a record), the appointed stewards together, or the
+ * appointed chief timekeeper alone, explaining in writing a gap in the timing evidence.
+ */
+export type SetAsideAuthority = 'never' | 'stewards' | 'chief-timekeeper'
 
 export interface SetAsideRule {
   /** Finding codes: an exact code, or a family written with its trailing dot ('licence.'). */
@@ -111,6 +114,15 @@ export const SET_ASIDE_RULES: SetAsideRule[] = [
     certainty: 'common practice',
   },
   {
+    codes: ['timing.single-system'],
+    authority: 'chief-timekeeper',
+    why: 'a run timed by one system only stands on that system once the chief timekeeper has written why the other '
+      + 'has no time (a beam missed, a printer jammed)',
+    source: 'two independent timing systems time every run, and the chief timekeeper accounts in writing for a '
+      + 'time one of them lacks (common practice)',
+    certainty: 'common practice',
+  },
+  {
     codes: ['timing.cross-check'],
     authority: 'stewards',
     why: 'a disagreement between the two timing systems beyond their tolerances may be resolved in writing by the '
@@ -134,9 +146,13 @@ export function setAsideRule(code: string): SetAsideRule {
   }
 }
 
-/** Whether the stewards may set a finding aside: a failing finding their rule gives them, never a condition. */
+/** Whether anyone may set a finding aside: a failing finding a rule gives to the stewards or the chief timekeeper. */
 export const mayBeSetAside = (f: Pick<Finding, 'code' | 'severity'>) =>
-  f.severity === 'fail' && setAsideRule(f.code).authority === 'stewards'
+  f.severity === 'fail' && setAsideRule(f.code).authority !== 'never'
+
+/** How many sign a set-aside of this finding: the stewards' quorum, or the chief timekeeper alone. */
+export const setAsideQuorum = (code: string, stewardsQuorum: number) =>
+  setAsideRule(code).authority === 'chief-timekeeper' ? 1 : stewardsQuorum
 
 /** A finding that stops the result: failing and not set aside. */
 export const blocks = (f: Finding) => f.severity === 'fail' && !f.setAside

@@ -189,6 +189,16 @@ function crossCheck(input: RunInput, results: SystemResult[]) {
         message: `${d.label}: only the backup system timed this distance.`,
       })
     }
+    if (!!p !== !!b && primarySystem && backupSystem) {
+      const [timed, missing] = p ? [primarySystem, backupSystem] : [backupSystem, primarySystem]
+      findings.push({
+        code: 'timing.single-system',
+        severity: 'fail',
+        distanceId: d.id,
+        message: `${d.label}: timed by the ${timed.role} system (${timed.name}) only; the ${missing.role} system `
+          + `(${missing.name}) has no time over it. The chief timekeeper must write why.`,
+      })
+    }
   }
   return { crossChecks, findings }
 }

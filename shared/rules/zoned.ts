@@ -90,3 +90,41 @@ export function localToInstant(local: string, timeZone: string): number {
   t = guess - offsetMs(t, timeZone)
   return t
 }
+
+/** A wall-clock time as naive epoch ms (the same figures read as UTC): "YYYY-MM-DDTHH:MM[:SS[.fff]]". */
+function naiveMs(local: string): number {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,3}))?)?$/.exec(local)
+  if (!m) throw new SyntaxError(`not a local date and time: ${local}`)
+  const [y, mo, d, h, mi] = m.slice(1, 6).map(Number) as [number, number, number, number, number]
+  return Date.UTC(y, mo - 1, d, h, mi, Number(m[6] ?? 0), Number((m[7] ?? '0').padEnd(3, '0')))
+}
+
+/**
+ * Every instant at which a clock in the zone shows this wall-clock time, earliest first: one on most days, none
+ * in the hour skipped when the clocks go forward, two in the hour repeated when they go back (also for a change
+ * of 30 minutes, as on Lord Howe Island). The zone's offsets either side of the time are tried.
+ */
+export function wallClockInstants(local: string, timeZone: string): number[] {
+  const naive = naiveMs(local)
+  const tried = [naive - 86_400_000, naive + 86_400_000].map(around => naive - offsetMs(around, timeZone))
+  const found = tried.filter(t => t + offsetMs(t, timeZone) === naive)
+  return [...new Set(found)].sort((a, b) => a - b)
+}
+
+/** A time of day in ms (0 ≤ ms < 1 day) as a wall-clock time on a date: "YYYY-MM-DDTHH:MM:SS.fff". */
+export function onDate(date: string, ofDayMs: number): string {
+  return `${date}T${new Date(ofDayMs).toISOString().slice(11, 23)}`
+}
+
+/**
+ * The instant nearest `nearMs` at which the zone's clock shows this time of day (ms since the clock's midnight):
+ * a reading's time of day placed by its run's start, so a run after midnight or in a repeated hour finds its own
+ * instant (a run lasts minutes; a start typed a little late still finds its readings). Null only where the time
+ * exists on none of the three days around (never, in practice).
+ */
+export function nearestTimeOfDay(ofDayMs: number, nearMs: number, timeZone: string): number | null {
+  const day = localDate(nearMs, timeZone)
+  const candidates = [-1, 0, 1].flatMap(k => wallClockInstants(onDate(addDays(day, k), ofDayMs), timeZone))
+  if (!candidates.length) return null
+  return candidates.reduce((best, t) => (Math.abs(t - nearMs) < Math.abs(best - nearMs) ? t : best))
+}

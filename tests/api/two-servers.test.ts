@@ -70,6 +70,8 @@ beforeAll(async () => {
       NUXT_MAIL_RETRY_SECONDS: '1',
       NUXT_SEED_DEMO: 'true',
       NUXT_REQUEST_LOG: 'json',
+      // Servers of the tests: periods are judged at the instant a test gives (the stewards' confirmation).
+      NUXT_TEST_SERVER: 'true',
     })
     servers[id] = { ...started, base: `http://127.0.0.1:${started.port}` }
     if (id === 'a') mkdirSync(resolve(shared, 'uploads-tmp/a'), { recursive: true })

@@ -1,9 +1,10 @@
 import { describe, expect, it } from 'vitest'
-import { blocks, mayBeSetAside, SET_ASIDE_RULES, setAsideRule, withSetAsides, type Finding, type SetAsideAuthority } from '#shared/rules/findings'
+import { blocks, mayBeSetAside, SET_ASIDE_RULES, setAsideQuorum, setAsideRule, withSetAsides, type Finding, type SetAsideAuthority } from '#shared/rules/findings'
 
 // Who may set a failing finding aside: the conditions of a record never (common practice: the runs, the course, the
 // wind limit, the licence at the run, the class, the club's qualifier and impound, the record's arithmetic, a reading
-// that cannot be right), a disagreement between the timing systems only by the appointed stewards together.
+// that cannot be right), a disagreement between the timing systems only by the appointed stewards together, a time
+// one system lacks by the appointed chief timekeeper in writing.
 const f = (code: string, severity: Finding['severity'] = 'fail'): Finding => ({ code, severity, message: code })
 const aside = (id: number, code: string, runId: number | null) => ({ id, code, runId, by: 'Official A', at: '2026-12-05T10:00:00Z', reason: 'written reason' })
 
@@ -16,7 +17,7 @@ const CODES: [string, SetAsideAuthority][] = [
   ['qualifier.not-over-record', 'never'], ['record.not-beaten', 'never'], ['record.margin-not-met', 'never'],
   ['record.minimum-not-reached', 'never'], ['return.unreachable', 'never'], ['reading.out-of-order', 'never'],
   ['reading.implausible-speed', 'never'], ['protest.result-void', 'never'], ['protest.run-void', 'never'],
-  ['timing.cross-check', 'stewards'],
+  ['timing.cross-check', 'stewards'], ['timing.single-system', 'chief-timekeeper'],
 ]
 
 describe('setting findings aside', () => {
@@ -27,7 +28,15 @@ describe('setting findings aside', () => {
     expect(rule.codes.some(c => c === code || (c.endsWith('.') && code.startsWith(c)))).toBe(true)
     expect(SET_ASIDE_RULES).toContain(rule)
     expect(rule.why.length).toBeGreaterThan(20)
-    expect(mayBeSetAside(f(code))).toBe(authority === 'stewards')
+    expect(mayBeSetAside(f(code))).toBe(authority !== 'never')
+  })
+
+  it('the chief timekeeper writes alone why one system has no time; the stewards sign by their quorum', () => {
+    // A gap in the timing evidence is the chief timekeeper's to account for (common practice); a disagreement
+    // between the systems is the stewards' (two of three internationally, from memory).
+    expect(setAsideQuorum('timing.single-system', 2)).toBe(1)
+    expect(setAsideQuorum('timing.cross-check', 2)).toBe(2)
+    expect(setAsideQuorum('timing.cross-check', 1)).toBe(1)
   })
 
   it.each([

@@ -115,7 +115,7 @@ describe('a run of three traps and two systems, worked by hand', () => {
   })
 
   it('runs back from the far end: the kilometre timed from its exit trap to its entry trap', () => {
-    const r = compute('back', [p(3, 0), p(2, 9), p(1, 14)])
+    const r = compute('back', [p(3, 0), p(2, 9), p(1, 14), b(3, 0), b(2, 9)])
     expect(r.systems[0]!.segments.map(x => [x.fromTrapId, x.toTrapId, x.timeS, x.midpointM])).toEqual([[3, 2, '9.0000', 1000], [2, 1, '5.0000', 250]])
     expect(r.systems[0]!.distances[0]).toMatchObject({ timeS: '9.0000', kmh: '400.000' })
     expect(r.findings).toEqual([])
@@ -135,16 +135,24 @@ describe('a run of three traps and two systems, worked by hand', () => {
     const r = compute('out', [p(2, 5), b(2, 5), b(3, 14.001)])
     expect(r.crossChecks).toEqual([])
     expect(r.findings).toEqual([{ code: 'timing.backup-only', severity: 'warn', distanceId: 9,
-      message: 'Flying kilometre: only the backup system timed this distance.' }])
+      message: 'Flying kilometre: only the backup system timed this distance.' }, { code: 'timing.single-system',
+      severity: 'fail', distanceId: 9, message: 'Flying kilometre: timed by the backup system (Beam B) only; the '
+        + 'primary system (Beam A) has no time over it. The chief timekeeper must write why.' }])
     expect(r.official[9]!.systemId).toBe(2)
-    // Only the primary: no finding, its time counts; neither: no official time.
-    expect(compute('out', [p(2, 5), p(3, 14)]).findings).toEqual([])
+    // Only the primary (the backup missed the exit trap): its time counts, and the gap is a finding until the chief
+    // timekeeper writes why (two systems time every run: common practice). Neither: no official time.
+    expect(compute('out', [p(2, 5), p(3, 14), b(2, 5)]).findings).toEqual([{ code: 'timing.single-system',
+      severity: 'fail', distanceId: 9, message: 'Flying kilometre: timed by the primary system (Beam A) only; the '
+        + 'backup system (Beam B) has no time over it. The chief timekeeper must write why.' }])
     expect(compute('out', [p(2, 5), p(3, 14)]).official[9]!.systemId).toBe(1)
+    // With one system set up for the run, there is nothing to write.
+    expect(computeRun({ profile: profiles['intl-motorcycle'], direction: 'out', headingDeg: 350, traps: T, distances: km,
+      systems: [S[0]!], readings: [p(2, 5), p(3, 14)] }).findings).toEqual([])
     expect(compute('out', [p(2, 5), b(2, 5)]).official).toEqual({})
   })
 
   it('refuses a time not after the trap before it, equal times included, and names both traps', () => {
-    const r = compute('out', [p(1, 5), p(2, 5), p(3, 14)])
+    const r = compute('out', [p(1, 5), p(2, 5), p(3, 14), b(2, 5), b(3, 14)])
     expect(r.findings).toEqual([{ code: 'reading.out-of-order', severity: 'fail', trapId: 2, systemId: 1,
       message: 'Beam A: the time at T500 (10:00:05.0000) is not after the time at T0 (10:00:05.0000), the trap before it on this run.' }])
     expect(r.systems[0]!.segments.map(x => x.fromTrapId)).toEqual([2])
@@ -152,10 +160,10 @@ describe('a run of three traps and two systems, worked by hand', () => {
 
   it('flags a segment faster than 1500 km/h as a mistyped time; 1500 km/h itself is not flagged', () => {
     // 500 m in 1 s = 1800.000 km/h; 500 m in 1.2 s = 1500.000 km/h exactly.
-    const fast = compute('out', [p(1, 0), p(2, 1), p(3, 10)])
+    const fast = compute('out', [p(1, 0), p(2, 1), p(3, 10), b(2, 1), b(3, 10)])
     expect(fast.findings).toEqual([{ code: 'reading.implausible-speed', severity: 'fail', trapId: 2, systemId: 1,
       message: 'Beam A: 1800.000 km/h from T0 to T500 is beyond 1500 km/h; check the times.' }])
-    expect(compute('out', [p(1, 0), p(2, 1.2), p(3, 10.2)]).findings).toEqual([])
+    expect(compute('out', [p(1, 0), p(2, 1.2), p(3, 10.2), b(2, 1.2), b(3, 10.2)]).findings).toEqual([])
   })
 
   it('resolves the wind along each direction: from 170° at 3 m/s is a tail wind out (heading 350°), a head wind back', () => {

@@ -377,7 +377,9 @@ async function seedDemoDossier() {
   // One dossier per claimed distance, from the same pair of runs: the mile, then the kilometre.
   const dossiers = []
   for (const distanceId of facts.streamliner.entry.distanceIds) {
-    const dossier = await issueDossier(event.id, attempt.id, people.team.id, distanceId)
+    // Issued on the run day, after the stewards' confirmation (11:08), the mile then the kilometre.
+    const dossier = await issueDossier(event.id, attempt.id, people.team.id, distanceId,
+      facts.onRunDay(dossiers.length ? '11:35' : '11:30'))
     await submitDossier(dossier.id, people.team.id)
     await decideDossier(dossier.id, decision, people.official)
     dossiers.push(dossier)

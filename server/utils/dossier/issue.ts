@@ -9,14 +9,16 @@ import { renderDossier, type Attachment } from './render'
 const sha256Hex = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex')
 
 /** Issues a new sealed dossier version for a ready attempt; refuses naming what is missing. */
-export async function issueDossier(eventId: number, attemptId: number, userId: number, distanceId?: number) {
+export async function issueDossier(eventId: number, attemptId: number, userId: number, distanceId?: number,
+  /** Only for the demo's seed, which issues on its own calendar; otherwise now. */
+  seededAt?: Date) {
   await attemptOfEvent(eventId, attemptId)
   const r = await readinessOf(eventId, attemptId, distanceId)
   await refuseIfDecided(attemptId, r.distance.id)
   refuseUnlessReady(r)
   const previous = await latestDossier(attemptId, r.distance.id)
   const version = (previous?.version ?? 0) + 1
-  const manifest = await buildManifest(r, version, new Date())
+  const manifest = await buildManifest(r, version, seededAt ?? new Date())
   const attach = await evidenceToAttach(manifest)
   const officials = await sealAndRender(manifest, attach)
   // The public copy (the record book's): sealed the same way, over a manifest without personal data.
@@ -37,6 +39,7 @@ export async function issueDossier(eventId: number, attemptId: number, userId: n
     keyFingerprint: useSealKey().fingerprint,
     supersedesId: previous?.id ?? null,
     createdBy: userId,
+    ...(seededAt ? { createdAt: seededAt } : {}),
   })
 }
 

@@ -1,6 +1,6 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { localDate } from '#shared/rules/zoned'
-import { blocks, mayBeSetAside, setAsideRule } from '#shared/rules/findings'
+import { blocks, mayBeSetAside, setAsideQuorum, setAsideRule } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
 import { massClass } from '#shared/rules/checks'
 import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
@@ -21,6 +21,8 @@ export interface ReadinessItem {
     code: string
     runId: number | null
     setAsideable: boolean
+    /** Who may set it aside: the stewards together, or the chief timekeeper alone. */
+    authority: 'never' | 'stewards' | 'chief-timekeeper'
     pending: { id: number, signers: string[], reason: string, quorum: number } | null
   }
 }
@@ -234,9 +236,15 @@ function findingItems({ at, live, counted, attemptId, attempt, day }: AttemptFil
     ...counted.flatMap(r => r.findings.map(f => ({ f, runId: r.id as number | null }))),
   // The machine against its class is its own item (classItems), with the inspection in force at the end.
   ].filter(({ f }) => f.severity === 'fail' && !f.code.startsWith('class.'))
-  const quorum = stewardsQuorum(attempt.profile)
-  const stewards = quorum === 1 ? 'an appointed steward sets' : `${quorum} appointed stewards set`
+  const stewardsNeeded = stewardsQuorum(attempt.profile)
   return all.map(({ f, runId }) => {
+    const rule = setAsideRule(f.code)
+    const quorum = setAsideQuorum(f.code, stewardsNeeded)
+    const byChief = rule.authority === 'chief-timekeeper'
+    const who = byChief ? 'the chief timekeeper' : 'the stewards'
+    const sets = byChief
+      ? 'the appointed chief timekeeper sets'
+      : quorum === 1 ? 'an appointed steward sets' : `${quorum} appointed stewards set`
     const awaiting = day.setAsides.filter(s => s.attemptId === attemptId && s.signers.length < quorum)
     const proposed = f.setAside ? undefined : awaiting.find(s => s.code === f.code && s.runId === runId)
     const pending = proposed
@@ -248,14 +256,16 @@ function findingItems({ at, live, counted, attemptId, attempt, day }: AttemptFil
       fix: findingFix(at, f.code, attemptId),
       met: !blocks(f),
       detail: f.setAside
-        ? `set aside by the stewards (${f.setAside.by}): ${f.setAside.reason}`
+        ? `set aside by ${who} (${f.setAside.by}): ${f.setAside.reason}`
         : pending
           ? `the stewards' decision to set it aside is signed by ${pending.signers.join(' and ')}; it takes effect `
           + `once ${quorum} stewards have signed (${quorum - pending.signers.length} more): ${pending.reason}`
           : mayBeSetAside(f)
-            ? `blocks the dossier until it is resolved, or ${stewards} it aside with a signed, written reason`
-            : `blocks the dossier, and can never be set aside: ${setAsideRule(f.code).why}`,
-      finding: { code: f.code, runId, setAsideable: mayBeSetAside(f) && !f.setAside, pending },
+            ? `blocks the dossier until it is resolved, or ${sets} it aside with a signed, written reason`
+            : `blocks the dossier, and can never be set aside: ${rule.why}`,
+      finding: {
+        code: f.code, runId, setAsideable: mayBeSetAside(f) && !f.setAside, authority: rule.authority, pending,
+      },
     }
   })
 }

@@ -17,7 +17,8 @@ function validLine(m: Manifest) {
   if (!m.result.valid) return 'NO: see the computation\'s findings'
   const setAside = [...m.result.findings, ...m.runs.flatMap(r => r.findings ?? [])].filter(f => f.setAside).length
   return setAside
-    ? `yes: ${setAside} failing finding(s) set aside by a signed decision of the stewards, printed with the computation`
+    ? `yes: ${setAside} failing finding(s) set aside by a signed decision of the stewards (or, for a time one `
+    + 'system lacks, the chief timekeeper\'s signed account), printed with the computation'
     : 'yes: no finding fails it'
 }
 
@@ -149,12 +150,15 @@ function renderPairResult(L: PdfLayout, m: Manifest) {
   })
 }
 
-/** A finding, and beside it the stewards' signed decision that set it aside. */
+/** A finding, and beside it the signed decision that set it aside: the stewards', or the chief timekeeper's account. */
 function renderFinding(L: PdfLayout, f: Manifest['result']['findings'][number]) {
   L.text(`Finding ${f.code}${f.severity === 'fail' ? ' (fails the profile)' : ''}: ${f.message}`, { color: 'grey' })
   if (f.setAside) {
+    const by = f.code === 'timing.single-system'
+      ? 'the chief timekeeper\'s signed account'
+      : 'a decision of the stewards'
     L.text(
-      `SET ASIDE by a decision of the stewards (${f.setAside.by}), ${f.setAside.at}, signed decision `
+      `SET ASIDE by ${by} (${f.setAside.by}), ${f.setAside.at}, signed decision `
       + `#${f.setAside.id}: ${f.setAside.reason}`,
       { indent: 10, bold: true },
     )

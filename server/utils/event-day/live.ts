@@ -5,11 +5,11 @@ import { runCountsFor } from '#shared/rules/distances'
 import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
 import { formatTimeOfDay } from '#shared/rules/timing'
 import { checkMeasuredDistance } from '#shared/rules/course'
-import { blocks, withSetAsides, type Finding } from '#shared/rules/findings'
+import { blocks, setAsideQuorum, withSetAsides, type Finding } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
 import { consequencesOn } from '#shared/rules/protests'
 import { publishedInMs } from '#shared/rules/units'
-import { addDays, localDate, localMidnight } from '#shared/rules/zoned'
+import { localDate, nearestTimeOfDay } from '#shared/rules/zoned'
 import type { EventDay } from './load'
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
@@ -86,10 +86,11 @@ function attemptSetting(ix: DayIndex, attempt: Attempt) {
   const e = ix.entryById.get(attempt.entryId)!
   const claims = e.entry.distanceIds.map(id => ix.distanceById.get(id)).filter(d => d !== undefined)
   const course = ix.courseById.get(claims[0]!.courseId)!
-  // A set-aside counts once the profile's quorum of stewards has signed it; it is then theirs, by every name.
+  // A set-aside counts once the profile's quorum of stewards has signed it (the chief timekeeper alone, for a gap in
+  // the timing evidence); it is then theirs, by every name.
   const quorum = stewardsQuorum(attempt.profile)
   const setAsides = ix.day.setAsides
-    .filter(s => s.attemptId === attempt.id && s.signers.length >= quorum)
+    .filter(s => s.attemptId === attempt.id && s.signers.length >= setAsideQuorum(s.code, quorum))
     .map(s => ({ ...s, by: s.signers.join(' and '), at: s.createdAt.toISOString() }))
   return { e, claims, course, setAsides }
 }
@@ -136,21 +137,30 @@ function runsFor(computed: ReturnType<typeof computeRuns>, distance: Distance) {
 type ComputedRun = ReturnType<typeof runsFor>[number]
 
 /**
- * The instant a run left the measured distance: the time of day at its last trap (the exit trap out,
- * the entry trap back) on the system whose time counts, on the run's date in the event's zone, rolling
- * over midnight when the reading is earlier in the day than the start.
+ * The instant a run left the measured distance: the time of day at its last trap (the exit trap out, the entry
+ * trap back) on the system whose time counts, placed at the instant nearest the run's start at which the event's
+ * clock showed it (after midnight, or in the hour repeated when the clocks go back, the run's own).
  */
-function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Distance) {
+function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Distance, systemId: number) {
   const lastTrap = r.run.direction === 'out' ? distance.exitTrapId : distance.entryTrapId
-  const reading = r.readings.find(g => g.trapId === lastTrap && g.systemId === r.official!.systemId)
+  const reading = r.readings.find(g => g.trapId === lastTrap && g.systemId === systemId)
   if (!reading) return undefined
-  const zone = ix.day.event.timeZone
-  const startMs = r.run.startedAt.getTime()
   const ofDay = Number(reading.ticks * 1000n / ix.tpsOf.get(reading.systemId)!)
-  const day = localDate(startMs, zone)
-  const sameDay = localMidnight(day, zone) + ofDay
-  // An hour of slack for a start typed a little late; a reading earlier than that is after midnight.
-  return sameDay >= startMs - 3_600_000 ? sameDay : localMidnight(addDays(day, 1), zone) + ofDay
+  return nearestTimeOfDay(ofDay, r.run.startedAt.getTime(), ix.day.event.timeZone) ?? undefined
+}
+
+/**
+ * The instant a pass finished: the last measured distance it left, of every distance the attempt claims on it (the
+ * mile's exit after the kilometre's inside it), so that one pass has one finish and every distance claimed from the
+ * same passes is held to the same window.
+ */
+function passFinishedAt(ix: DayIndex, r: ComputedRun, claims: Distance[]) {
+  const left = claims.flatMap((d) => {
+    const official = runCountsFor(d.start, r.run.start) ? r.c.official[d.id] : undefined
+    const at = official ? leftDistanceAt(ix, r, d, official.systemId) : undefined
+    return at === undefined ? [] : [at]
+  })
+  return left.length ? Math.max(...left) : undefined
 }
 
 /** Where the profile has a qualifying run: the impound check-in after it, null if none is recorded. */
@@ -163,7 +173,7 @@ function impoundCheckIn(ix: DayIndex, attempt: Attempt) {
 function evaluateCounted(
   ix: DayIndex,
   attempt: Attempt,
-  { distance, record }: DistanceSetting,
+  { distance, record, claims }: DistanceSetting,
   counted: ComputedRun[],
 ) {
   if (!counted.length) return null
@@ -174,7 +184,7 @@ function evaluateCounted(
       direction: r.run.direction,
       startedAtMs: r.run.startedAt.getTime(),
       elapsedS: r.official!.exactS,
-      finishedAtMs: leftDistanceAt(ix, r, distance),
+      finishedAtMs: passFinishedAt(ix, r, claims),
     })),
     // Compared in the unit the record was published in, at its exact decimal.
     record: record ? { value: fromDecimal(record.speed), unit: record.unit, minimum: record.minimum } : undefined,

@@ -1,5 +1,5 @@
 import { and, eq, isNull } from 'drizzle-orm'
-import { setAsideRule } from '#shared/rules/findings'
+import { setAsideQuorum, setAsideRule } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
 import type { SignSheetInput } from '#shared/schemas/event-day'
 import type { SetAsideInput } from '#shared/schemas/inspection'
@@ -49,16 +49,31 @@ async function currentFinding(eventId: number, attemptId: number, input: SetAsid
 /** The words of the steward's gate for a set-aside. */
 const SET_ASIDE_ACT = { signs: 'a set-aside', conflicted: 'set aside a finding of this team\'s attempt' }
 
+/**
+ * Who signs a set-aside of this finding, asked before the password: the appointed chief timekeeper for a gap in the
+ * timing evidence, else an appointed steward; never one of the attempt's team.
+ */
+async function refuseUnlessEntitled(eventId: number, userId: number, attemptId: number, code: string) {
+  if (setAsideRule(code).authority !== 'chief-timekeeper') {
+    return refuseUnlessIndependentSteward(eventId, userId, attemptId, SET_ASIDE_ACT)
+  }
+  if (!(await holdsAppointment(eventId, userId, 'chief-timekeeper'))) {
+    throw forbidden('Only the chief timekeeper appointed at this event writes why a run was timed by one system only')
+  }
+  await refuseConflicted(useDb(), { eventId, userId }, [await teamOfAttemptIn(useDb(), attemptId)],
+    SET_ASIDE_ACT.conflicted)
+}
+
 /** The set-aside's signers so far and how many the attempt's profile asks for. */
 async function signersOf(tx: Tx, setAsideId: number) {
   return tx.select({ signerId: tables.signatures.signerId }).from(tables.signatures)
     .where(and(eq(tables.signatures.kind, 'set-aside'), eq(tables.signatures.subjectId, setAsideId)))
 }
 
-const quorumOf = async (tx: Tx, attemptId: number) => {
+const quorumOf = async (tx: Tx, attemptId: number, code: string) => {
   const [a] = await tx.select({ profile: tables.attempts.profile }).from(tables.attempts)
     .where(eq(tables.attempts.id, attemptId))
-  return stewardsQuorum(a!.profile)
+  return setAsideQuorum(code, stewardsQuorum(a!.profile))
 }
 
 /**
@@ -73,7 +88,7 @@ export async function setAsideFinding(
   input: SetAsideInput,
   user: { id: number, name: string },
 ) {
-  await refuseUnlessIndependentSteward(eventId, user.id, attemptId, SET_ASIDE_ACT)
+  await refuseUnlessEntitled(eventId, user.id, attemptId, input.code)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts)
@@ -108,7 +123,7 @@ export async function setAsideFinding(
     })
     const [signed] = await tx.update(tables.setAsides).set({ signatureId: signature.id })
       .where(eq(tables.setAsides.id, row!.id)).returning()
-    return { ...signed!, signers: 1, quorum: await quorumOf(tx, attemptId) }
+    return { ...signed!, signers: 1, quorum: await quorumOf(tx, attemptId, finding.code) }
   })
 }
 
@@ -119,13 +134,13 @@ export async function setAsideFinding(
 export async function cosignSetAside(setAsideId: number, input: SignSheetInput, user: { id: number, name: string }) {
   const [found] = await useDb().select().from(tables.setAsides).where(eq(tables.setAsides.id, setAsideId))
   if (!found) throw notFound('No such set-aside')
-  await refuseUnlessIndependentSteward(found.eventId, user.id, found.attemptId, SET_ASIDE_ACT)
+  await refuseUnlessEntitled(found.eventId, user.id, found.attemptId, found.code)
   const proof = await signerProof(user.id, input)
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.attempts.id }).from(tables.attempts).where(eq(tables.attempts.id, found.attemptId))
       .for('update')
     const signers = await signersOf(tx, setAsideId)
-    const quorum = await quorumOf(tx, found.attemptId)
+    const quorum = await quorumOf(tx, found.attemptId, found.code)
     if (signers.some(s => s.signerId === user.id)) throw conflict('You have already signed this decision')
     if (signers.length >= quorum) throw conflict('This decision already has the signatures it needs')
     const [proposer] = await tx.select({ name: tables.users.name }).from(tables.users)

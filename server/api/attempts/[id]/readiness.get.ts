@@ -14,6 +14,8 @@ export default defineEventHandler(async (event) => {
     items: r.items,
     /** Whether the person asking is a steward appointed at the event, who may sign a set-aside. */
     steward: await holdsAppointment(access.eventId, access.user.id, 'steward'),
+    /** Whether the person asking is the appointed chief timekeeper, who accounts for a gap in the timing evidence. */
+    chiefTimekeeper: await holdsAppointment(access.eventId, access.user.id, 'chief-timekeeper'),
     /** The stewards' confirmation of the result: who signed, how many must, what it waits for. */
     confirmation: {
       required: r.confirmation.required,
