@@ -120,6 +120,8 @@ export function checkMeasurement(
   switch (l.kind) {
     case 'max':
       return cmp(v, fromNumber(l.value)) <= 0 ? pass() : fail(`${shown} is over the limit of ${l.value}${unit}`)
+    case 'below':
+      return cmp(v, fromNumber(l.value)) < 0 ? pass() : fail(`${shown} is not below ${l.value}${unit}`)
     case 'min':
       return cmp(v, fromNumber(l.value)) >= 0 ? pass() : fail(`${shown} is under the minimum of ${l.value}${unit}`)
     case 'recorded':

@@ -5,6 +5,8 @@ export type ItemKind = 'check' | 'measure'
 /** What a measurement is checked against. */
 export type ItemLimit
   = | { kind: 'max', value: number }
+  /** Strictly under the value: the value itself fails (a standard that says "below"). */
+    | { kind: 'below', value: number }
     | { kind: 'min', value: number }
   /** Isolation resistance per volt of the bus: at least dc Ω/V on a DC bus, ac Ω/V on an AC bus. */
     | { kind: 'isolation-per-volt', dc: number, ac: number }

@@ -18,12 +18,15 @@ function anchorMs(anchor: WindowAnchor, runs: RunInput[]): Q | null {
 
 /**
  * Next-day rules: the record run starts on the calendar day after the qualifying run, in the event's
- * zone, and before the profile's local time of day where it names one (the next morning).
+ * zone, and before the profile's local time of day where it names one (the next morning), and no sooner than the
+ * profile's overnight minimum after the qualifying run.
  */
-function nextDayWindow(rule: string, runs: RunInput[], timeZone: string, before?: string): WindowState {
+function nextDayWindow(rule: string, runs: RunInput[], timeZone: string, before?: string,
+  overnightMinutes = 0): WindowState {
   const first = runs[0]!
   const day = addDays(localDate(first.startedAtMs, timeZone), 1)
-  const opensMs = localMidnight(day, timeZone)
+  // The next day's midnight, or the end of the overnight minimum where that is later (a qualifier at 23:59).
+  const opensMs = Math.max(localMidnight(day, timeZone), first.startedAtMs + overnightMinutes * 60_000)
   const closesMs = before ? localToInstant(`${day}T${before}`, timeZone) : localMidnight(addDays(day, 1), timeZone)
   const deadlineMs = closesMs - 1
   const second = runs[1]
@@ -34,7 +37,7 @@ function nextDayWindow(rule: string, runs: RunInput[], timeZone: string, before?
 export function evaluateWindow(profile: RuleProfile, runs: RunInput[], timeZone: string): WindowState {
   const w = profile.window.value
   const rule = describeWindow(w)
-  if (w.kind === 'next-day') return nextDayWindow(rule, runs, timeZone, w.before)
+  if (w.kind === 'next-day') return nextDayWindow(rule, runs, timeZone, w.before, w.overnightMinutes)
   const from = anchorMs(w.from, runs)
   const limitMs = q(BigInt(w.minutes * 60_000))
   const to = anchorMs(w.to, runs)

@@ -1,7 +1,28 @@
 import type { CalculatorRequestInput, CalculatorResponse } from '../schemas/calculator'
 import { evaluateAttempt } from './attempt'
-import { add, cmp, decimalsOf, fromInput, mul, q, roundTo, toFixed, toNumber, type Q } from './exact'
+import { add, cmp, decimalsOf, fromDecimal, fromInput, mul, q, roundTo, toFixed, toNumber, type Q } from './exact'
+import type { Finding } from './findings'
+import type { RuleProfile } from './profile'
 import { profiles } from './profiles'
+
+/**
+ * What the calculator cannot decide from what it was given, in words: the window when a run's finish is only
+ * estimated (no entry instant), and any verdict for a distance the profile does not list. The figures are computed
+ * all the same; the verdict is not given.
+ */
+export function cannotDecide(profile: RuleProfile, distanceM: Q, findings: Finding[]): string[] {
+  const reasons: string[] = []
+  if (findings.some(f => f.code === 'window.estimated')) {
+    reasons.push('the time window: without the instant each run entered the measured distance, its finish is only '
+      + 'estimated (give each run\'s entry instant)')
+  }
+  if (!profile.distances.value.some(d => cmp(fromDecimal(d.metres), distanceM) === 0)) {
+    const listed = profile.distances.value.map(d => `${d.label} (${d.metres} m)`).join(', ')
+    reasons.push(`whether it counts: ${toFixed(distanceM, 3)} m is not a distance of the profile, which lists `
+      + `${listed}`)
+  }
+  return reasons
+}
 
 /** The public calculator: one request in, every figure as a decimal string out. Same code on page and server. */
 export function calculate(req: CalculatorRequestInput): CalculatorResponse {
@@ -30,6 +51,7 @@ export function calculate(req: CalculatorRequestInput): CalculatorResponse {
     timeDecimals,
   })
   const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
+  const undecided = cannotDecide(profile, fromInput(req.distanceM), r.findings)
   return {
     profile: {
       id: profile.id,
@@ -53,7 +75,10 @@ export function calculate(req: CalculatorRequestInput): CalculatorResponse {
       deadline: iso(r.window.deadlineMs),
       opens: iso(r.window.opensMs),
     },
-    valid: r.valid,
+    // Valid only when everything it turns on could be decided; else the reasons. Beating the record is arithmetic
+    // on the figures, given as such.
+    valid: r.valid && !undecided.length,
+    cannotDecide: undecided,
     beatsRecord: r.beatsRecord,
     required: r.required ? { figure: r.required.text, unit: r.required.unit } : null,
     returnTargetS: r.returnTargetS ? toFixed(r.returnTargetS, timeDecimals) : null,

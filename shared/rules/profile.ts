@@ -27,9 +27,10 @@ export type RunWindow
   = | { kind: 'elapsed', minutes: number, from: WindowAnchor, to: WindowAnchor }
   /**
    * The record run on the calendar day after the qualifying run, in the event's time zone; with
-   * `before`, it must leave the line before that local time of day ("hh:mm").
+   * `before`, it must leave the line before that local time of day ("hh:mm"); with `overnightMinutes`, no sooner
+   * than that long after the qualifying run left the line (an overnight impound, not minutes past midnight).
    */
-    | { kind: 'next-day', before?: string }
+    | { kind: 'next-day', before?: string, overnightMinutes?: number }
 
 export interface MeasuredDistanceSpec {
   label: string
@@ -115,7 +116,9 @@ export const ruleLabels: Record<Exclude<keyof RuleProfile, 'id' | 'version' | 'n
 
 export function describeWindow(w: RunWindow): string {
   if (w.kind === 'next-day') {
-    return `record run on the calendar day after the qualifying run${w.before ? `, leaving before ${w.before}` : ''}`
+    const overnight = w.overnightMinutes ? `, at least ${w.overnightMinutes / 60} h after it` : ''
+    return `record run on the calendar day after the qualifying run${overnight}`
+      + `${w.before ? `, leaving before ${w.before}` : ''}`
   }
   const name: Record<WindowAnchor, string> = {
     'start-first': 'start of the first run',

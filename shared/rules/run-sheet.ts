@@ -131,7 +131,41 @@ function systemSegments(input: RunInput, system: SystemDef, order: TrapDef[], at
     const mid = (Number(a.positionM) + Number(b.positionM)) / 2
     segments.push({ fromTrapId: a.id, toTrapId: b.id, lengthM: toFixed(lengthM, 3), midpointM: mid, ...f })
   }
+  findings.push(...accelerationFindings(system, segments, new Map(order.map(t => [t.id, t]))))
   return { segments, findings }
+}
+
+/**
+ * The change of speed between two consecutive segments a machine can make: 2 g (19.6133 m/s²), gaining or losing.
+ * Tyres on a dry lake or runway grip at about 1 g, and a machine in the measured distance is neither launching nor
+ * braking (common practice, from memory): beyond it a time was mistyped or a channel swapped.
+ */
+export const MAX_SEGMENT_ACCELERATION_MS2 = 2 * 9.80665
+
+/**
+ * Speeds of consecutive segments that no machine could join: (v2² − v1²) ÷ (2 · distance between the segments'
+ * midpoints) beyond the limit either way. Named by the three traps, with both speeds.
+ */
+function accelerationFindings(system: SystemDef, segments: SystemResult['segments'], byId: Map<number, TrapDef>) {
+  const findings: RunSheetFinding[] = []
+  for (let i = 1; i < segments.length; i++) {
+    const [s1, s2] = [segments[i - 1]!, segments[i]!]
+    if (s1.toTrapId !== s2.fromTrapId) continue // a trap missed between them: not consecutive
+    const [v1, v2] = [Number(s1.kmh) / 3.6, Number(s2.kmh) / 3.6]
+    const a = (v2 * v2 - v1 * v1) / (2 * Math.abs(s2.midpointM - s1.midpointM))
+    if (Math.abs(a) <= MAX_SEGMENT_ACCELERATION_MS2) continue
+    const [t1, t2, t3] = [s1.fromTrapId, s1.toTrapId, s2.toTrapId].map(id => byId.get(id)!.label)
+    findings.push({
+      code: 'reading.implausible-acceleration',
+      severity: 'fail',
+      trapId: s2.fromTrapId,
+      systemId: system.id,
+      message: `${system.name}: ${s1.kmh} km/h from ${t1} to ${t2}, then ${s2.kmh} km/h from ${t2} to ${t3}, `
+        + `${a > 0 ? 'gaining' : 'losing'} speed at ${(Math.abs(a) / 9.80665).toFixed(1)} g, more than the 2 g a `
+        + 'machine can in the measured distance: check the times and the channels.',
+    })
+  }
+  return findings
 }
 
 /** The time and speed over each measured distance one system timed from its entry to its exit trap. */

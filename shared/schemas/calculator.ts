@@ -39,8 +39,10 @@ export interface CalculatorResponse {
   resultMph: string | null
   windowOk: boolean
   window: { rule: string, usedS: string | null, deadline: string | null, opens: string | null }
-  /** No finding fails the profile. */
+  /** No finding fails the profile, and nothing it turns on was left undecided. */
   valid: boolean
+  /** What the calculator cannot decide from what it was given, in words (empty when it decides everything). */
+  cannotDecide: string[]
   beatsRecord: boolean | null
   required: { figure: string, unit: string } | null
   returnTargetS: string | null

@@ -27,7 +27,9 @@ describe('POST /api/calculator', () => {
     // The standing record was the 1970 figure of 622.407 mph (widely published); under the 1 % margin (reported
     // for 1983; from memory) 622.407 × 1.01 = 628.63107 → at least 628.632 mph, which 633.468 clears.
     expect(r.body.required).toEqual({ figure: '628.632', unit: 'mph' })
-    expect(r.body.valid).toBe(true)
+    // Without the instants each run entered the mile, the window is only estimated: no verdict of validity.
+    expect(r.body.valid).toBe(false)
+    expect(r.body.cannotDecide).toHaveLength(1)
     expect(r.body.beatsRecord).toBe(true)
   })
 

@@ -220,12 +220,13 @@ describe('pairing', () => {
 })
 
 describe('validity is one answer', () => {
+  // Each run entered the mile a minute after leaving the line: the window is decided, not estimated.
   const pair = (directions: ['out' | 'back', 'out' | 'back'], recordMph: number) => calculate({
     profile: 'intl-motorcycle',
     distanceM: MILE,
     runs: [
-      { direction: directions[0], startedAt: '2026-08-14T09:00:00Z', elapsedS: '5.6' },
-      { direction: directions[1], startedAt: '2026-08-14T09:30:00Z', elapsedS: '5.6' },
+      { direction: directions[0], startedAt: '2026-08-14T09:00:00Z', entryAt: '2026-08-14T09:01:00Z', elapsedS: '5.6' },
+      { direction: directions[1], startedAt: '2026-08-14T09:30:00Z', entryAt: '2026-08-14T09:31:00Z', elapsedS: '5.6' },
     ],
     recordMph,
   })
@@ -245,7 +246,32 @@ describe('validity is one answer', () => {
     const res = pair(['out', 'back'], 650)
     expect(res.valid).toBe(true)
     expect(res.beatsRecord).toBe(false)
-    expect(pair(['out', 'back'], 600)).toMatchObject({ valid: true, beatsRecord: true })
+    expect(pair(['out', 'back'], 600)).toMatchObject({ valid: true, beatsRecord: true, cannotDecide: [] })
+  })
+})
+
+describe('what the calculator cannot decide', () => {
+  const runs = (entry: boolean) => [
+    { direction: 'out' as const, startedAt: '2026-08-14T09:00:00Z', elapsedS: '9', ...(entry ? { entryAt: '2026-08-14T09:01:00Z' } : {}) },
+    { direction: 'back' as const, startedAt: '2026-08-14T09:30:00Z', elapsedS: '9', ...(entry ? { entryAt: '2026-08-14T09:31:00Z' } : {}) },
+  ]
+  it('is not valid without the entry instants: the window is only estimated, and it says so', () => {
+    const res = calculate({ profile: 'intl-motorcycle', distanceM: 1000, runs: runs(false) })
+    // 1000 m / 9 s × 3.6 = 400 km/h exactly: the figures are computed all the same.
+    expect(res.resultKmh).toBe('400.000')
+    expect(res.valid).toBe(false)
+    expect(res.cannotDecide).toEqual(['the time window: without the instant each run entered the measured distance, '
+      + 'its finish is only estimated (give each run\'s entry instant)'])
+    expect(calculate({ profile: 'intl-motorcycle', distanceM: 1000, runs: runs(true) })).toMatchObject({ valid: true, cannotDecide: [] })
+  })
+  it('gives no verdict for a distance the profile does not list, nor for one a millimetre off', () => {
+    // The international automobile profile lists the flying kilometre and mile (its distances rule): 1234 m is neither.
+    const res = calculate({ profile: 'intl-automobile', distanceM: 1234, runs: runs(true) })
+    expect(res.valid).toBe(false)
+    expect(res.cannotDecide).toHaveLength(1)
+    expect(res.cannotDecide[0]).toMatch(/^whether it counts: 1234\.000 m is not a distance of the profile, which lists .*\(1000 m\).*\(1609\.344 m\)/)
+    expect(calculate({ profile: 'intl-automobile', distanceM: 1000.001, runs: runs(true) }).cannotDecide).toHaveLength(1)
+    expect(calculate({ profile: 'intl-automobile', distanceM: 1000, runs: runs(true) }).cannotDecide).toEqual([])
   })
 })
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { standardAtmosphere } from '#shared/rules/planner/atmosphere'
 import { accelerationOf, motorPowerW, resistanceN, topSpeed, type Machine } from '#shared/rules/planner/road-load'
 import { integrateRun } from '#shared/rules/planner/run'
-import { plan, scalePower, requiredKmh, type PlanInput } from '#shared/rules/planner/plan'
+import { plan, pressureFinding, scalePower, requiredKmh, type PlanInput } from '#shared/rules/planner/plan'
 import { profiles } from '#shared/rules/profiles'
 
 // The planner's parts worked by hand. Road load: drag ½·ρ·CdA·v_air·|v_air| + rolling Crr·m·g0 (g0 = 9.80665 m/s²,
@@ -165,5 +165,23 @@ describe('what would beat the record, worked by hand', () => {
     expect(before[1]!.m).toBeCloseTo(23, 9)
     expect(before).toHaveLength(1 + 119)
     expect(p.runs[0]!.samples).toHaveLength(120 + 10)
+  })
+})
+
+describe('a pressure that is likely not the station\'s', () => {
+  // ICAO standard atmosphere table (Doc 7488/3): 898.76 hPa at 1000 m. Weather moves a station's pressure by some
+  // tens of hPa (common practice); the planner asks beyond 60 hPa either way.
+  it('is accepted within 60 hPa of the standard atmosphere at the altitude, and questioned beyond', () => {
+    expect(pressureFinding(1000, 958.7)).toBeNull() // 59.94 hPa above
+    expect(pressureFinding(1000, 838.9)).toBeNull() // 59.86 hPa below
+    expect(pressureFinding(1000, 958.9)!.code).toBe('air.pressure-check') // 60.14 hPa above
+    expect(pressureFinding(1000, 838.7)!.message).toMatch(/^838\.7 hPa is 60 hPa below the standard atmosphere's 898\.7 hPa at 1000 m/)
+    expect(pressureFinding(1000, null)).toBeNull()
+  })
+  it('catches a sea-level pressure typed for a course at 1290 m', () => {
+    // Hand computation by the ISA formula: 101325 × (279.765 / 288.15)^5.2559 = 86 756 Pa, 867.6 hPa at 1290 m;
+    // 1013.2 hPa (a sea-level report) is 145.6 hPa above it.
+    expect(pressureFinding(1290, 1013.2)!.message).toMatch(/^1013\.2 hPa is 146 hPa above the standard atmosphere's 867\.[56] hPa at 1290 m/)
+    expect(pressureFinding(1290, 870.0)).toBeNull()
   })
 })

@@ -17,7 +17,7 @@ describe('rule values in words', () => {
     expect(words(club, 'runs')).toBe('2, same directions')
     expect(words(moto, 'window')).toBe('120 min from the start of the first run to the finish of the second run')
     expect(words(auto, 'window')).toBe('60 min from the start of the first run to the finish of the second run')
-    expect(words(club, 'window')).toBe('record run on the calendar day after the qualifying run, leaving before 12:00')
+    expect(words(club, 'window')).toBe('record run on the calendar day after the qualifying run, at least 6 h after it, leaving before 12:00')
     expect(describeWindow({ kind: 'next-day' })).toBe('record run on the calendar day after the qualifying run')
     expect(describeWindow({ kind: 'elapsed', minutes: 30, from: 'finish-first', to: 'start-second' }))
       .toBe('30 min from the finish of the first run to the start of the second run')

@@ -160,10 +160,28 @@ describe('a run of three traps and two systems, worked by hand', () => {
 
   it('flags a segment faster than 1500 km/h as a mistyped time; 1500 km/h itself is not flagged', () => {
     // 500 m in 1 s = 1800.000 km/h; 500 m in 1.2 s = 1500.000 km/h exactly.
+    const sanity = (r: ReturnType<typeof compute>) => r.findings.filter(f => f.code === 'reading.implausible-speed')
     const fast = compute('out', [p(1, 0), p(2, 1), p(3, 10), b(2, 1), b(3, 10)])
-    expect(fast.findings).toEqual([{ code: 'reading.implausible-speed', severity: 'fail', trapId: 2, systemId: 1,
+    expect(sanity(fast)).toEqual([{ code: 'reading.implausible-speed', severity: 'fail', trapId: 2, systemId: 1,
       message: 'Beam A: 1800.000 km/h from T0 to T500 is beyond 1500 km/h; check the times.' }])
-    expect(compute('out', [p(1, 0), p(2, 1.2), p(3, 10.2), b(2, 1.2), b(3, 10.2)]).findings).toEqual([])
+    expect(sanity(compute('out', [p(1, 0), p(2, 1.2), p(3, 10.2), b(2, 1.2), b(3, 10.2)]))).toEqual([])
+  })
+
+  it('flags consecutive segment speeds no machine could join, beyond 2 g either way (a time mistyped, a channel swapped)', () => {
+    // 2 g = 19.6133 m/s² (standard gravity × 2; the 2 g limit is common practice, from memory). Midpoints of the
+    // segments T0–T500 and T500–T1500: 250 m and 1000 m, 750 m apart; a = (v2² − v1²) ÷ (2 × 750 m).
+    // The T500 trap read 3 s early: 500 m in 2 s (900 km/h), then 1000 m in 12 s (300 km/h):
+    // (83.333² − 250²) ÷ 1500 = −37.04 m/s², 3.8 g.
+    const swapped = compute('out', [p(1, 0), p(2, 2), p(3, 14), b(2, 2), b(3, 14)])
+    expect(swapped.findings).toEqual([{ code: 'reading.implausible-acceleration', severity: 'fail', trapId: 2, systemId: 1,
+      message: 'Beam A: 900.000 km/h from T0 to T500, then 300.000 km/h from T500 to T1500, losing speed at 3.8 g, '
+        + 'more than the 2 g a machine can in the measured distance: check the times and the channels.' }])
+    // At the edge: 360 km/h (100 m/s), then 1000 m in 5.0366 s = 714.767 km/h (truncated): (198.5464² − 100²) ÷ 1500 =
+    // 19.6138 m/s², over 2 g; in 5.0367 s, 714.753 km/h: 19.6127 m/s², under.
+    expect(compute('out', [p(1, 0), p(2, 5), p(3, 10.0366), b(2, 5), b(3, 10.0366)]).findings.map(f => f.code)).toEqual(['reading.implausible-acceleration'])
+    expect(compute('out', [p(1, 0), p(2, 5), p(3, 10.0367), b(2, 5), b(3, 10.0367)]).findings).toEqual([])
+    // 360 then 400 km/h (the run above): 1.56 m/s², nothing to say.
+    expect(compute('out', [p(1, 0), p(2, 5), p(3, 14), b(2, 5), b(3, 14)]).findings).toEqual([])
   })
 
   it('resolves the wind along each direction: from 170° at 3 m/s is a tail wind out (heading 350°), a head wind back', () => {

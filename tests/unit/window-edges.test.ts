@@ -89,8 +89,20 @@ describe('the next-day window of the club procedure, in the event\'s zone', () =
   it('says the record run is not within it', () => {
     const runs = [qualifier, record('2026-12-05T19:00:00.000Z')]
     expect(windowFindings(club, evaluateWindow(club, runs, zone), runs)).toEqual([{ code: 'window.exceeded', severity: 'fail',
-      message: 'The record run is not within the window: record run on the calendar day after the qualifying run, leaving before 12:00.',
+      message: 'The record run is not within the window: record run on the calendar day after the qualifying run, at least 6 h after it, leaving before 12:00.',
       rule: expect.objectContaining({ name: 'Time window' }) }])
+  })
+  it('after a qualifier late in the evening, opens 6 h after it, not at midnight (an overnight impound)', () => {
+    // The club's "next morning" read as after an overnight impound of at least 6 h (common practice, our reading).
+    // A qualifier at 23:59 local on 4 December (06:59 UTC on the 5th): a record run at 00:01 is not the next
+    // morning; the window opens at 05:59 local (12:59 UTC), to the millisecond.
+    const late = run('out', Date.parse('2026-12-05T06:59:00Z'))
+    expect(evaluateWindow(club, [late], zone).opensMs).toBe(Date.parse('2026-12-05T12:59:00Z'))
+    expect(evaluateWindow(club, [late, record('2026-12-05T07:01:00Z')], zone).ok).toBe(false)
+    expect(evaluateWindow(club, [late, record('2026-12-05T12:58:59.999Z')], zone).ok).toBe(false)
+    expect(evaluateWindow(club, [late, record('2026-12-05T12:59:00.000Z')], zone).ok).toBe(true)
+    // A qualifier at 09:00 is more than 6 h before midnight: the window still opens at midnight.
+    expect(evaluateWindow(club, [qualifier], zone).opensMs).toBe(Date.parse('2026-12-05T07:00:00Z'))
   })
   it('with no time of day named, the whole next local day', () => {
     const allDay = copyProfile(club, { window: { value: { kind: 'next-day' }, source: 'test rulebook, art. 6', certainty: 'seen' } })

@@ -47,8 +47,30 @@ export interface PlanInput {
   turnaroundMin: number
 }
 
+/**
+ * How far a station pressure may stand from the standard atmosphere's at the altitude before the planner asks
+ * whether it is one, hPa: weather moves a station's pressure by some tens of hPa (common practice), while a
+ * sea-level pressure (as weather reports give it) typed instead is off by about 12 hPa per 100 m of altitude.
+ */
+export const PRESSURE_CHECK_HPA = 60
+
+/** A typed pressure far from the standard atmosphere's at the altitude: likely the sea-level one, not the station's. */
+export function pressureFinding(altitudeM: number, pressureHpa: number | null): PlanFinding | null {
+  if (pressureHpa === null) return null
+  const isaHpa = standardAtmosphere(altitudeM).pressurePa / 100
+  const off = pressureHpa - isaHpa
+  if (Math.abs(off) <= PRESSURE_CHECK_HPA) return null
+  return {
+    code: 'air.pressure-check',
+    message: `${fmt(pressureHpa, 1)} hPa is ${fmt(Math.abs(off), 0)} hPa ${off > 0 ? 'above' : 'below'} the standard `
+      + `atmosphere's ${fmt(isaHpa, 1)} hPa at ${fmt(altitudeM, 0)} m, more than the ${PRESSURE_CHECK_HPA} hPa weather `
+      + 'moves it: give the station pressure (as a barometer at the course reads), not the sea-level pressure of a '
+      + 'weather report',
+  }
+}
+
 export interface PlanFinding {
-  code: 'runup.short' | 'shutdown.overrun' | 'record.short' | 'window.short' | 'record.none'
+  code: 'runup.short' | 'shutdown.overrun' | 'record.short' | 'window.short' | 'record.none' | 'air.pressure-check'
   message: string
 }
 
@@ -182,6 +204,8 @@ export function plan(x: PlanInput) {
     ? null
     : solveMultiplier(k => resultWith({ ...x.machine, cdA: x.machine.cdA * k }), targetMs, ratio ** -3)
   const findings: PlanFinding[] = []
+  const pressure = pressureFinding(x.conditions.altitudeM, x.conditions.pressureHpa)
+  if (pressure) findings.push(pressure)
   for (const d of [out, back]) {
     if (d.entryMs < RUNUP_SHARE * d.topMs) {
       findings.push({

@@ -15,9 +15,10 @@ export const clubSameDirection: RuleProfile = {
     certainty: 'seen',
   },
   window: {
-    value: { kind: 'next-day', before: '12:00' },
+    value: { kind: 'next-day', before: '12:00', overnightMinutes: 360 },
     source: `${CLUB_PAGES}: record run the next morning (seen); "morning" read as before noon in the event's `
-      + 'zone (our reading; confirm in the club rulebook)',
+      + 'zone, and "the next morning" as after an overnight impound of at least 6 h from the qualifying run, '
+      + 'not minutes past midnight (our reading, common practice; confirm in the club rulebook)',
     certainty: 'seen',
   },
   impoundMinutes: {
