@@ -41,9 +41,9 @@ it('runs the demo day from the first reading to the record book', async () => {
   await page.fill(`#sign-name-${attemptId}`, 'Tobias Tick')
   await page.fill(`#sign-pass-${attemptId}`, demo.password)
   await page.click('button:has-text("Sign the timing sheet")')
-  // Signing asks first, naming what is signed: the attempt, its two runs and their eight readings.
+  // Signing asks first, naming what is signed: the attempt, its two runs and their sixteen readings (both systems).
   expect(await page.locator('[data-test="sign-confirm"]').innerText())
-    .toMatch(new RegExp(`attempt #${attemptId} \\(Larkspur Fennwick streamliner\\), 2 runs and 8 readings, as Tobias Tick`))
+    .toMatch(new RegExp(`attempt #${attemptId} \\(Larkspur Fennwick streamliner\\), 2 runs and 16 readings, as Tobias Tick`))
   await page.click('[data-test="sign-confirm-yes"]')
   await page.locator('text=Signed by Tobias Tick').first().waitFor()
 
