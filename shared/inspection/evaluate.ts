@@ -213,3 +213,20 @@ export function clears(
   }
   return { cleared: true, why: 'signed inspection, every item passed and every measurement within its limit' }
 }
+
+/** The high-voltage items an electric or hybrid machine is always inspected on (UN ECE Regulation 100, 5.1.3). */
+export const HIGH_VOLTAGE_KEYS = ['isolation', 'bonding'] as const
+
+/**
+ * Why this checklist cannot inspect a machine of this power, or null when it can: an electric or hybrid machine is
+ * always inspected on a checklist with the high-voltage items (isolation and bonding measured), whatever was chosen.
+ */
+export function checklistMismatch(checklist: ChecklistTemplate, power: string): string | null {
+  if (power !== 'electric' && power !== 'hybrid') return null
+  const keys = new Set(allItems(checklist).map(i => i.key))
+  const missing = HIGH_VOLTAGE_KEYS.filter(k => !keys.has(k))
+  if (!missing.length) return null
+  const machine = power === 'electric' ? 'an electric' : 'a hybrid'
+  return `the ${checklist.name} checklist has no high-voltage items (${missing.join(', ')}); `
+    + `${machine} machine is inspected on one that measures isolation and bonding`
+}

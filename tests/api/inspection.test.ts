@@ -34,6 +34,14 @@ describe('an inspection from start to clearance', { shuffle: false }, () => {
     expect(r.body.statusMessage).toContain('no technical inspection yet')
   })
 
+  it('an electric machine is never inspected on a checklist without the high-voltage items', async () => {
+    // UN ECE Regulation 100, 5.1.3: isolation and bonding are measured on every electric machine; the combustion
+    // checklist has neither. Nothing is started.
+    const wrong = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId, baseId: 'combustion-motorcycle' } })
+    expect(wrong.status).toBe(422)
+    expect(wrong.body.data.issues).toEqual([{ path: 'baseId', message: 'the Combustion motorcycle checklist has no high-voltage items (isolation, bonding); an electric machine is inspected on one that measures isolation and bonding' }])
+  })
+
   it('refuses an incomplete inspection naming the missing items, then a failed item keeps the entry from running', async () => {
     const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
     expect(started.status).toBe(201)

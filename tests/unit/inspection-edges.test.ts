@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { allItems, checkMeasurement, clears, countNeeded, measuredVerdicts, missingItems, toItemUnit } from '#shared/inspection/evaluate'
+import { allItems, checklistMismatch, checkMeasurement, clears, countNeeded, measuredVerdicts, missingItems, toItemUnit } from '#shared/inspection/evaluate'
 import { combustionMotorcycle, electricMotorcycle, electricStreamliner, PARACHUTE_STEPS } from '#shared/inspection/templates'
 import type { ChecklistItem } from '#shared/inspection/template'
 import { fromDecimal } from '#shared/rules/exact'
@@ -157,5 +157,17 @@ describe('what stops a signature, and what the measurements say together', () =>
   it('the streamliner\'s cockpit exit is held to 30 s too', () => {
     expect(checkMeasurement(item('cockpit-exit', electricStreamliner), 30, {}).withinLimit).toBe(true)
     expect(checkMeasurement(item('cockpit-exit', electricStreamliner), '30.01', {}).withinLimit).toBe(false)
+  })
+})
+
+describe('the checklist follows what the machine is', () => {
+  // Electric and hybrid machines carry a traction battery: their isolation and bonding are always measured
+  // (UN ECE Regulation 100, 5.1.3); a combustion machine needs neither.
+  it('refuses a checklist without isolation and bonding for an electric or hybrid machine only', () => {
+    expect(checklistMismatch(combustionMotorcycle, 'electric')).toBe('the Combustion motorcycle checklist has no high-voltage items (isolation, bonding); an electric machine is inspected on one that measures isolation and bonding')
+    expect(checklistMismatch(combustionMotorcycle, 'hybrid')).toContain('; a hybrid machine is inspected on one')
+    expect(checklistMismatch(combustionMotorcycle, 'combustion')).toBeNull()
+    expect(checklistMismatch(electricMotorcycle, 'electric')).toBeNull()
+    expect(checklistMismatch(electricStreamliner, 'hybrid')).toBeNull()
   })
 })

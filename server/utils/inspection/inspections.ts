@@ -1,5 +1,6 @@
 import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
 import {
+  checklistMismatch,
   checkMeasurement,
   clears,
   missingItems,
@@ -182,6 +183,10 @@ export async function startInspection(
   else {
     checklist = checklistLibrary[input.baseId as ChecklistId]
   }
+  const [machine] = await db.select({ power: tables.machines.power }).from(tables.machines)
+    .where(eq(tables.machines.id, entry.machineId))
+  const mismatch = checklistMismatch(checklist, machine!.power)
+  if (mismatch) throw fieldError(input.checklistId ? 'checklistId' : 'baseId', mismatch)
   return db.transaction(async (tx) => {
     // A machine is inspected once for every entry it makes: the previous inspection is the machine's.
     await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${`machine:${entry.machineId}`}, 0))`)
