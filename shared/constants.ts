@@ -24,6 +24,13 @@ export type StartKind = (typeof START_KINDS)[number]
 export const SYSTEM_ROLES = ['primary', 'backup'] as const
 export type SystemRole = (typeof SYSTEM_ROLES)[number]
 
+/**
+ * The clock a timing system's times of day are read on: the event's local time, or UTC (a device set to GPS time
+ * that shows UTC). Its passings are placed in the day by it.
+ */
+export const TIME_BASES = ['local', 'utc'] as const
+export type TimeBase = (typeof TIME_BASES)[number]
+
 /** A run's direction along the course: out, or back for the return run. */
 export const DIRECTIONS = ['out', 'back'] as const
 export type Direction = (typeof DIRECTIONS)[number]

@@ -173,6 +173,8 @@ async function seedTimingSystems(tx: Tx, eventId: number, cal: DemoCalendar) {
         ticksPerSecond: 10_000,
         toleranceS: '0.002',
         description: 'Infrared beams with GPS-disciplined clock',
+        timeBase: 'local' as const,
+        synchronisation: 'to GPS time by its receiver, checked against it at 06:40 on the run day',
         ...cal.primaryCalibration,
       },
       {
@@ -182,6 +184,8 @@ async function seedTimingSystems(tx: Tx, eventId: number, cal: DemoCalendar) {
         ticksPerSecond: 1000,
         toleranceS: '0.002',
         description: 'Independent beams and recorder',
+        timeBase: 'local' as const,
+        synchronisation: 'to the primary\'s clock by hand at 06:45 on the run day',
         ...cal.backupCalibration,
       },
     ])

@@ -38,6 +38,7 @@ import {
   START_KINDS,
   STREAMLINING,
   SYSTEM_ROLES,
+  TIME_BASES,
   TOKEN_PURPOSES,
   type EventRole,
   type OfficialFunction,
@@ -261,6 +262,10 @@ export const timingSystems = pgTable(
     toleranceS: numeric('tolerance_s', { precision: 8, scale: 6 }).notNull(),
     calibratedOn: date('calibrated_on').notNull(),
     calibrationExpires: date('calibration_expires').notNull(),
+    /** The clock its times of day are read on: the event's local time or UTC. */
+    timeBase: text('time_base', { enum: TIME_BASES }).notNull().default('local'),
+    /** How and when its clock was set (to GPS time, to the other system…), in the timekeeper's words. */
+    synchronisation: text('synchronisation').notNull().default(''),
     /** Set when the organiser retires it, with the reason in the set-up history; never deleted. */
     retiredAt: timestamp('retired_at', { withTimezone: true }),
   },

@@ -11,6 +11,7 @@ import {
   START_KINDS,
   STREAMLINING,
   SYSTEM_ROLES,
+  TIME_BASES,
 } from '../constants'
 
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
@@ -84,6 +85,8 @@ export const timingSystemSchema = z
     toleranceS: decimalText(6, { min: 0, max: 1 }),
     calibratedOn: day,
     calibrationExpires: day,
+    timeBase: z.enum(TIME_BASES, { error: 'must be the event\'s local time or UTC' }).default('local'),
+    synchronisation: z.string().trim().max(200).default(''),
   })
   .refine(x => x.calibrationExpires > x.calibratedOn, {
     error: 'must be after the calibration date',

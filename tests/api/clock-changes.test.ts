@@ -14,12 +14,23 @@ await useTestServer()
 // run to finish of the second (published rule). Hand computations beside each check. Invented set-up.
 const both = (s: number) => ({ primary: [0, s] as [number, number], backup: [0, s] as [number, number] })
 
-async function pairAt(zone: string, outIso: string, backIso: string, name: string) {
+async function pairAt(zone: string, outIso: string, backIso: string, name: string, timeBase: 'local' | 'utc' = 'local') {
   const event = await newTestEvent('intl-motorcycle', zone)
+  if (timeBase === 'utc') {
+    const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.organiser })).body
+    for (const system of setup.systems) {
+      const r = await call('PATCH', `/api/events/${event.eventId}/setup/timing-systems/${system.id}`, {
+        cookie: event.cookie.organiser,
+        body: { ...system, timeBase: 'utc', synchronisation: 'to GPS time, shown as UTC', reason: 'the devices show UTC' },
+      })
+      expect(r.status, JSON.stringify(r.body)).toBe(200)
+    }
+  }
   const entryId = await clearedEntry(event.eventId, name, {}, {
     team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1',
   })
-  const place = { eventId: event.eventId, timeZone: zone, timekeeper: event.cookie.timekeeper, traps: event.traps, systems: event.systems }
+  // The times of day are typed as the devices show them: in the event's zone, or in UTC.
+  const place = { eventId: event.eventId, timeZone: timeBase === 'utc' ? 'UTC' : zone, timekeeper: event.cookie.timekeeper, traps: event.traps, systems: event.systems }
   const out = await kilometreRun(place, entryId, 'out', Date.parse(outIso), both(8.9))
   await kilometreRun(place, entryId, 'back', Date.parse(backIso), both(8.9))
   const live = (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.organiser })).body
@@ -48,5 +59,15 @@ describe('a pair on a day the clocks change', () => {
     expect(codes).not.toContain('pair.overlap')
     expect(a.window.ok).toBe(true)
     expect(a.valid).toBe(true)
+  })
+
+  it('read on devices set to UTC, a pair in Paris is held to its window in real time', async () => {
+    // Paris is UTC+1 in December. Out at 10:00:00Z, back at 11:59:00Z, its last trap at 12:00:08.9Z, typed as the
+    // devices show it (UTC): 120 min 8.9 s, over the 2 h window. Read as Paris time, 12:00:08.9 would be 11:00:08.9Z,
+    // 60.1 min: inside it.
+    const a = await pairAt('Europe/Paris', '2026-12-01T10:00:00Z', '2026-12-01T11:59:00Z', 'UTC clock machine', 'utc')
+    expect(a.runs.length).toBe(2)
+    expect(a.findings.find((f: { code: string }) => f.code === 'window.exceeded')?.message)
+      .toBe('The runs took 120.1 min between the anchors; the window is 120 min from the start of the first run to the finish of the second run.')
   })
 })

@@ -110,6 +110,8 @@ describe('the stewards\' confirmation of a result, after the protest period', { 
     const pdf = new Uint8Array(await (await fetch(url(`/api/dossiers/${built.body.id}/pdf`), { headers: { cookie: event.cookie.team } })).arrayBuffer())
     const text = (await pdfText(pdf, 'confirmed.pdf')).replace(/\s+/g, ' ')
     expect(text).toContain('Confirmation of the result by the stewards')
+    // Each timing system's clock, and how it was set (not recorded for the test event's systems).
+    expect(text).toMatch(/: its clock shows the event's local time \(Europe\/Paris\); how and when it was set is not recorded\./)
     expect(text).toContain(`Confirmed after the protest and appeal periods, which ended at ${(await readiness()).confirmation.afterClock}; 2 steward(s) sign under the profile.`)
     expect(text).toMatch(/Test official, \d{4}-\d\d-\d\d \d\d:\d\d(:\d\d)? UTC; SHA-256 [0-9a-f]{64}/)
     expect(text).toMatch(/Second official, \d{4}-\d\d-\d\d \d\d:\d\d(:\d\d)? UTC; SHA-256 [0-9a-f]{64}/)

@@ -32,6 +32,8 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       calibratedOn: s.calibratedOn,
       calibrationExpires: s.calibrationExpires,
       description: s.description,
+      timeBase: s.timeBase,
+      synchronisation: s.synchronisation,
     })),
     runs: manifestRuns(r),
     result: {

@@ -41,6 +41,13 @@ export function renderCourse(L: PdfLayout, m: Manifest) {
       `${s.calibratedOn} to ${s.calibrationExpires}`,
     ]),
   )
+  // The clock each system's times of day are read on, and how it was set (dossiers issued since it is recorded).
+  for (const s of m.timingSystems as (Manifest['timingSystems'][number] & { timeBase?: string })[]) {
+    if (!s.timeBase) continue
+    L.text(`${s.name}: its clock shows ${s.timeBase === 'utc' ? 'UTC' : `the event's local time (${m.event.timeZone})`}`
+      + `; ${s.synchronisation ? `set ${s.synchronisation}` : 'how and when it was set is not recorded'}.`,
+    { indent: 10, gap: 1 })
+  }
 }
 
 export function renderInspection(L: PdfLayout, m: Manifest) {

@@ -24,7 +24,8 @@ export async function importDeviceFile(eventId: number, input: DeviceImportInput
     traps: ctx.traps,
     runs: ctx.runs,
     ticksPerSecond: system.ticksPerSecond,
-    timeZone: ctx.timeZone,
+    // A device set to UTC writes UTC times of day (and dates): placed in UTC, not the event's zone.
+    timeZone: system.timeBase === 'utc' ? 'UTC' : ctx.timeZone,
     firstDay: input.firstDay,
   })
   const preview = {

@@ -52,6 +52,8 @@ function indexDay(day: EventDay) {
     readingsByRun,
     systems: day.systems.map(({ id, name, role, ticksPerSecond, toleranceS }) =>
       ({ id, name, role, ticksPerSecond, toleranceS })),
+    /** The zone each system's times of day are read in: UTC for one set to it, else the event's. */
+    zoneOf: new Map(day.systems.map(s => [s.id, s.timeBase === 'utc' ? 'UTC' : day.event.timeZone])),
     tpsOf: new Map(day.systems.map(s => [s.id, BigInt(s.ticksPerSecond)])),
     timeDecimals: Math.max(3, ...day.systems.map(s => String(s.ticksPerSecond).length - 1)),
   }
@@ -138,15 +140,16 @@ type ComputedRun = ReturnType<typeof runsFor>[number]
 
 /**
  * The instant a run left the measured distance: the time of day at its last trap (the exit trap out, the entry
- * trap back) on the system whose time counts, placed at the instant nearest the run's start at which the event's
- * clock showed it (after midnight, or in the hour repeated when the clocks go back, the run's own).
+ * trap back) on the system whose time counts, placed at the instant nearest the run's start at which that system's
+ * clock (the event's local time, or UTC) showed it (after midnight, or in the hour repeated when the clocks go back,
+ * the run's own).
  */
 function leftDistanceAt(ix: DayIndex, r: ComputedRun, distance: Distance, systemId: number) {
   const lastTrap = r.run.direction === 'out' ? distance.exitTrapId : distance.entryTrapId
   const reading = r.readings.find(g => g.trapId === lastTrap && g.systemId === systemId)
   if (!reading) return undefined
   const ofDay = Number(reading.ticks * 1000n / ix.tpsOf.get(reading.systemId)!)
-  return nearestTimeOfDay(ofDay, r.run.startedAt.getTime(), ix.day.event.timeZone) ?? undefined
+  return nearestTimeOfDay(ofDay, r.run.startedAt.getTime(), ix.zoneOf.get(reading.systemId)!) ?? undefined
 }
 
 /**
