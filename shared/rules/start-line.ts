@@ -14,8 +14,7 @@ export interface LicenceRule {
 }
 
 export const START_LINE_CODES = ['licence.expired', 'licence.grade', 'licence.no-grade', 'licence.speed-unknown',
-  'licence.upgrade-too-far', 'licence.medical', 'briefing.missed', 'reached.licence-grade', 'reached.tyre-rating',
-  'reached.parachutes'] as const
+  'licence.upgrade-too-far', 'licence.medical', 'briefing.missed'] as const
 export type StartLineCode = (typeof START_LINE_CODES)[number]
 
 export interface StartLineFinding {
@@ -118,43 +117,4 @@ export function upgradeTarget(grades: LicenceGrade[] | null | undefined, label: 
   if (!grades?.length) return null
   const at = gradeIndex(grades, label)
   return at >= 0 ? grades[at + 1] ?? null : null
-}
-
-/** The fastest the machine went at the event so far, and what it was inspected and licensed for. */
-export interface ReachedInput {
-  /** The fastest speed measured over any segment of its runs so far, km/h; null before its first timed run. */
-  reachedKmh: number | null
-  /** Whether that run was a licence upgrade run (its purpose was to go over the grade). */
-  onUpgradeRun: boolean
-  /** The rider's grade and its ceiling, where the profile grades licences. */
-  grade: LicenceGrade | null
-  /** The tyres' rated speed recorded at the inspection in force, km/h. */
-  tyreRatedKmh: number | null
-  /** Parachutes fitted at the inspection in force, and how many the speed reached needs. */
-  parachutes: { fitted: number, neededAtReached: number } | null
-}
-
-/**
- * What the speed the machine reached says before its next run: over the rider's licence grade (unless it was an
- * upgrade run), over the tyres' rated speed, or fast enough to need more parachutes than are fitted. Each stops the
- * next start until the clerk of the course decides, in writing (common practice: safety is judged on the speed
- * reached, not only the speed declared).
- */
-export function reachedFindings(x: ReachedInput): StartLineFinding[] {
-  const v = x.reachedKmh
-  if (v === null) return []
-  const out: StartLineFinding[] = []
-  const reached = `the machine reached ${v.toFixed(3)} km/h`
-  if (x.grade && x.grade.maxKmh !== null && v > x.grade.maxKmh && !x.onUpgradeRun) {
-    out.push({ code: 'reached.licence-grade',
-      message: `${reached}, over the ${x.grade.maxKmh} km/h of licence grade ${x.grade.label}` })
-  }
-  if (x.tyreRatedKmh !== null && v > x.tyreRatedKmh) {
-    out.push({ code: 'reached.tyre-rating', message: `${reached}, over its tyres' rated ${x.tyreRatedKmh} km/h` })
-  }
-  if (x.parachutes && x.parachutes.neededAtReached > x.parachutes.fitted) {
-    out.push({ code: 'reached.parachutes', message: `${reached}, at which ${x.parachutes.neededAtReached} `
-      + `parachute(s) are needed; ${x.parachutes.fitted} fitted at inspection` })
-  }
-  return out
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { gradeIndex, startLineFindings, upgradeTarget, type StartLineInput, reachedFindings } from '#shared/rules/start-line'
+import { gradeIndex, startLineFindings, upgradeTarget, type StartLineInput } from '#shared/rules/start-line'
 import { profiles } from '#shared/rules/profiles'
 import { isTimeZone, localDate, localDateTime, localToInstant } from '#shared/rules/zoned'
 
@@ -109,27 +109,5 @@ describe('zones and local times (IANA time zone database)', () => {
   it('writes early years and single digits with their zeros', () => {
     expect(localDate(Date.UTC(999, 0, 2, 12), 'UTC')).toBe('0999-01-02')
     expect(localDateTime(Date.UTC(2026, 0, 2, 3, 4, 5), 'UTC')).toBe('2026-01-02 03:04:05')
-  })
-})
-
-describe('the speed reached, before the next run', () => {
-  // Safety is judged on the speed the machine reached, not only on the speed declared (common practice): over the
-  // licence grade's ceiling (unless on an upgrade run), over the tyres' rated speed, or needing more parachutes than
-  // fitted stops the next start until the clerk of the course decides. Grade 250 mph = 402.336 km/h (1 mph =
-  // 1.609344 km/h exactly, NIST SP 811).
-  const grade = { label: '250 mph', maxKmh: 402.336 }
-  const base = { reachedKmh: 402.336, onUpgradeRun: false, grade, tyreRatedKmh: 420, parachutes: { fitted: 1, neededAtReached: 1 } }
-  it('is nothing at the ceilings themselves, and before a first timed run', () => {
-    expect(reachedFindings(base)).toEqual([])
-    expect(reachedFindings({ ...base, reachedKmh: 420 - 0.001, grade: null })).toEqual([])
-    expect(reachedFindings({ ...base, reachedKmh: null, tyreRatedKmh: 1 })).toEqual([])
-  })
-  it('names the grade, the tyres and the parachutes just over each', () => {
-    expect(reachedFindings({ ...base, reachedKmh: 402.337 })).toEqual([{ code: 'reached.licence-grade',
-      message: 'the machine reached 402.337 km/h, over the 402.336 km/h of licence grade 250 mph' }])
-    expect(reachedFindings({ ...base, reachedKmh: 402.337, onUpgradeRun: true })).toEqual([])
-    expect(reachedFindings({ ...base, grade: null, reachedKmh: 420.001 }).map(f => f.code)).toEqual(['reached.tyre-rating'])
-    expect(reachedFindings({ ...base, parachutes: { fitted: 1, neededAtReached: 2 } })).toEqual([{ code: 'reached.parachutes',
-      message: 'the machine reached 402.336 km/h, at which 2 parachute(s) are needed; 1 fitted at inspection' }])
   })
 })
