@@ -57,6 +57,18 @@ describe('international profile: licence and medical', () => {
     expect(run.body.overrideId).toBe(signed.body.id)
     // The declared speed at inspection (290 km/h, the test figures) is kept as the run's expected speed.
     expect(Number(run.body.expectedKmh)).toBe(290)
+    // Timed, the run stays without a medical in the file: the override let it start, it does not make it count.
+    const at = (s: number) => new Date(Date.parse(run.body.startedAt) + 60_000 + s * 1000).toISOString().slice(11, 23)
+    for (const system of ['primary', 'backup'] as const) {
+      for (const [trap, s] of [['K-in', 0], ['K-out', 8.9]] as const) {
+        const r = await call('POST', `/api/runs/${run.body.id}/readings`, { cookie: event.cookie.timekeeper, body: { trapId: event.traps[trap], systemId: event.systems[system], time: at(s) } })
+        expect(r.status, JSON.stringify(r.body)).toBe(201)
+      }
+    }
+    const attempt = (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.team })).body
+      .find((a: { id: number }) => a.id === run.body.attemptId)
+    expect(attempt.findings.find((f: { code: string }) => f.code === 'rider.medical')).toMatchObject({ severity: 'fail',
+      message: expect.stringMatching(/^No medical is recorded for the rider, which the profile requires, for the run\(s\) of \d{4}-\d\d-\d\d\.$/) })
   })
 
   it('stops a rider whose licence expired, naming the date', async () => {

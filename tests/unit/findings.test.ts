@@ -12,11 +12,11 @@ const aside = (id: number, code: string, runId: number | null) => ({ id, code, r
 const CODES: [string, SetAsideAuthority][] = [
   ['pair.direction', 'never'], ['pair.overlap', 'never'], ['window.exceeded', 'never'],
   ['course.distance-off-survey', 'never'], ['course.gradient-over-limit', 'never'], ['wind.tail-over-limit', 'never'],
-  ['rider.licence-expired', 'never'], ['licence.expired', 'never'], ['licence.medical', 'never'], ['licence.grade', 'never'],
+  ['rider.licence-expired', 'never'], ['rider.medical', 'never'], ['licence.expired', 'never'], ['licence.medical', 'never'], ['licence.grade', 'never'],
   ['class.outside', 'never'], ['impound.missing', 'never'], ['impound.late', 'never'], ['impound.before-run', 'never'],
   ['qualifier.not-over-record', 'never'], ['record.not-beaten', 'never'], ['record.margin-not-met', 'never'],
   ['record.minimum-not-reached', 'never'], ['return.unreachable', 'never'], ['reading.out-of-order', 'never'],
-  ['reading.implausible-speed', 'never'], ['protest.result-void', 'never'], ['protest.run-void', 'never'],
+  ['reading.implausible-speed', 'never'], ['reading.implausible-acceleration', 'never'], ['protest.result-void', 'never'], ['protest.run-void', 'never'],
   ['timing.cross-check', 'stewards'], ['timing.single-system', 'chief-timekeeper'],
 ]
 

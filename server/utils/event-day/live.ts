@@ -277,6 +277,23 @@ function settingFindings(
         + `of ${late.join(', ')}.`,
     })
   }
+  // Where the profile requires a medical, one valid on the day of each counted run: a start the clerk of the course
+  // allowed without one stays a finding in the file (the override lets a run start; it does not make it count).
+  if (attempt.profile.licence?.value.medical) {
+    const medical = e.rider.medicalExpires
+    const without = [...new Set(counted.map(r => localDate(r.run.startedAt.getTime(), zone)))]
+      .filter(d => !medical || d > medical)
+    if (without.length) {
+      findings.push({
+        code: 'rider.medical',
+        severity: 'fail',
+        message: medical
+          ? `The rider's medical expired on ${medical}, before the run(s) of ${without.join(', ')}.`
+          : 'No medical is recorded for the rider, which the profile requires, for the run(s) of '
+            + `${without.join(', ')}.`,
+      })
+    }
+  }
   return findings
 }
 
