@@ -107,8 +107,9 @@ function naiveMs(local: string): number {
 export function wallClockInstants(local: string, timeZone: string): number[] {
   const naive = naiveMs(local)
   const tried = [naive - 86_400_000, naive + 86_400_000].map(around => naive - offsetMs(around, timeZone))
-  const found = tried.filter(t => t + offsetMs(t, timeZone) === naive)
-  return [...new Set(found)].sort((a, b) => a - b)
+  // Earliest first already: two instants exist only where the offset drops (the clocks go back), so the one found
+  // with the earlier (larger) offset is the earlier instant. One offset found twice is one instant.
+  return [...new Set(tried.filter(t => t + offsetMs(t, timeZone) === naive))]
 }
 
 /** A time of day in ms (0 ≤ ms < 1 day) as a wall-clock time on a date: "YYYY-MM-DDTHH:MM:SS.fff". */

@@ -25,6 +25,13 @@ describe('the instants a wall-clock time names', () => {
     expect(iso(wallClockInstants('2026-03-29T03:00', 'Europe/Paris'))).toEqual(['2026-03-29T01:00:00.000Z'])
     expect(iso(wallClockInstants('2026-10-04T02:30', 'Australia/Lord_Howe'))).toEqual(['2026-10-03T15:30:00.000Z'])
   })
+  it('reads only a whole local date and time, seconds and milliseconds optional (".1" is 100 ms)', () => {
+    expect(iso(wallClockInstants('2026-12-05T12:00:00', 'UTC'))).toEqual(['2026-12-05T12:00:00.000Z'])
+    expect(iso(wallClockInstants('2026-12-05T12:00:00.1', 'UTC'))).toEqual(['2026-12-05T12:00:00.100Z'])
+    for (const bad of ['x2026-12-05T12:00', '2026-12-05T12:00x', '2026-12-05 12:00']) {
+      expect(() => wallClockInstants(bad, 'UTC'), bad).toThrow(`not a local date and time: ${bad}`)
+    }
+  })
   it('is one on any other day, to the millisecond', () => {
     expect(iso(wallClockInstants('2026-12-05T12:00:00.123', 'Europe/Paris'))).toEqual(['2026-12-05T11:00:00.123Z'])
     expect(onDate('2026-12-05', 45_296_789)).toBe('2026-12-05T12:34:56.789')
@@ -43,6 +50,12 @@ describe('a reading\'s time of day placed by its run\'s start', () => {
     // 03:21:08.9 CEST is 01:21:08.9Z; local midnight (CET) + 3 h 21 min 8.9 s would be 02:21:08.9Z.
     const ofDay = 3 * HOUR + 21 * 60_000 + 8_900
     expect(iso([nearestTimeOfDay(ofDay, Date.parse('2026-03-29T01:20:00Z'), 'Europe/Paris')!])).toEqual(['2026-03-29T01:21:08.900Z'])
+  })
+  it('before midnight, for a start typed just after it, is on the day before; at 12 h either way, the earlier', () => {
+    // Start typed 00:00:10 in Paris (23:00:10Z on the 5th); the first trap read 23:59:58 the day before (22:59:58Z).
+    expect(iso([nearestTimeOfDay(24 * HOUR - 2_000, Date.parse('2026-12-05T23:00:10Z'), 'Europe/Paris')!])).toEqual(['2026-12-05T22:59:58.000Z'])
+    // Midnight read against a start at noon UTC: yesterday's and today's midnights are both 12 h away; the earlier.
+    expect(iso([nearestTimeOfDay(0, Date.parse('2026-12-05T12:00:00Z'), 'UTC')!])).toEqual(['2026-12-05T00:00:00.000Z'])
   })
   it('over midnight, is on the next day; for a start typed a little late, a few seconds before it', () => {
     // Started 23:59:30 in Paris (22:59:30Z), reading 00:00:20: the next day, 23:00:20Z.
@@ -68,6 +81,11 @@ describe('a device\'s passings on a day the clocks go back', () => {
       [2, 1, '2026-11-01T07:12:00.000Z'], [3, 1, '2026-11-01T07:12:09.000Z'],
       [4, 2, '2026-11-01T08:12:00.000Z'], [5, 2, '2026-11-01T08:12:09.000Z'],
     ])
+  })
+  it('gives two passings at the same instant of the first hour both to its run, not the second to the repeated hour', () => {
+    const r = assign([run(1, '2026-11-01T07:10:00Z'), run(2, '2026-11-01T08:10:00Z')],
+      [['1', '01:12:00.000'], ['2', '01:12:00.000']], '2026-11-01', 'America/Denver')
+    expect(r.assigned.map(a => [a.runId, new Date(a.atMs).toISOString()])).toEqual([[1, '2026-11-01T07:12:00.000Z'], [1, '2026-11-01T07:12:00.000Z']])
   })
   it('gives a file that begins in the repeated hour to the run that can take it', () => {
     const r = assign([run(2, '2026-11-01T08:10:00Z')], [['1', '01:12:00.000']], '2026-11-01', 'America/Denver')

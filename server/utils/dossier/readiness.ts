@@ -58,7 +58,7 @@ async function loadAttemptFile(eventId: number, attemptId: number, distanceId: n
     openProtests: await openProtestsOn([attemptId]),
     confirmation: await confirmationOf({
       eventId, attemptId, entryId: attempt.entryId, profile: attempt.profile, timeZone: day.event.timeZone,
-      sheet: sheetInForce(day, attemptId),
+      sheet: sheetInForce(live.sheet),
     }, now),
     ...(await clearancesWithSigners(entry.entry.id, counted)),
   }

@@ -1,3 +1,4 @@
+import { setAsideRule } from '#shared/rules/findings'
 import { describeRuleValue, ruleLabels } from '#shared/rules/profile'
 import { signedWith, type PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
@@ -154,7 +155,7 @@ function renderPairResult(L: PdfLayout, m: Manifest) {
 function renderFinding(L: PdfLayout, f: Manifest['result']['findings'][number]) {
   L.text(`Finding ${f.code}${f.severity === 'fail' ? ' (fails the profile)' : ''}: ${f.message}`, { color: 'grey' })
   if (f.setAside) {
-    const by = f.code === 'timing.single-system'
+    const by = setAsideRule(f.code).authority === 'chief-timekeeper'
       ? 'the chief timekeeper\'s signed account'
       : 'a decision of the stewards'
     L.text(

@@ -6,7 +6,11 @@ import type { SignSheetInput } from '#shared/schemas/event-day'
 type Profile = (typeof tables.attempts.$inferSelect)['profile']
 
 /** The signing of the timing sheet a confirmation rests on: the attempt's latest, while the sheet stays signed. */
-export interface SheetInForce { id: number, signedAt: Date, sha256: string }
+export interface SheetInForce { id: number, at: Date, sha256: string }
+
+/** The sheet in force from the live results' sheet state (`sheetState`): its latest signing, unless reopened since. */
+export const sheetInForce = (sheet: { locked: boolean, latest: SheetInForce | null }) =>
+  (sheet.locked ? sheet.latest : null)
 
 /** What a steward signs in confirming a result: the signed timing sheet, the counted runs, the protests decided. */
 export const confirmationContent = (attemptId: number, sheet: SheetInForce, runIds: number[],
@@ -57,7 +61,7 @@ export async function confirmationOf(a: ConfirmationSubject, now: Date) {
   const inspected = a.sheet ? await inspectionPublishedAt(a.entryId) : null
   const facts = {
     attemptId: a.attemptId,
-    published: [a.sheet?.signedAt, inspected].filter((d): d is Date => !!d).map(d => +d),
+    published: [a.sheet?.at, inspected].filter((d): d is Date => !!d).map(d => +d),
     rule: a.profile.protests?.value ?? null,
     timeZone: a.timeZone,
     protests,
@@ -117,7 +121,7 @@ export async function confirmResult(attemptId: number, input: SignSheetInput, us
     const r = await readinessOf(attempt.eventId, attemptId, undefined, clock.now)
     refuseUnconfirmable(r, user.id)
     const c = r.confirmation
-    const sheet = sheetInForce(r.day, attemptId)!
+    const sheet = sheetInForce(r.live.sheet)!
     const signature = await insertSignature(tx, {
       proof,
       kind: 'confirmation',
@@ -134,17 +138,10 @@ export async function confirmResult(attemptId: number, input: SignSheetInput, us
   })
 }
 
-/** The latest signing of the attempt's timing sheet, while the sheet stays signed (not reopened since). */
-export function sheetInForce(day: Pick<EventDay, 'signatures'>, attemptId: number): SheetInForce | null {
-  const latest = day.signatures.filter(x => x.s.subjectId === attemptId && x.s.kind.startsWith('timing-sheet')).at(-1)
-  if (latest?.s.kind !== 'timing-sheet') return null
-  return { id: latest.s.id, signedAt: new Date(latest.s.signedAt), sha256: latest.s.contentSha256 }
-}
-
 /** What a confirmation of the attempt would say now: for the signature report's "still matches". */
 export async function confirmationContentNow(eventId: number, attemptId: number) {
   const r = await readinessOf(eventId, attemptId)
-  const sheet = sheetInForce(r.day, attemptId)
+  const sheet = sheetInForce(r.live.sheet)
   if (!sheet) return null
   return confirmationContent(attemptId, sheet, r.live.runs.filter(x => x.counted).map(x => x.id),
     r.confirmation.protests)
