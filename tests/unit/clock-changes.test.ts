@@ -87,6 +87,12 @@ describe('a device\'s passings on a day the clocks go back', () => {
       [['1', '01:12:00.000'], ['2', '01:12:00.000']], '2026-11-01', 'America/Denver')
     expect(r.assigned.map(a => [a.runId, new Date(a.atMs).toISOString()])).toEqual([[1, '2026-11-01T07:12:00.000Z'], [1, '2026-11-01T07:12:00.000Z']])
   })
+  it('takes the first 01:30 for a run that started 30 min before it, to the millisecond, before a later run', () => {
+    // Run 1 left at 01:00 MDT (07:00Z): the first 01:30 (07:30Z) is exactly 30 min on, still its; run 2 (08:10Z) does
+    // not take it from the second 01:30 (08:30Z).
+    const r = assign([run(1, '2026-11-01T07:00:00Z'), run(2, '2026-11-01T08:10:00Z')], [['1', '01:30:00.000']], '2026-11-01', 'America/Denver')
+    expect(r.assigned.map(a => [a.runId, new Date(a.atMs).toISOString()])).toEqual([[1, '2026-11-01T07:30:00.000Z']])
+  })
   it('gives a file that begins in the repeated hour to the run that can take it', () => {
     const r = assign([run(2, '2026-11-01T08:10:00Z')], [['1', '01:12:00.000']], '2026-11-01', 'America/Denver')
     expect(r.assigned.map(a => [a.runId, new Date(a.atMs).toISOString()])).toEqual([[2, '2026-11-01T08:12:00.000Z']])

@@ -100,6 +100,12 @@ describe('the plan in the day\'s air, with the standard atmosphere where a figur
     course: { label: 'Flying kilometre', lengthM: 8000, headingDeg: 90, entryM: 3500, exitM: 4500 },
     shutdown: { decelerationMs2: 3, marginM: 300 }, profile: profiles['intl-motorcycle'], recordKmh: null, turnaroundMin: 45,
   }
+  it('questions in the plan itself a sea-level pressure typed for a course at 1000 m', () => {
+    // 1013.2 hPa against the ISA's 898.746 hPa at 1000 m (ISO 2533): 114 hPa off, over the 60 hPa weather moves it.
+    const p = plan({ ...input, conditions: { ...input.conditions, pressureHpa: 1013.2 } })
+    expect(p.findings.map(f => f.code)).toContain('air.pressure-check')
+    expect(plan(input).findings.map(f => f.code)).not.toContain('air.pressure-check')
+  })
   it('takes 281.65 K and 898.746 hPa at 1000 m (ISO 2533)', () => {
     const p = plan(input)
     expect(p.air.temperatureC).toBeCloseTo(8.5, 6)

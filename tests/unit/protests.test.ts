@@ -132,6 +132,12 @@ describe('when the stewards may confirm a result', () => {
     expect(new Date(confirmableAfter(f)!).toISOString()).toBe('2026-12-06T19:00:00.000Z')
     expect(confirmationWaits(f, at('2026-12-06T19:00:00.001Z'))).toEqual([])
   })
+  it('without protests, is the latest publication; without an appeal, no appeal period is waited for', () => {
+    expect(confirmableAfter(facts({ rule: null, published: [at('2026-12-05T10:20:00Z'), at('2026-12-05T10:00:00Z')] })))
+      .toBe(at('2026-12-05T10:20:00Z'))
+    const noAppeal = facts({ rule: { ...intl, appeal: null }, protests: [decided(3, '2026-12-05T10:40:00Z')] })
+    expect(confirmableAfter(noAppeal)).toBe(at('2026-12-05T10:30:00Z'))
+  })
   it('asks nothing to wait for where the profile provides no protests, and refuses what is not published', () => {
     expect(confirmationWaits(facts({ rule: null }), at('2026-12-05T10:00:00.001Z'))).toEqual([])
     expect(confirmableAfter(facts({ published: [] }))).toBeNull()
