@@ -582,6 +582,8 @@ export const inspections = pgTable(
     busKind: text('bus_kind'),
     /** The top speed the team declares the machine may reach, km/h exactly (tyres, parachutes). */
     declaredKmh: numeric('declared_kmh'),
+    /** The streamlining division the scrutineer saw (the class check uses it); null on inspections from before. */
+    division: streamlining('division'),
     previousId: integer('previous_id'),
     signatureId: integer('signature_id').references(() => signatures.id),
     createdBy: integer('created_by')
@@ -929,13 +931,19 @@ export const postRunChecks = pgTable('post_run_checks', {
     .references(() => attempts.id)
     .unique(),
   massKg: numeric('mass_kg', { precision: 8, scale: 1 }),
+  /** Where the class goes by capacity: the engine's swept volume re-measured (cm³); null where not asked. */
+  capacityCm3: numeric('capacity_cm3', { precision: 8, scale: 2 }),
+  /** The impound seals' numbers as found after the run; empty where none were recorded. */
+  sealNumbers: text('seal_numbers').array().notNull().default(sql`'{}'::text[]`),
+  /** Whether every seal was found intact; null where no seal was recorded. */
+  sealsIntact: boolean('seals_intact'),
   note: text('note').notNull().default(''),
   scrutineerId: integer('scrutineer_id')
     .notNull()
     .references(() => users.id),
   signatureId: integer('signature_id').references(() => signatures.id),
   createdAt: createdAt(),
-})
+}, t => [check('post_run_checks_seals_said', sql`(cardinality(${t.sealNumbers}) = 0) = (${t.sealsIntact} IS NULL)`)])
 
 /**
  * The sanctioning body's homologation of a ratified record, entered and signed by an official: the

@@ -1,5 +1,6 @@
 import type { ChecklistItem, ChecklistTemplate, MeasureUnit } from './template'
-import type { BusKind, ItemResult } from '../constants'
+import type { BusKind, ItemResult, Streamlining } from '../constants'
+import { DIVISION_WORDS } from '../rules/classes'
 import {
   cmp, decimalsOf, div, fromDecimal, fromInput, fromNumber, isPositive, mul, q, toExactDecimal, toFixed, type Q,
 } from '../rules/exact'
@@ -212,6 +213,31 @@ export function clears(
     }
   }
   return { cleared: true, why: 'signed inspection, every item passed and every measurement within its limit' }
+}
+
+/**
+ * Why an item cannot be marked not applicable on this machine, or null when it can: only items that allow it, and an
+ * item not applicable only on some streamlining divisions only on those, as the scrutineer saw the machine.
+ */
+export function notApplicableRefusal(item: ChecklistItem, division: Streamlining | null): string | null {
+  if (!item.allowNotApplicable) return 'this item cannot be marked not applicable'
+  const on = item.notApplicableOn
+  if (!on) return null
+  const machines = on.map(d => DIVISION_WORDS[d]).join(' or ')
+  const only = `is not applicable only where the machine is ${machines}`
+  if (division === null) return `${only}: confirm the division seen first`
+  if (!on.includes(division)) return `${only}; this one is ${DIVISION_WORDS[division]}`
+  return null
+}
+
+/** The items marked not applicable that may not be on this machine (the division seen changed since), by label. */
+export function notApplicableMisused(t: ChecklistTemplate, answers: Answer[], division: Streamlining | null): string[] {
+  const items = new Map(allItems(t).map(i => [i.key, i]))
+  return answers.filter(a => a.result === 'na').flatMap((a) => {
+    const item = items.get(a.itemKey)
+    const why = item ? notApplicableRefusal(item, division) : null
+    return why ? [`${item!.label} ${why}`] : []
+  })
 }
 
 /** The high-voltage items an electric or hybrid machine is always inspected on (UN ECE Regulation 100, 5.1.3). */

@@ -1,3 +1,4 @@
+import type { Streamlining } from '../constants'
 import type { Certainty } from '../rules/profile'
 
 export type ItemKind = 'check' | 'measure'
@@ -26,8 +27,13 @@ export interface ChecklistItem {
   /** Unit of a measurement as stored; entries in other units of the same quantity are converted. */
   unit?: MeasureUnit
   limit?: ItemLimit
-  /** Items that may be marked not applicable (e.g. canopy exit on an unstreamlined machine). */
+  /** Items that may be marked not applicable (e.g. canopy exit on an unstreamlined machine), with a reason. */
   allowNotApplicable?: boolean
+  /**
+   * Where the item is not applicable only on some machines: the streamlining divisions (as the scrutineer sees them)
+   * on which it may be marked so; on any other it is answered.
+   */
+  notApplicableOn?: Streamlining[]
   /** A safety item: an organiser's adapted copy keeps it. */
   safety?: boolean
   source: string

@@ -135,9 +135,12 @@ const chassis: ChecklistSection = {
       kind: 'measure',
       unit: 'count',
       limit: { kind: 'count-for-speed', steps: PARACHUTE_STEPS },
+      allowNotApplicable: true,
+      notApplicableOn: ['none'],
       safety: true,
-      source: 'club rules: one parachute above 175 mph, two above 300 mph of declared speed '
-        + '(from memory: the speeds vary by rulebook; the rulebook in force decides)',
+      source: 'club rules: one parachute above 175 mph, two above 300 mph of declared speed; an unstreamlined '
+        + 'motorcycle carries none (from memory: the speeds and the machines vary by rulebook; the rulebook in force '
+        + 'decides)',
       certainty: 'from memory',
     },
     {

@@ -1,3 +1,4 @@
+import type { PowerSource } from '../constants'
 import type { Certainty, RuleProfile, Sourced } from './profile'
 import { cmp, div, fromDecimal, fromInput, mul, q, toFixed, type Q } from './exact'
 
@@ -10,7 +11,8 @@ export type Division = 'none' | 'partial' | 'full'
  */
 export interface RecordClass {
   label: string
-  propulsion: 'electric' | 'combustion'
+  /** No library profile has a hybrid class (none known from the rulebooks); an organiser may add one, sourced. */
+  propulsion: PowerSource
   /** Motorcycles: the streamlining division; absent where the class does not go by it. */
   division?: Division
   capacityCm3?: { over: number, upTo: number | null }
@@ -18,7 +20,7 @@ export interface RecordClass {
   certainty: Certainty
 }
 
-const DIVISION_WORDS: Record<Division, string> = {
+export const DIVISION_WORDS: Record<Division, string> = {
   none: 'unstreamlined',
   partial: 'partially streamlined',
   full: 'fully streamlined',
@@ -53,6 +55,21 @@ export function motorcycleClasses(): RecordClass[] {
 /** The classes a profile lists (a frozen copy from before classes were data has none). */
 export const classesOf = (p: Pick<RuleProfile, 'classes'>): RecordClass[] => p.classes?.value ?? []
 
+/**
+ * Why a machine of this propulsion cannot enter the class, or null when it can: the class is for one propulsion.
+ * Said at entry, so that a machine no class takes (a hybrid, where the list has no hybrid class) is refused there
+ * rather than found outside its class after its runs.
+ */
+export function propulsionRefusal(c: RecordClass, power: PowerSource, classes: RecordClass[]): string | null {
+  if (c.propulsion === power) return null
+  const any = classes.some(x => x.propulsion === power)
+  return `is a class for ${c.propulsion} machines; the machine is ${power}`
+    + (any
+      ? ''
+      : `, and no class of this event takes a ${power} machine `
+        + '(the organiser can add one, with its rulebook)')
+}
+
 /** The class of a label, compared as people write it: case and spacing aside. */
 export function findClass(classes: RecordClass[], label: string) {
   const norm = (s: string) => s.trim().replace(/\s+/g, ' ').toLowerCase()
@@ -60,7 +77,7 @@ export function findClass(classes: RecordClass[], label: string) {
 }
 
 export interface MachineFacts {
-  power: 'electric' | 'combustion'
+  power: PowerSource
   division: Division | null
   /** As measured at the inspection in force, exact decimals; null when not measured. */
   massKg: string | null
@@ -81,6 +98,15 @@ export function classProblems(c: RecordClass, m: MachineFacts): string[] {
   if (c.propulsion !== m.power) out.push(`propulsion: the class is ${c.propulsion}, the machine ${m.power}`)
   if (c.division && m.division && c.division !== m.division)
     out.push(`division: the class is ${DIVISION_WORDS[c.division]}, the machine ${DIVISION_WORDS[m.division]}`)
+  return [...out, ...figureProblems(c, m)]
+}
+
+/**
+ * The measured figures against the class's limits alone (capacity, mass): each limit not met, or not measured,
+ * with the figures side by side. The post-run check re-judges the class on its own figures with this.
+ */
+export function figureProblems(c: RecordClass, m: Pick<MachineFacts, 'massKg' | 'capacityCm3'>): string[] {
+  const out: string[] = []
   const limits = [['capacity', 'cm³', c.capacityCm3, m.capacityCm3], ['mass', 'kg', c.massKg, m.massKg]] as const
   for (const [what, unit, range, figure] of limits) {
     if (!range) continue

@@ -119,7 +119,7 @@ export const classesAdaptSchema = z.object({
   addClasses: z
     .array(z.object({
       label: z.string().trim().min(3, { error: 'name the class' }).max(120),
-      propulsion: z.enum(['electric', 'combustion'], { error: 'must be electric or combustion' }),
+      propulsion: z.enum(POWER_SOURCES, { error: `must be one of ${POWER_SOURCES.join(', ')}` }),
       division: z.enum(['none', 'partial', 'full']).optional(),
       capacityCm3: classRange.optional(),
       massKg: classRange.optional(),

@@ -3,7 +3,7 @@ import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
 import { numberOrRequired, recordId } from './fields'
 import { decimalsOf, fromInput, MAX_DECIMAL_CHARS } from '../rules/exact'
-import { BUS_KINDS, DECISIONS, ITEM_RESULTS } from '../constants'
+import { BUS_KINDS, DECISIONS, ITEM_RESULTS, STREAMLINING } from '../constants'
 
 const id = recordId
 
@@ -63,8 +63,8 @@ export type AnswerInput = z.infer<typeof answerSchema>
 
 /**
  * The figures an inspection judges measurements against: the high-voltage bus's maximum working voltage
- * and kind (electric machines), and the top speed the team declares, in km/h or mph. Any of them may
- * be sent alone; the bus's voltage and kind go together.
+ * and kind (electric machines), the top speed the team declares, in km/h or mph, and the streamlining division
+ * the scrutineer sees. Any of them may be sent alone; the bus's voltage and kind go together.
  */
 export const figuresSchema = z
   .object({
@@ -80,13 +80,15 @@ export const figuresSchema = z
       .refine(x => Number(x) > 0 && Number(x) <= 1500, { error: 'must be a speed above 0 and at most 1500' })
       .optional(),
     declaredUnit: z.enum(['km/h', 'mph'], { error: 'must be km/h or mph' }).default('km/h'),
+    /** The streamlining division the scrutineer sees, confirming or correcting the team's declaration. */
+    division: z.enum(STREAMLINING, { error: `must be one of ${STREAMLINING.join(', ')}` }).optional(),
   })
   .refine(x => (x.busVoltageV === undefined) === (x.busKind === undefined), {
     error: 'give the working voltage and the bus kind together',
     path: ['busKind'],
   })
-  .refine(x => x.busVoltageV !== undefined || x.declaredSpeed !== undefined, {
-    error: 'give the working voltage and bus kind, or the declared top speed',
+  .refine(x => x.busVoltageV !== undefined || x.declaredSpeed !== undefined || x.division !== undefined, {
+    error: 'give the working voltage and bus kind, the declared top speed, or the division seen',
     path: ['declaredSpeed'],
   })
 export type FiguresInput = z.infer<typeof figuresSchema>
@@ -136,9 +138,27 @@ export const suspensionSchema = signSheetSchema.extend({
 })
 export type SuspensionInput = z.infer<typeof suspensionSchema>
 
-/** The post-run check after a record run: the mass re-measured (kg), what was seen, signed. */
+/** Text of one seal number per line (or separated by commas) as a list; a list as it is. */
+const sealList = (v: unknown) => (typeof v === 'string' ? v.split(/[\n,;]/).map(s => s.trim()).filter(Boolean) : v)
+
+/**
+ * The post-run check after a record run: the mass re-measured (kg); the engine's capacity re-measured (cm³), which
+ * the route asks for where the class goes by capacity; the impound seals' numbers as found and whether every one
+ * was intact; what was seen; signed.
+ */
 export const postRunCheckSchema = signSheetSchema.extend({
   massKg: z.coerce.number({ error: numberOrRequired }).positive().max(100_000),
+  capacityCm3: z.preprocess(
+    v => (v === '' || v === null ? undefined : v),
+    z.coerce.number({ error: 'must be a number' }).positive({ error: 'must be greater than zero' }).max(100_000)
+      .refine(x => Math.abs(x * 100 - Math.round(x * 100)) < 1e-6, { error: 'must have at most 2 decimals' })
+      .optional(),
+  ),
+  sealNumbers: z.preprocess(sealList, z
+    .array(z.string().trim().min(1).max(40, { error: 'a seal number is at most 40 characters' }))
+    .max(50, { error: 'at most 50 seals' })
+    .default([])),
+  sealsIntact: z.boolean({ error: 'must be true or false' }).optional(),
   note: z.string().trim().max(1000).default(''),
 })
 export type PostRunCheckInput = z.infer<typeof postRunCheckSchema>

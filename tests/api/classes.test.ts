@@ -1,6 +1,6 @@
 import { beforeAll, expect, it } from 'vitest'
 import { call, url, useTestServer } from '../support/api'
-import { clearedEntry } from '../support/entries'
+import { answerAll, clearedEntry, FIGURES, newEntry } from '../support/entries'
 import { form, pdf } from '../support/files'
 import { kilometreRun, minutesAgo } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
@@ -51,6 +51,72 @@ it('the class list changes on its own, keeping the profile\'s other adapted valu
   const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.organiser })).body
   expect(setup.event.profile.window.value.minutes).toBe(45) // the adapted window stays
   expect(setup.event.profile.version).toBe(window.body.version + 1)
+})
+
+it('refuses at entry a machine whose propulsion the class is not for; a hybrid enters only a hybrid class', async () => {
+  // No library profile lists a hybrid class (none is known from the rulebooks here): a hybrid machine is refused at
+  // entry, saying so, until the organiser adds a class for it with its rulebook (common practice: the class decides).
+  const setup = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.team })).body
+  const enter = (name: string, power: string, className: string) => call('POST', `/api/events/${event.eventId}/entries`, {
+    cookie: event.cookie.team,
+    body: { machine: { name, power, declaredMassKg: '240.0', division: 'partial' }, rider: { name: 'Test Rider', licenceNo: 'DEMO-T-3', licenceExpires: '2099-12-31' }, className, distanceId: setup.distances[0].id },
+  })
+  const hybrid = await enter('Twin Heart', 'hybrid', 'Electric, fully streamlined')
+  expect(hybrid.status).toBe(422)
+  expect(hybrid.body.data.issues[0]).toEqual({
+    path: 'className',
+    message: 'is a class for electric machines; the machine is hybrid, and no class of this event takes a hybrid machine '
+      + '(the organiser can add one, with its rulebook)',
+  })
+  const electric = await enter('Quiet One', 'electric', 'Combustion, over 750 cm³ up to 1000 cm³, partially streamlined')
+  expect(electric.body.data.issues[0]).toEqual({ path: 'className', message: 'is a class for combustion machines; the machine is electric' })
+  const entries = (await call('GET', `/api/events/${event.eventId}/setup`, { cookie: event.cookie.team })).body.entries
+  expect(entries.map((e: any) => e.machineName)).not.toContain('Twin Heart') // no entry half-written
+  const added = await call('PUT', `/api/events/${event.eventId}/classes`, {
+    cookie: event.cookie.organiser,
+    body: { addClasses: [{ label: 'Hybrid, fully streamlined', propulsion: 'hybrid', division: 'full' }], source: 'local rulebook 2026, article 6 (invented for the test)' },
+  })
+  expect(added.status, JSON.stringify(added.body)).toBe(200)
+  expect((await enter('Twin Heart', 'hybrid', 'hybrid, fully streamlined')).status).toBe(201)
+})
+
+it('the scrutineer confirms the division seen before signing; the class is judged on it, not on the declaration', async () => {
+  // The motorcycle classes go by streamlining division (FIM extract: unstreamlined, partially, fully streamlined); the
+  // division is what the scrutineer sees, the team only declares it (common practice of technical inspection).
+  const who = { team: event.cookie.team, scrutineer: event.cookie.scrutineer }
+  const entryId = await newEntry(event.eventId, 'Declared Full', {}, { ...who, entry: { className: 'Electric, fully streamlined', division: 'full' } })
+  const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+  expect(started.status, JSON.stringify(started.body)).toBe(201)
+  const id = started.body.id
+  const { division: _, ...noDivision } = FIGURES
+  expect((await call('PATCH', `/api/inspections/${id}`, { cookie: event.cookie.scrutineer, body: noDivision })).status).toBe(200)
+  await answerAll(id, undefined, { scrutineer: event.cookie.scrutineer })
+  const view = (await call('GET', `/api/inspections/${id}`, { cookie: event.cookie.scrutineer })).body
+  expect(view.division).toEqual({ declared: 'full', classGoesBy: 'full' })
+  const sign = () => call('POST', `/api/inspections/${id}/signatures`, { cookie: event.cookie.scrutineer, body: { password: 'first-password-1', typedName: 'Test scrutineer' } })
+  const refused = await sign()
+  expect(refused.status).toBe(422)
+  expect(refused.body.data.issues[0]).toEqual({
+    path: 'division', message: 'confirm the streamlining division you see: the class (Electric, fully streamlined) goes by it',
+  })
+  expect((await call('PATCH', `/api/inspections/${id}`, { cookie: event.cookie.scrutineer, body: { division: 'fully' } })).body.data.issues[0])
+    .toMatchObject({ path: 'division' })
+  // Seen partially streamlined (no tail section, say): signed, and the machine is then outside the class entered.
+  expect((await call('PATCH', `/api/inspections/${id}`, { cookie: event.cookie.scrutineer, body: { division: 'partial' } })).status).toBe(200)
+  const signed = await sign()
+  expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+  const report = (await call('GET', `/api/signatures/${signed.body.id}`, { cookie: event.cookie.official })).body
+  expect(report.content.division).toBe('partial')
+  const place = { ...event, timekeeper: event.cookie.timekeeper }
+  const run = await kilometreRun(place, entryId, 'out', Math.ceil(Date.now() / 1000) * 1000 + 1000, { primary: [0, 10], backup: [0, 10] })
+  const live = (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.team })).body
+    .find((a: any) => a.id === run.attemptId)
+  const outside = live.findings.find((f: any) => f.code === 'class.outside')
+  expect(outside.message).toContain('division: the class is fully streamlined, the machine partially streamlined')
+  const readiness = (await call('GET', `/api/attempts/${run.attemptId}/readiness`, { cookie: event.cookie.team })).body
+  expect(readiness.items.find((i: any) => i.key === 'class')).toMatchObject({
+    met: false, detail: 'division: the class is fully streamlined, the machine partially streamlined',
+  })
 })
 
 it('a machine outside its class is a blocking finding; a class by mass asks for the scale\'s certificate', async () => {

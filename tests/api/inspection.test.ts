@@ -262,3 +262,44 @@ describe('witness statements', () => {
     expect(report.body.storedContentMatches).toBe(false)
   })
 })
+
+describe('not applicable by what the machine is', () => {
+  it('a parachute is not applicable only on an unstreamlined machine as seen, with the reason written', async () => {
+    // Club rules (from memory): a parachute above 175 mph of declared speed on streamlined machines; an unstreamlined
+    // motorcycle carries none. 290 km/h is 180.2 mph (1 mile = 1.609344 km, NIST SP 811): over 175 mph.
+    const bare = await newEntry(eventId, 'Cinder Naked', {}, { team: cookie.team2, entry: { className: 'Electric, unstreamlined', division: 'none' } })
+    const started = await call('POST', `/api/events/${eventId}/inspections`, { cookie: cookie.scrutineer, body: { entryId: bare, baseId: 'electric-motorcycle' } })
+    expect(started.status).toBe(201)
+    const id = started.body.id
+    const { division: _, ...noDivision } = FIGURES
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: noDivision })
+    const na = (note?: string) => answer(id, { itemKey: 'parachute', result: 'na', ...(note ? { note } : {}) })
+    expect((await na('no parachute mount')).body.data.issues[0]).toEqual({
+      path: 'result', message: 'is not applicable only where the machine is unstreamlined: confirm the division seen first',
+    })
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { division: 'none' } })
+    expect((await na()).body.data.issues[0]).toEqual({ path: 'note', message: 'say why the item does not apply to this machine' })
+    expect((await na('unstreamlined: no parachute carried')).status).toBe(200)
+    // Items that never allow it are refused, whatever the machine.
+    expect((await answer(id, { itemKey: 'tyres-rated', result: 'na', note: 'slicks' })).body.data.issues[0])
+      .toEqual({ path: 'result', message: 'this item cannot be marked not applicable' })
+    await answerAll(id, 'parachute', { scrutineer: cookie.scrutineer }) // every other item passed
+    await na('unstreamlined: no parachute carried')
+    await answer(id, { itemKey: 'canopy-exit', result: 'na', note: 'no canopy' })
+
+    // The scrutineer then sees a partial fairing: the parachute's "not applicable" no longer holds at signing.
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { division: 'partial' } })
+    const sign = () => call('POST', `/api/inspections/${id}/signatures`, { cookie: cookie.scrutineer, body: { password: DEMO_PASSWORD, typedName: 'Selma Scrute' } })
+    const refused = await sign()
+    expect(refused.status).toBe(422)
+    expect(refused.body.data.issues[0]).toEqual({
+      path: 'items',
+      message: 'marked not applicable: Parachutes fitted and packed: how many is not applicable only where the machine is '
+        + 'unstreamlined; this one is partially streamlined',
+    })
+    await call('PATCH', `/api/inspections/${id}`, { cookie: cookie.scrutineer, body: { division: 'none' } })
+    expect((await sign()).status).toBe(201)
+    const view = (await call('GET', `/api/inspections/${id}`, { cookie: cookie.scrutineer })).body
+    expect(view.clearance).toMatchObject({ cleared: true })
+  })
+})

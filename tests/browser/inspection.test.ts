@@ -31,6 +31,9 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await page.fill('#bus-v', '96')
   await page.fill('#declared', '124')
   await page.selectOption('#declared-unit', 'mph')
+  // The class goes by the streamlining division: the scrutineer confirms what the team declared.
+  expect(await page.locator('label[for="division-seen"]').innerText()).toContain('declared: unstreamlined')
+  await page.selectOption('#division-seen', 'none')
   await saveFigures(page)
   // Declared 124 mph = 199.558656 km/h exactly (1 mile = 1.609344 km, NIST SP 811): no parachute needed
   // under 175 mph (club rules, from memory); tyres rated 240 km/h (speed symbol V, from memory).
@@ -47,6 +50,8 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
       await row.locator('select').selectOption(measured[key]![1])
     }
     const choice = key === 'canopy-exit' ? 'Not applicable' : 'Pass'
+    // Not applicable with the reason written (the scrutineer says why it does not apply).
+    if (choice === 'Not applicable') await row.getByLabel(/^Note for /).fill('no canopy: the rider sits in the open')
     await row.getByRole('button', { name: choice }).click()
     await expect.poll(() => row.getByRole('button', { name: choice }).getAttribute('aria-pressed')).toBe('true')
   }
@@ -117,6 +122,13 @@ it('a measured value under its limit fails, whatever is ticked, and the machine 
   await expect.poll(() => page.locator('[data-test="item-isolation"] [data-test="verdict"]').innerText())
     .toContain('50.0 Ω/V at 400 V DC is under the 100 Ω/V needed')
   await page.fill('#si-name', 'Selma Scrute')
+  await page.fill('#si-pass', demo.password)
+  await page.click('button:has-text("Sign the inspection")')
+  // Not signed until the scrutineer says which division is seen: the class goes by it.
+  await expect.poll(() => page.locator('[data-test="sign-division"]').innerText())
+    .toContain('confirm the streamlining division you see: the class (Electric, partially streamlined) goes by it')
+  await page.selectOption('#division-seen', 'partial')
+  await saveFigures(page)
   await page.fill('#si-pass', demo.password)
   await page.click('button:has-text("Sign the inspection")')
   // Signed, and still not cleared: the measured value decided.

@@ -1,6 +1,6 @@
 import { expect } from 'vitest'
 import { allItems } from '#shared/inspection/evaluate'
-import { electricMotorcycle } from '#shared/inspection/templates'
+import { combustionMotorcycle, electricMotorcycle } from '#shared/inspection/templates'
 import { call, DEMO_PASSWORD, demoEmail, login } from './api'
 
 /**
@@ -11,7 +11,12 @@ export async function newEntry(
   eventId: number,
   machineName: string,
   rider: RiderFacts = {},
-  who: { team?: string, organiser?: string, claims?: string[], entry?: { className?: string, division?: string } } = {},
+  who: {
+    team?: string
+    organiser?: string
+    claims?: string[]
+    entry?: { className?: string, division?: string, power?: 'electric' | 'combustion' }
+  } = {},
 ) {
   const team2 = who.team ?? await login('team2@trapline.test')
   const setup = (await call('GET', `/api/events/${eventId}/setup`, { cookie: team2 })).body
@@ -20,7 +25,9 @@ export async function newEntry(
   const entry = await call('POST', `/api/events/${eventId}/entries`, {
     cookie: team2,
     body: {
-      machine: { name: machineName, power: 'electric', declaredMassKg: '180.0', division: who.entry?.division ?? 'partial' },
+      machine: {
+        name: machineName, power: who.entry?.power ?? 'electric', declaredMassKg: '180.0', division: who.entry?.division ?? 'partial',
+      },
       // Graded where the profile grades licences ('200 mph' covers the 290 km/h declared at inspection), with a
       // medical where it requires one.
       rider: {
@@ -74,13 +81,18 @@ async function riderOfEntry(eventId: number, entryId: number, cookie: string) {
     { id: number, name: string, entryIds: number[] }[]
   return riders.find(r => r.entryIds.includes(entryId))!
 }
-/** The figures an electric test machine is judged against: a 400 V DC bus, declared at 290 km/h. */
-export const FIGURES = { busVoltageV: 400, busKind: 'dc', declaredSpeed: 290 }
+/**
+ * The figures an electric test machine is judged against: a 400 V DC bus, declared at 290 km/h, and the division
+ * the scrutineer sees (the test entries' own: partially streamlined).
+ */
+export const FIGURES = { busVoltageV: 400, busKind: 'dc', declaredSpeed: 290, division: 'partial' }
 
-/** Answers every item of the electric motorcycle checklist: pass, or fail for the one named. */
-export async function answerAll(inspectionId: number, failing?: string, who: { scrutineer?: string } = {}) {
+/**
+ * Answers every item of the electric motorcycle checklist (or the one given): pass, or fail for the one named.
+ */
+export async function answerAll(inspectionId: number, failing?: string, who: { scrutineer?: string } = {}, checklist = electricMotorcycle) {
   const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))
-  for (const i of allItems(electricMotorcycle)) {
+  for (const i of allItems(checklist)) {
     const result = i.key === failing ? 'fail' : 'pass'
     // Within every limit at 400 V DC and a declared 290 km/h (see `FIGURES`): 80 kΩ is 200 Ω/V (UN ECE R100
     // 5.1.3: 100 Ω/V), one parachute over 175 mph (club rules, from memory), tyres rated 300 km/h.
@@ -91,6 +103,7 @@ export async function answerAll(inspectionId: number, failing?: string, who: { s
       'mass': [181.5, 'kg'],
       'parachute': [1, 'count'],
       'tyres-rated': [300, 'km/h'],
+      'engine-capacity': [998, 'cm³'],
     }
     const [value, unit] = measured[i.key] ?? []
     const r = await call('POST', `/api/inspections/${inspectionId}/answers`, {
@@ -112,19 +125,24 @@ export async function clearedEntry(
     scrutineer?: string
     scrutineerPassword?: string
     claims?: string[]
-    entry?: { className?: string, division?: string }
+    entry?: { className?: string, division?: string, power?: 'electric' | 'combustion' }
   } = {},
 ) {
   const entryId = await newEntry(eventId, machineName, rider, who)
   const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))
+  const combustion = who.entry?.power === 'combustion'
   const started = await call('POST', `/api/events/${eventId}/inspections`, {
     cookie: scrutineer,
-    body: { entryId, baseId: 'electric-motorcycle' },
+    body: { entryId, baseId: combustion ? 'combustion-motorcycle' : 'electric-motorcycle' },
   })
-  expect(started.status).toBe(201)
+  expect(started.status, JSON.stringify(started.body)).toBe(201)
   const id = started.body.id as number
-  await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: FIGURES })
-  await answerAll(id, undefined, { scrutineer })
+  // A combustion machine has no high-voltage bus: its figures are the declared speed alone.
+  const division = who.entry?.division ?? FIGURES.division
+  const figures = combustion ? { declaredSpeed: FIGURES.declaredSpeed, division } : { ...FIGURES, division }
+  const patched = await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: figures })
+  expect(patched.status, JSON.stringify(patched.body)).toBe(200)
+  await answerAll(id, undefined, { scrutineer }, combustion ? combustionMotorcycle : electricMotorcycle)
   // The name typed is the scrutineer's name on file: a signature names the person who gives it.
   const { name } = (await call('GET', '/api/me', { cookie: scrutineer })).body.user as { name: string }
   const signed = await call('POST', `/api/inspections/${id}/signatures`, {

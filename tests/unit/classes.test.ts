@@ -1,5 +1,5 @@
 import { beforeEach, describe, expect, it } from 'vitest'
-import { classesOf, classProblems, findClass, motorcycleClasses, sweptVolumeCm3 } from '#shared/rules/classes'
+import { classesOf, classProblems, figureProblems, findClass, motorcycleClasses, propulsionRefusal, sweptVolumeCm3 } from '#shared/rules/classes'
 import { profiles } from '#shared/rules/profiles'
 
 describe('swept volume', () => {
@@ -40,6 +40,30 @@ describe('eligibility against the class', () => {
     expect(classProblems(litre, { ...machine, capacityCm3: null })).toEqual([
       'capacity: not measured; the class is over 750 cm³, up to 1000 cm³',
     ])
+  })
+
+  it('re-judges the figures alone after a run: propulsion and division are the entry\'s, not measured again', () => {
+    // The post-run check measures capacity and mass; the class's range is read as above (inclusive above).
+    expect(figureProblems(litre, { massKg: '210.5', capacityCm3: '1000' })).toEqual([])
+    expect(figureProblems(litre, { massKg: '210.5', capacityCm3: '1000.01' })).toEqual([
+      'capacity: measured 1000.01 cm³, the class is over 750 cm³, up to 1000 cm³',
+    ])
+    expect(figureProblems(litre, { massKg: null, capacityCm3: null })).toEqual([
+      'capacity: not measured; the class is over 750 cm³, up to 1000 cm³',
+    ])
+    const electric = findClass(classes, 'Electric, fully streamlined')!
+    expect(figureProblems(electric, { massKg: null, capacityCm3: '5000' })).toEqual([]) // no limit, nothing to say
+  })
+
+  it('refuses at entry a propulsion the class is not for, saying when no class takes it at all', () => {
+    const electric = findClass(classes, 'Electric, fully streamlined')!
+    expect(propulsionRefusal(electric, 'electric', classes)).toBeNull()
+    expect(propulsionRefusal(electric, 'combustion', classes)).toBe('is a class for electric machines; the machine is combustion')
+    // No library profile has a hybrid class: the refusal says no class takes one.
+    expect(propulsionRefusal(electric, 'hybrid', classes)).toBe('is a class for electric machines; the machine is hybrid, '
+      + 'and no class of this event takes a hybrid machine (the organiser can add one, with its rulebook)')
+    const withHybrid = [...classes, { label: 'Hybrid', propulsion: 'hybrid' as const, certainty: 'seen' as const }]
+    expect(propulsionRefusal(electric, 'hybrid', withHybrid)).toBe('is a class for electric machines; the machine is hybrid')
   })
 
   it('finds a class as people write it, case and spacing aside; every library profile lists classes', () => {

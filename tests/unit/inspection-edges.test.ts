@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { allItems, checklistMismatch, checkMeasurement, clears, countNeeded, measuredVerdicts, missingItems, toItemUnit } from '#shared/inspection/evaluate'
+import { allItems, checklistMismatch, checkMeasurement, clears, countNeeded, measuredVerdicts, missingItems, notApplicableMisused, notApplicableRefusal, toItemUnit } from '#shared/inspection/evaluate'
 import { combustionMotorcycle, electricMotorcycle, electricStreamliner, PARACHUTE_STEPS } from '#shared/inspection/templates'
 import type { ChecklistItem } from '#shared/inspection/template'
 import { fromDecimal } from '#shared/rules/exact'
@@ -169,5 +169,31 @@ describe('the checklist follows what the machine is', () => {
     expect(checklistMismatch(combustionMotorcycle, 'combustion')).toBeNull()
     expect(checklistMismatch(electricMotorcycle, 'electric')).toBeNull()
     expect(checklistMismatch(electricStreamliner, 'hybrid')).toBeNull()
+  })
+})
+
+describe('not applicable by what the machine is', () => {
+  // Club rules (from memory): parachutes on streamlined machines; an unstreamlined motorcycle carries none. The canopy
+  // exit applies only where there is a canopy (any division may lack one); tyres always apply.
+  it('a parachute only on an unstreamlined machine as seen; the canopy on any; tyres never', () => {
+    expect(notApplicableRefusal(item('parachute'), 'none')).toBeNull()
+    expect(notApplicableRefusal(item('parachute'), 'partial')).toBe('is not applicable only where the machine is unstreamlined; this one is partially streamlined')
+    expect(notApplicableRefusal(item('parachute'), 'full')).toBe('is not applicable only where the machine is unstreamlined; this one is fully streamlined')
+    expect(notApplicableRefusal(item('parachute'), null)).toBe('is not applicable only where the machine is unstreamlined: confirm the division seen first')
+    expect(notApplicableRefusal(item('canopy-exit'), 'full')).toBeNull()
+    expect(notApplicableRefusal(item('canopy-exit'), null)).toBeNull()
+    expect(notApplicableRefusal(item('tyres-rated'), 'none')).toBe('this item cannot be marked not applicable')
+  })
+  it('lists at signing the items marked not applicable that the division seen no longer allows', () => {
+    const answers = [
+      { itemKey: 'parachute', result: 'na' as const, value: null },
+      { itemKey: 'canopy-exit', result: 'na' as const, value: null },
+      { itemKey: 'tyres-rated', result: 'pass' as const, value: '300' },
+    ]
+    expect(notApplicableMisused(electricMotorcycle, answers, 'none')).toEqual([])
+    expect(notApplicableMisused(electricMotorcycle, answers, 'full')).toEqual([
+      'Parachutes fitted and packed: how many is not applicable only where the machine is unstreamlined; this one is fully streamlined',
+    ])
+    expect(notApplicableMisused(electricMotorcycle, [{ itemKey: 'gone', result: 'na' as const, value: null }], 'full')).toEqual([])
   })
 })

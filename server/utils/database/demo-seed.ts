@@ -60,6 +60,7 @@ async function seedDemoInspections() {
       busKind: 'dc',
       declaredSpeed: streamlined ? '420' : '360',
       declaredUnit: 'km/h',
+      division: machine.division, // seen as declared
     })
     for (const item of allItems(inspection.checklist)) {
       if (item.key === 'canopy-exit' && !streamlined) {

@@ -61,6 +61,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
       reason: h.reason,
     })),
     inspections: await manifestInspections(r),
+    postRunCheck: await manifestPostRunCheck(r),
     statements: await manifestStatements(day.event.id, r.attemptId),
     notices: await manifestNotices(day.event.id, r.attemptId, issuedAt),
     officials: await manifestOfficials(day.event.id),
@@ -201,6 +202,7 @@ async function manifestInspection(inspectionId: number) {
     checklist: { id: checklist.id, name: checklist.name, version: checklist.version },
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
     declaredKmh: inspection.declaredKmh,
+    division: inspection.division,
     clearance,
     answers: answers.map((a) => {
       const item = allItems(checklist).find(x => x.key === a.itemKey)
@@ -222,6 +224,32 @@ async function manifestInspection(inspectionId: number) {
       at: new Date(signature.at).toISOString(),
       sha256: signature.sha256,
     },
+  }
+}
+
+/**
+ * The signed check of the machine after the record run where the profile asks for it: the figures re-measured, the
+ * seals as found, and readiness's verdict on them (the class re-judged). Null where none was asked or recorded.
+ */
+async function manifestPostRunCheck({ attemptId, items }: Readiness) {
+  const [row] = await useDb()
+    .select({ c: tables.postRunChecks, typedName: tables.signatures.typedName, at: tables.signatures.signedAt,
+      sha256: tables.signatures.contentSha256 })
+    .from(tables.postRunChecks)
+    .innerJoin(tables.signatures, eq(tables.signatures.id, tables.postRunChecks.signatureId))
+    .where(eq(tables.postRunChecks.attemptId, attemptId))
+  const verdict = items.find(i => i.key === 'post-run-check')
+  if (!row || !verdict) return null
+  const { c } = row
+  return {
+    massKg: c.massKg,
+    capacityCm3: c.capacityCm3,
+    sealNumbers: c.sealNumbers,
+    sealsIntact: c.sealsIntact,
+    note: c.note,
+    met: verdict.met,
+    detail: verdict.detail,
+    signature: { typedName: row.typedName, at: row.at.toISOString(), sha256: row.sha256 },
   }
 }
 

@@ -3,7 +3,7 @@ import { localDate } from '#shared/rules/zoned'
 import { blocks, mayBeSetAside, setAsideQuorum, setAsideRule } from '#shared/rules/findings'
 import { stewardsQuorum } from '#shared/rules/profile'
 import { massClass } from '#shared/rules/checks'
-import { classesOf, classProblems, findClass, type Division } from '#shared/rules/classes'
+import { classesOf, classProblems, figureProblems, findClass, type Division } from '#shared/rules/classes'
 import { fromDecimal, sub, toFixed } from '#shared/rules/exact'
 import { OFFICIAL_FUNCTION_LABELS } from '#shared/constants'
 
@@ -273,9 +273,10 @@ function findingItems({ at, live, counted, attemptId, attempt, day }: AttemptFil
 /**
  * Where the profile asks for it, the machine's signed check after the record run, its mass compared
  * with the mass of the inspection in force: a machine that weighs into another mass class after the run
- * than at its inspection does not meet it.
+ * than at its inspection does not meet it; nor one outside its record class on the figures re-measured (mass,
+ * capacity), nor one whose impound seals were found broken.
  */
-async function postRunItems({ attempt, attemptId, clearance }: AttemptFile): Promise<ReadinessItem[]> {
+async function postRunItems({ attempt, attemptId, clearance, entry }: AttemptFile): Promise<ReadinessItem[]> {
   if (!attempt.profile.postRunCheck?.value) return []
   const [check] = await useDb().select().from(tables.postRunChecks)
     .where(eq(tables.postRunChecks.attemptId, attemptId))
@@ -285,6 +286,11 @@ async function postRunItems({ attempt, attemptId, clearance }: AttemptFile): Pro
     fix: `/attempts/${attemptId}/dossier`, // a scrutineer records it on this page
   }
   if (!check) return [{ ...item, met: false, detail: 'not recorded' }]
+  const c = findClass(classesOf(attempt.profile), entry.entry.className)
+  const rejudged = c ? figureProblems(c, { massKg: check.massKg, capacityCm3: check.capacityCm3 }) : []
+  const seals = check.sealNumbers.length
+    ? `seals ${check.sealNumbers.join(', ')} ${check.sealsIntact ? 'intact' : 'found broken'}`
+    : 'no seal recorded'
   const inspected = clearance.inspectionId ? await inspectedMassKg(clearance.inspectionId) : null
   const classes = attempt.profile.massClasses.value
   const before = inspected === null ? null : massClass(classes, Number(inspected))
@@ -294,10 +300,13 @@ async function postRunItems({ attempt, attemptId, clearance }: AttemptFile): Pro
     ? 'no inspected mass to compare'
     : `inspected ${inspected} kg, difference ${toFixed(sub(fromDecimal(check.massKg), fromDecimal(inspected)), 1)} kg`
       + (moved ? `: now in mass class ${after!.label}, inspected in ${before!.label}` : '')
+  const capacity = check.capacityCm3 === null ? '' : `, ${check.capacityCm3} cm³`
+  const outside = rejudged.length ? `; outside the class ${c!.label} after the run: ${rejudged.join('; ')}` : ''
+  const remark = check.note || 'no remark'
   return [{
     ...item,
-    met: !!check.signatureId && !moved,
-    detail: `${check.massKg} kg after the run, ${compared}; ${check.note || 'no remark'}`,
+    met: !!check.signatureId && !moved && !rejudged.length && check.sealsIntact !== false,
+    detail: `${check.massKg} kg${capacity} after the run, ${compared}${outside}; ${seals}; ${remark}`,
   }]
 }
 
@@ -310,8 +319,8 @@ async function inspectedValue(inspectionId: number, itemKey: string) {
 }
 
 /**
- * The machine against the class its entry claims: propulsion and division as entered, mass and capacity
- * as measured at the inspection in force, side by side with the class's limits. A profile that lists no
+ * The machine against the class its entry claims: propulsion as entered, division as the scrutineer saw it, mass
+ * and capacity as measured at the inspection in force, side by side with the class's limits. A profile that lists no
  * classes (a copy frozen before classes were data) asks nothing here.
  */
 async function classItems(file: AttemptFile): Promise<ReadinessItem[]> {
@@ -322,9 +331,14 @@ async function classItems(file: AttemptFile): Promise<ReadinessItem[]> {
   const c = findClass(classes, entry.entry.className)
   if (!c) return [{ ...item, met: false, detail: 'the class is not one of the profile\'s classes' }]
   const measured = async (key: string) => (clearance.inspectionId ? inspectedValue(clearance.inspectionId, key) : null)
+  const [seen] = clearance.inspectionId
+    ? await useDb().select({ division: tables.inspections.division }).from(tables.inspections)
+        .where(eq(tables.inspections.id, clearance.inspectionId))
+    : []
   const problems = classProblems(c, {
-    power: entry.machine.power as 'electric' | 'combustion',
-    division: (entry.machine.division as Division | null) ?? null,
+    power: entry.machine.power,
+    // The division the scrutineer saw; the entry's on an inspection from before divisions were confirmed.
+    division: seen?.division ?? (entry.machine.division as Division | null) ?? null,
     massKg: await measured('mass'),
     capacityCm3: await measured('engine-capacity'),
   })

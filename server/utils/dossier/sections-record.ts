@@ -4,6 +4,7 @@ import { formatBytes } from '#shared/evidence/kinds'
 import { CHECKLIST_CAUTION } from '#shared/inspection/template'
 import { BUS_WORDS } from '#shared/inspection/evaluate'
 import type { BusKind } from '#shared/constants'
+import { DIVISION_WORDS, type Division } from '#shared/rules/classes'
 import { signedWith, type PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
 import { utcStamp, type SealFacts } from './sections-result'
@@ -55,6 +56,16 @@ export function renderInspection(L: PdfLayout, m: Manifest) {
   L.text(CHECKLIST_CAUTION, { color: 'grey' })
   if (!m.inspections.length) L.text('No signed inspection was in force when the counted runs started.', { bold: true })
   for (const i of m.inspections) renderOneInspection(L, i)
+  renderPostRunCheck(L, m)
+}
+
+/** The machine checked after the record run, where the profile asks for it (newer dossiers only). */
+function renderPostRunCheck(L: PdfLayout, m: Manifest) {
+  const c = (m as { postRunCheck?: Manifest['postRunCheck'] }).postRunCheck
+  if (!c) return
+  L.text(`Post-run check: ${c.met ? 'met' : 'NOT MET'}. ${c.detail}.`, { bold: !c.met })
+  L.text(`Signed by ${c.signature.typedName}, ${utcStamp(c.signature.at)} UTC; SHA-256 ${c.signature.sha256}`,
+    { indent: 10, gap: 2 })
 }
 
 function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
@@ -62,11 +73,14 @@ function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
     ? `working voltage ${i.bus.voltageV} V ${i.bus.kind ? BUS_WORDS[i.bus.kind as BusKind] : ''}`
     : 'no high-voltage bus entered'
   const declared = i.declaredKmh ? `declared top speed ${i.declaredKmh} km/h` : 'no declared top speed'
+  // Newer dossiers: the streamlining division the scrutineer saw.
+  const division = (i as { division?: Division | null }).division
+  const seen = division ? `; division seen: ${DIVISION_WORDS[division]}` : ''
   const clearance = i.clearance.cleared ? 'cleared to run' : `not cleared: ${i.clearance.why}`
   const runs = i.runs.length ? `in force at the start of run(s) ${i.runs.map(r => `#${r}`).join(', ')}` : 'the latest'
   L.text(
-    `Inspection #${i.id} (${runs}), checklist ${i.checklist.name} v${i.checklist.version}; ${bus}; ${declared}; `
-    + `${clearance}.`,
+    `Inspection #${i.id} (${runs}), checklist ${i.checklist.name} v${i.checklist.version}; ${bus}; ${declared}`
+    + `${seen}; ${clearance}.`,
   )
   L.table(
     [

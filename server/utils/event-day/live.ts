@@ -299,8 +299,8 @@ function settingFindings(
 
 /**
  * The machine against the class its entry claims, as measured at the inspection in force when the first
- * counted run started (the latest signed before it, else its first): propulsion and division as entered, mass and
- * capacity as measured, figures side by side. A profile with no class list asks nothing.
+ * counted run started (the latest signed before it, else its first): propulsion as entered, division as the
+ * scrutineer saw it, mass and capacity as measured, figures side by side. A profile with no class list asks nothing.
  */
 function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted: ComputedRun[]): Finding[] {
   const c = findClass(classesOf(attempt.profile), e.entry.className)
@@ -310,10 +310,12 @@ function classFindings(ix: DayIndex, attempt: Attempt, e: Setting['e'], counted:
   // The inspection in force then; for a run typed in before any inspection (which the inspection item of
   // readiness refuses on its own), the machine's first inspection still says what it measures.
   const inForce = (machine.filter(i => i.signedAt.getTime() <= at).at(-1) ?? machine[0])?.inspectionId
+  const figures = inspectedFigures(ix.day, inForce ?? null)
   const problems = classProblems(c, {
-    power: e.machine.power as 'electric' | 'combustion',
-    division: (e.machine.division as Division | null) ?? null,
-    ...inspectedFigures(ix.day, inForce ?? null),
+    ...figures,
+    power: e.machine.power,
+    // The division the scrutineer saw; the entry's on an inspection from before divisions were confirmed.
+    division: figures.division ?? (e.machine.division as Division | null) ?? null,
   })
   if (!problems.length) return []
   return [{

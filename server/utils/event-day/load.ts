@@ -135,6 +135,7 @@ function inspectedFigureRows(eventId: number) {
     .select({
       inspectionId: t.inspections.id,
       machineId: t.entries.machineId,
+      division: t.inspections.division,
       signedAt: t.signatures.signedAt,
       itemKey: t.inspectionAnswers.itemKey,
       value: t.inspectionAnswers.value,
@@ -200,9 +201,12 @@ export async function loadEventDay(eventId: number, options: { history?: boolean
 
 export type EventDay = Awaited<ReturnType<typeof loadEventDay>>
 
-/** The mass and engine capacity an inspection measured (null where it did not), from the day as loaded. */
+/**
+ * The mass and engine capacity an inspection measured (null where it did not), and the streamlining division its
+ * scrutineer saw (null on an inspection from before divisions were confirmed), from the day as loaded.
+ */
 export function inspectedFigures(day: Pick<EventDay, 'inspected'>, inspectionId: number | null) {
-  const figure = (key: string) =>
-    day.inspected.find(i => i.inspectionId === inspectionId && i.itemKey === key)?.value ?? null
-  return { massKg: figure('mass'), capacityCm3: figure('engine-capacity') }
+  const rows = day.inspected.filter(i => i.inspectionId === inspectionId)
+  const figure = (key: string) => rows.find(i => i.itemKey === key)?.value ?? null
+  return { massKg: figure('mass'), capacityCm3: figure('engine-capacity'), division: rows[0]?.division ?? null }
 }

@@ -1,7 +1,8 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import { checkMeasuredDistance } from '#shared/rules/course'
 import { copyProfile, profiles } from '#shared/rules/profiles'
-import { classesOf, findClass, type RecordClass } from '#shared/rules/classes'
+import { classesOf, findClass, propulsionRefusal, type RecordClass } from '#shared/rules/classes'
+import type { PowerSource } from '#shared/constants'
 import { claimProblems } from '#shared/rules/distances'
 import type { RuleProfile } from '#shared/rules/profile'
 import type {
@@ -129,7 +130,7 @@ function adaptClasses(p: RuleProfile, input: Pick<ClassesAdaptInput, 'removeClas
  * an entry and a standing record name one of the listed classes, so that they compare. A profile frozen
  * before classes were data lists none, and takes the label as typed.
  */
-export async function eventClassLabel(eventId: number, label: string, db: Tx | Db = useDb()) {
+export async function eventClassLabel(eventId: number, label: string, db: Tx | Db = useDb(), power?: PowerSource) {
   const [event] = await db.select({ profile: tables.events.profile }).from(tables.events)
     .where(eq(tables.events.id, eventId))
   const classes = classesOf(event!.profile)
@@ -139,6 +140,8 @@ export async function eventClassLabel(eventId: number, label: string, db: Tx | D
     const some = classes.slice(0, 3).map(c => `"${c.label}"`).join(', ')
     throw unprocessable('className', `choose one of the event's ${classes.length} classes (such as ${some})`)
   }
+  const refusal = power ? propulsionRefusal(found, power, classes) : null
+  if (refusal) throw unprocessable('className', refusal)
   return found.label
 }
 
@@ -174,12 +177,14 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
   const distanceIds = await claimedDistances(eventId, input.distanceIds ?? [input.distanceId!])
   return db.transaction(async (tx) => {
     let machineId = input.machineId
+    let power = input.machine?.power
     if (machineId) {
       const [m] = await tx
         .select()
         .from(tables.machines)
         .where(and(eq(tables.machines.id, machineId), eq(tables.machines.teamId, teamId)))
       if (!m) throw unprocessable('machineId', 'is not a machine of your team')
+      power = m.power
     }
     else {
       machineId = (
@@ -205,7 +210,7 @@ export async function addEntry(eventId: number, teamId: number, input: EntryInpu
           .returning()
       )[0]!.id
     }
-    const className = await eventClassLabel(eventId, input.className, tx)
+    const className = await eventClassLabel(eventId, input.className, tx, power)
     const [entry] = await tx
       .insert(tables.entries)
       .values({ eventId, teamId, machineId, riderId, className, distanceId: distanceIds[0]!, distanceIds })

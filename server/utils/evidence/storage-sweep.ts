@@ -1,11 +1,16 @@
-import { readdir, rm } from 'node:fs/promises'
+import { existsSync, readdirSync, rmSync } from 'node:fs'
 import { join } from 'node:path'
 import { sql } from 'drizzle-orm'
 
+/** Removes what this server's uploads cut off by a crash left in its own staging folder; synchronous, at start. */
+export function sweepStaging() {
+  const tmp = uploadTmpDir()
+  for (const f of existsSync(tmp) ? readdirSync(tmp) : []) rmSync(join(tmp, f), { force: true })
+}
+
+/** Removes stored files that no row names and that are older than an hour (see below). */
 export async function sweepStorage() {
   await demoSeeded()
-  const tmp = uploadTmpDir()
-  for (const f of await readdir(tmp).catch(() => [] as string[])) await rm(join(tmp, f), { force: true })
   const store = useBlobStore()
   const { rows } = await useDb().execute<{ sha: string }>(
     sql`select sha256 as sha from evidence union select pdf_sha256 from dossiers

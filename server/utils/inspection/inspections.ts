@@ -4,6 +4,8 @@ import {
   checkMeasurement,
   clears,
   missingItems,
+  notApplicableMisused,
+  notApplicableRefusal,
   toItemUnit,
   allItems,
   STORED_DECIMALS,
@@ -16,6 +18,7 @@ import { convertSpeed } from '#shared/rules/units'
 import { checklistLibrary, type ChecklistId } from '#shared/inspection/templates'
 import type { ChecklistTemplate } from '#shared/inspection/template'
 import { massClass } from '#shared/rules/checks'
+import { classesOf, findClass } from '#shared/rules/classes'
 import type {
   AnswerInput,
   FiguresInput,
@@ -232,8 +235,11 @@ async function writeAnswer(
   const inspectionId = inspection.id
   const item = allItems(inspection.checklist).find(i => i.key === input.itemKey)
   if (!item) throw fieldError('itemKey', 'is not an item of this checklist')
-  if (input.result === 'na' && !item.allowNotApplicable)
-    throw fieldError('result', 'this item cannot be marked not applicable')
+  if (input.result === 'na') {
+    const refusal = notApplicableRefusal(item, inspection.division)
+    if (refusal) throw fieldError('result', refusal)
+    if (!input.note?.trim()) throw fieldError('note', 'say why the item does not apply to this machine')
+  }
   let value: string | null = null
   if (item.kind === 'measure' && input.result !== 'na') {
     if (input.value === undefined) throw fieldError('value', `enter the measurement in ${item.unit}`)
@@ -269,7 +275,9 @@ async function writeAnswer(
   return { answer: row!, verdict }
 }
 
-/** Sets the working voltage and bus kind, or the declared top speed (stored in km/h, exactly). */
+/**
+ * Sets the working voltage and bus kind, the declared top speed (stored in km/h, exactly), or the division seen.
+ */
 export async function setFigures(inspectionId: number, input: FiguresInput) {
   const set: Partial<typeof tables.inspections.$inferInsert> = {}
   if (input.busVoltageV !== undefined) {
@@ -280,6 +288,7 @@ export async function setFigures(inspectionId: number, input: FiguresInput) {
     const kmh = convertSpeed(fromInput(input.declaredSpeed), input.declaredUnit, 'km/h')
     set.declaredKmh = toExactDecimal(kmh, STORED_DECIMALS)
   }
+  if (input.division !== undefined) set.division = input.division
   return useDb().transaction(async (tx) => {
     await lockUnsigned(tx, inspectionId)
     const [row] = await tx
@@ -317,6 +326,8 @@ export async function inspectionContent(inspectionId: number, db: Tx | Db = useD
     checklist: inspection.checklist,
     bus: { voltageV: inspection.busVoltageV, kind: inspection.busKind },
     ...(inspection.declaredKmh === null ? {} : { declaredKmh: inspection.declaredKmh }),
+    // Added later: present only where confirmed, so an inspection signed before still hashes as signed.
+    ...(inspection.division === null ? {} : { division: inspection.division }),
     answers: answers.map(a => ({
       item: a.itemKey,
       result: a.result,
@@ -356,6 +367,14 @@ export async function signInspection(
         },
       })
     }
+    const division = await divisionOf(inspection, tx)
+    if (division.classGoesBy && !inspection.division) {
+      const why = `confirm the streamlining division you see: the class (${division.className}) goes by it`
+      throw fieldInvalid('division', why)
+    }
+    const answers = asAnswers(await answersOf([inspectionId], tx))
+    const misused = notApplicableMisused(inspection.checklist, answers, inspection.division)
+    if (misused.length) throw fieldInvalid('items', `marked not applicable: ${misused.join('; ')}`)
     const content = await inspectionContent(inspectionId, tx)
     const sig = await insertSignature(tx, {
       proof,
@@ -372,6 +391,24 @@ export async function signInspection(
     await tx.update(tables.inspections).set({ signatureId: sig.id }).where(eq(tables.inspections.id, inspectionId))
     return { id: sig.id, sha256: sig.contentSha256, signedAt: sig.signedAt }
   })
+}
+
+/**
+ * The division the team declared for the inspected machine, and the division its class goes by (null where the
+ * class does not go by one): the scrutineer confirms what is seen where the class goes by it.
+ */
+async function divisionOf(inspection: Pick<typeof tables.inspections.$inferSelect, 'entryId'>, db: Tx | Db = useDb()) {
+  const [row] = await db
+    .select({ declared: tables.machines.division, className: tables.entries.className, profile: tables.events.profile })
+    .from(tables.entries)
+    .innerJoin(tables.machines, eq(tables.machines.id, tables.entries.machineId))
+    .innerJoin(tables.events, eq(tables.events.id, tables.entries.eventId))
+    .where(eq(tables.entries.id, inspection.entryId))
+  return {
+    declared: row!.declared,
+    className: row!.className,
+    classGoesBy: findClass(classesOf(row!.profile), row!.className)?.division ?? null,
+  }
 }
 
 type Clearance = { cleared: boolean, why: string, inspectionId: number | null }
@@ -493,8 +530,11 @@ export async function inspectionView(inspectionId: number) {
   const clearance = clears(inspection.checklist, asAnswers(answers), !!inspection.signatureId, figures)
   // A re-inspection shows the previous inspection's values, item by item, for the scrutineer to confirm.
   const previous = inspection.previousId ? await answersOf([inspection.previousId]) : []
+  const { declared, classGoesBy } = await divisionOf(inspection)
   return {
     inspection,
+    /** The division the team declared, and the one its class goes by (the scrutineer confirms what is seen). */
+    division: { declared, classGoesBy },
     previousAnswers: previous.map(a => ({
       itemKey: a.itemKey, result: a.result, enteredAs: a.enteredAs, note: a.note,
     })),
