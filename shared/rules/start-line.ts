@@ -1,5 +1,7 @@
 // What the start line checks before a run leaves: the rider's licence, its grade for the expected speed,
-// the medical, and the riders' briefing. Pure: the server passes what it loaded.
+// the medical, the riders' briefing, and what the speed already reached says. Pure: the server passes what it loaded.
+import { countNeeded } from '../inspection/evaluate'
+import { cmp, fromInput } from './exact'
 
 /** A licence grade of a graded (club) scheme: the fastest speed it allows, null for no limit. */
 export interface LicenceGrade {
@@ -14,7 +16,8 @@ export interface LicenceRule {
 }
 
 export const START_LINE_CODES = ['licence.expired', 'licence.grade', 'licence.no-grade', 'licence.speed-unknown',
-  'licence.upgrade-too-far', 'licence.medical', 'briefing.missed'] as const
+  'licence.upgrade-too-far', 'licence.medical', 'briefing.none', 'briefing.missed', 'reached.licence-grade',
+  'reached.tyre-rating', 'reached.parachutes'] as const
 export type StartLineCode = (typeof START_LINE_CODES)[number]
 
 export interface StartLineFinding {
@@ -67,6 +70,12 @@ export function startLineFindings(x: StartLineInput): StartLineFinding[] {
   }
   const grades = x.licence?.grades
   if (grades?.length) out.push(...gradeFindings(grades, x))
+  if (x.briefingRequired && !x.briefing) {
+    out.push({
+      code: 'briefing.none',
+      message: 'no riders\' briefing has been held before this start; the profile requires one before any run',
+    })
+  }
   if (x.briefingRequired && x.briefing && !x.briefing.signedOn) {
     out.push({
       code: 'briefing.missed',
@@ -117,4 +126,43 @@ export function upgradeTarget(grades: LicenceGrade[] | null | undefined, label: 
   if (!grades?.length) return null
   const at = gradeIndex(grades, label)
   return at >= 0 ? grades[at + 1] ?? null : null
+}
+
+/** The fastest the machine went at the event so far, and what it was inspected and licensed for. */
+export interface ReachedInput {
+  /**
+   * Its best official speed so far (time over a measured distance, km/h), the run, and whether that run was a
+   * licence upgrade run (its purpose was to go over the grade); null before its first timed run.
+   */
+  reached: { kmh: string, runId: number, upgrade: boolean } | null
+  /** The rider's grade and its ceiling, where the profile grades licences. */
+  grade: LicenceGrade | null
+  /** The tyres' rated speed recorded at the inspection in force, km/h; null where not recorded. */
+  tyreRatedKmh: number | null
+  /** Parachutes fitted at the inspection in force (null: none asked, not applicable), and the steps by speed. */
+  parachutes: { fitted: number, steps: { overMph: number, count: number }[] } | null
+}
+
+export function reachedFindings(x: ReachedInput): StartLineFinding[] {
+  if (!x.reached) return []
+  const v = fromInput(x.reached.kmh)
+  const over = (limit: number) => cmp(v, fromInput(limit)) > 0
+  const out: StartLineFinding[] = []
+  const reached = `run #${x.reached.runId} reached ${x.reached.kmh} km/h`
+  if (x.grade && x.grade.maxKmh !== null && over(x.grade.maxKmh) && !x.reached.upgrade) {
+    out.push({ code: 'reached.licence-grade',
+      message: `${reached}, over the ${x.grade.maxKmh} km/h of licence grade ${x.grade.label}` })
+  }
+  if (x.tyreRatedKmh !== null && over(x.tyreRatedKmh)) {
+    out.push({ code: 'reached.tyre-rating', message: `${reached}, over its tyres' rated ${x.tyreRatedKmh} km/h` })
+  }
+  if (x.parachutes) {
+    // Over 175 mph one, over 300 mph two (club rules, from memory): the checklist's own steps, exact in km/h.
+    const needed = countNeeded(x.parachutes.steps, v)
+    if (needed > x.parachutes.fitted) {
+      out.push({ code: 'reached.parachutes', message: `${reached}, at which ${needed} parachute(s) are needed; `
+        + `${x.parachutes.fitted} fitted at inspection` })
+    }
+  }
+  return out
 }

@@ -132,4 +132,6 @@ it('goes into the sealed dossier: the figures after the run, the seals, the verd
   // Inspected at 181.5 kg (tests/support/entries.ts): 181.0 − 181.5 = −0.5 kg.
   expect(text).toContain('Post-run check: met. 181.0 kg after the run, inspected 181.5 kg, difference -0.5 kg; seals T-7 intact; ballast unchanged.')
   expect(text).toContain('division seen: partially streamlined')
+  // 8.9 s over 1000 m is 404.494 km/h: under the tyres' 450 km/h and the 300 mph (482.8032 km/h) of a second parachute.
+  expect(text).toContain('Speed reached: within the rider\'s grade, the tyres\' rating and the parachutes fitted.')
 })

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { gradeIndex, startLineFindings, upgradeTarget, type StartLineInput } from '#shared/rules/start-line'
+import { gradeIndex, reachedFindings, startLineFindings, upgradeTarget, type StartLineInput } from '#shared/rules/start-line'
 import { profiles } from '#shared/rules/profiles'
 import { isTimeZone, localDate, localDateTime, localToInstant } from '#shared/rules/zoned'
 
@@ -86,7 +86,11 @@ describe('the riders\' briefing', () => {
     expect(check({ briefing: { ...base.briefing!, signedOn: false } })).toEqual([{ code: 'briefing.missed',
       message: 'R. Test did not sign on to the riders\' briefing (07:00)' }])
     expect(check({ briefingRequired: false, briefing: { ...base.briefing!, signedOn: false } })).toEqual([])
-    expect(check({ briefing: null })).toEqual([])
+    // Where the profile asks for one and none has been held before the start, nobody runs (common practice: the
+    // clerk of the course briefs the riders before the first run).
+    expect(check({ briefing: null })).toEqual([{ code: 'briefing.none',
+      message: 'no riders\' briefing has been held before this start; the profile requires one before any run' }])
+    expect(check({ briefingRequired: false, briefing: null })).toEqual([])
   })
 })
 
@@ -109,5 +113,36 @@ describe('zones and local times (IANA time zone database)', () => {
   it('writes early years and single digits with their zeros', () => {
     expect(localDate(Date.UTC(999, 0, 2, 12), 'UTC')).toBe('0999-01-02')
     expect(localDateTime(Date.UTC(2026, 0, 2, 3, 4, 5), 'UTC')).toBe('2026-01-02 03:04:05')
+  })
+})
+
+describe('the speed reached, before the next run', () => {
+  // Safety is judged on the speed the machine reached, not only on the speed declared (common practice): over the
+  // licence grade's ceiling (unless on an upgrade run), over the tyres' rated speed, or needing more parachutes than
+  // fitted stops the next start until the clerk of the course decides. Grade 250 mph = 402.336 km/h; parachutes one
+  // over 175 mph = 281.6352 km/h and two over 300 mph = 482.8032 km/h (club rules, from memory; 1 mph = 1.609344 km/h
+  // exactly, NIST SP 811).
+  const grade = { label: '250 mph', maxKmh: 402.336 }
+  const steps = [{ overMph: 175, count: 1 }, { overMph: 300, count: 2 }]
+  const at = (kmh: string, x: { upgrade?: boolean } = {}) => ({ kmh, runId: 7, upgrade: !!x.upgrade })
+  const base = { reached: at('402.336'), grade, tyreRatedKmh: 420, parachutes: { fitted: 1, steps } }
+  it('is nothing at the ceilings themselves, and before a first timed run', () => {
+    expect(reachedFindings(base)).toEqual([])
+    expect(reachedFindings({ ...base, reached: at('420'), grade: null })).toEqual([])
+    expect(reachedFindings({ ...base, reached: at('482.8032'), grade: null, tyreRatedKmh: null })).toEqual([])
+    expect(reachedFindings({ ...base, reached: null, tyreRatedKmh: 1 })).toEqual([])
+  })
+  it('names the grade, the tyres and the parachutes just over each', () => {
+    expect(reachedFindings({ ...base, reached: at('402.337') })).toEqual([{ code: 'reached.licence-grade',
+      message: 'run #7 reached 402.337 km/h, over the 402.336 km/h of licence grade 250 mph' }])
+    expect(reachedFindings({ ...base, reached: at('402.337', { upgrade: true }) })).toEqual([])
+    expect(reachedFindings({ ...base, grade: null, reached: at('420.001') })).toEqual([{ code: 'reached.tyre-rating',
+      message: 'run #7 reached 420.001 km/h, over its tyres\' rated 420 km/h' }])
+    expect(reachedFindings({ ...base, grade: null, tyreRatedKmh: null, reached: at('482.8033') })).toEqual([{
+      code: 'reached.parachutes', message: 'run #7 reached 482.8033 km/h, at which 2 parachute(s) are needed; 1 fitted at inspection' }])
+    // Under 175 mph none is needed: a machine with none fitted is not stopped there, and is just over it.
+    const none = { ...base, grade: null, tyreRatedKmh: null, parachutes: { fitted: 0, steps } }
+    expect(reachedFindings({ ...none, reached: at('281.6352') })).toEqual([])
+    expect(reachedFindings({ ...none, reached: at('281.6353') }).map(f => f.code)).toEqual(['reached.parachutes'])
   })
 })

@@ -10,7 +10,7 @@ const intl = profiles['intl-motorcycle'].licence!.value
 const rider = { name: 'Test Rider', licenceNo: 'T-1', licenceExpires: '2027-06-30', licenceGrade: '150 mph',
   medicalExpires: '2027-06-30' }
 const base = (x: Partial<StartLineInput>): StartLineInput => ({
-  licence: club, briefingRequired: true, rider, day: '2026-12-04', expectedKmh: 200, upgrade: false, briefing: null,
+  licence: club, briefingRequired: false, rider, day: '2026-12-04', expectedKmh: 200, upgrade: false, briefing: null,
   ...x,
 })
 const codes = (x: Partial<StartLineInput>) => startLineFindings(base(x)).map(f => f.code)
@@ -57,8 +57,8 @@ describe('licence, medical and briefing on the day', () => {
   })
   it('stops a rider who did not sign on to the latest briefing, where one was held', () => {
     const briefing = { title: 'Riders\' briefing', heldAtLocal: '2026-12-04 07:00', signedOn: false }
-    expect(codes({ briefing })).toEqual(['briefing.missed'])
-    expect(codes({ briefing: { ...briefing, signedOn: true } })).toEqual([])
+    expect(codes({ briefing, briefingRequired: true })).toEqual(['briefing.missed'])
+    expect(codes({ briefing: { ...briefing, signedOn: true }, briefingRequired: true })).toEqual([])
     expect(codes({ briefing, briefingRequired: false })).toEqual([])
   })
 })

@@ -65,7 +65,7 @@ export async function buildManifest(r: Readiness, version: number, issuedAt: Dat
     statements: await manifestStatements(day.event.id, r.attemptId),
     notices: await manifestNotices(day.event.id, r.attemptId, issuedAt),
     officials: await manifestOfficials(day.event.id),
-    startLine: await manifestStartLine(r),
+    startLine: await manifestStartLine(r, issuedAt),
     protests: await manifestProtests(day.event.id, r.attemptId, issuedAt),
     /** The stewards' confirmation of the result on the timing sheet in force, with the instant it was due from. */
     confirmation: {
@@ -269,8 +269,13 @@ async function manifestOfficials(eventId: number) {
  * What the start line rested on: the rider's sign-ons to the event's briefings, each run's expected speed and
  * licence upgrade, and the clerk of the course's signed overrides the runs started under.
  */
-async function manifestStartLine(r: Readiness) {
+async function manifestStartLine(r: Readiness, issuedAt: Date) {
   const { briefings } = await briefingsOf(r.day.event.id)
+  // What the fastest official speed of the attempt says at the issue, after its last run: over the rider's grade, the
+  // tyres' rating or the parachutes fitted (the same judgement the start line makes before each run).
+  const line = (await startLineOf(useDb(), r.day.event, [r.entry], issuedAt, undefined,
+    reachedBefore(r.day, [r.live], +issuedAt))).get(r.entry.entry.id)!
+  const speedReached = line.findings.filter(f => f.code.startsWith('reached.')).map(f => f.message)
   const riderId = r.entry.rider.id
   const runs = r.day.runs.filter(x => x.attemptId === r.attemptId)
   const overrideIds = [...new Set(runs.flatMap(x => (x.overrideId ? [x.overrideId] : [])))]
@@ -293,6 +298,7 @@ async function manifestStartLine(r: Readiness) {
       overrideId: x.overrideId })),
     overrides: overrides.map(x => ({ id: x.o.id, day: x.o.day, codes: x.o.codes, reason: x.o.reason,
       clerk: x.typedName, sha256: x.sha256 })),
+    speedReached,
   }
 }
 

@@ -301,6 +301,13 @@ function renderStartLine(L: PdfLayout, m: Manifest) {
     L.text(`Override #${o.id} by the clerk of the course ${o.clerk} for ${o.day}: ${o.codes.join(', ')}. `
       + `Reason: ${o.reason}. SHA-256 ${o.sha256}`, { indent: 10, gap: 1 })
   }
+  // Newer dossiers: the speed reached against the grade, the tyres and the parachutes, after the last run.
+  const reached = (line as { speedReached?: string[] }).speedReached
+  if (!reached) return
+  if (!reached.length) {
+    L.text('Speed reached: within the rider\'s grade, the tyres\' rating and the parachutes fitted.', { gap: 1 })
+  }
+  for (const f of reached) L.text(`Speed reached: ${f}.`, { bold: true, gap: 1 })
 }
 
 /** The stewards' confirmation of the result (newer dossiers only). */

@@ -1,6 +1,8 @@
 import { and, desc, eq, inArray, isNotNull, lte } from 'drizzle-orm'
 import { localDate, localDateTime } from '#shared/rules/zoned'
-import { startLineFindings, upgradeTarget, type StartLineFinding } from '#shared/rules/start-line'
+import { gradeIndex, reachedFindings, startLineFindings, upgradeTarget } from '#shared/rules/start-line'
+import type { StartLineFinding } from '#shared/rules/start-line'
+import { allItems } from '#shared/inspection/evaluate'
 import type { RuleProfile } from '#shared/rules/profile'
 import type { OverrideInput } from '#shared/schemas/officials'
 
@@ -44,6 +46,67 @@ async function declaredSpeeds(db: Tx | Db, entryIds: number[]) {
   return out
 }
 
+/** The fastest each entry went before an instant: its best official speed, the run, and whether an upgrade run. */
+export type Reached = Map<number, { kmh: string, runId: number, upgrade: boolean }>
+
+/**
+ * From the live results of the day: each entry's fastest official speed (time over a measured distance, as the
+ * timing sheet gives it) on runs that left before `atMs`; none before its first timed run. A segment between two
+ * traps is not used: a short one carries the clock's resolution, and the official speed is what the sheet signs.
+ */
+export function reachedBefore(day: EventDay, attempts: ReturnType<typeof computeLive>, atMs: number): Reached {
+  const out: Reached = new Map()
+  for (const a of attempts) {
+    for (const r of a.runs) {
+      if (Date.parse(r.startedAt) >= atMs || !r.official) continue
+      const kmh = r.official.kmh
+      const seen = out.get(a.entry.id)
+      const upgrade = !!day.runs.find(x => x.id === r.id)?.licenceUpgrade
+      if (!seen || Number(kmh) > Number(seen.kmh)) out.set(a.entry.id, { kmh, runId: r.id, upgrade })
+    }
+  }
+  return out
+}
+
+interface InspectedSafety {
+  tyreRatedKmh: number | null
+  parachutesFitted: number | null
+  steps: { overMph: number, count: number }[] | null
+}
+
+/** What the inspection in force recorded of each entry's tyres and parachutes, and the parachute steps it used. */
+async function inspectedSafety(db: Tx | Db, entryIds: number[]) {
+  const rows = entryIds.length
+    ? await db.select({ id: tables.inspections.id, entryId: tables.inspections.entryId,
+        checklist: tables.inspections.checklist })
+        .from(tables.inspections)
+        .where(and(inArray(tables.inspections.entryId, entryIds), isNotNull(tables.inspections.signatureId)))
+        .orderBy(desc(tables.inspections.id))
+    : []
+  const latest = new Map<number, (typeof rows)[number]>()
+  for (const r of rows) if (!latest.has(r.entryId)) latest.set(r.entryId, r)
+  const ids = [...latest.values()].map(r => r.id)
+  const answers = ids.length
+    ? await db.select().from(tables.inspectionAnswers).where(and(inArray(tables.inspectionAnswers.inspectionId, ids),
+        inArray(tables.inspectionAnswers.itemKey, ['tyres-rated', 'parachute'])))
+    : []
+  const out = new Map<number, InspectedSafety>()
+  for (const [entryId, insp] of latest) {
+    const value = (key: string) =>
+      answers.find(a => a.inspectionId === insp.id && a.itemKey === key && a.value !== null)?.value ?? null
+    const item = allItems(insp.checklist).find(i => i.key === 'parachute')
+    const steps = item?.limit?.kind === 'count-for-speed' ? item.limit.steps : null
+    const tyres = value('tyres-rated')
+    const chutes = value('parachute')
+    out.set(entryId, {
+      tyreRatedKmh: tyres === null ? null : Number(tyres),
+      parachutesFitted: chutes === null ? null : Number(chutes),
+      steps,
+    })
+  }
+  return out
+}
+
 /**
  * What the start line says of each entry leaving at `at`: the rider's licence (expiry, grade for the
  * expected speed, medical) and the riders' briefing under the event's profile, and the clerk of the
@@ -55,10 +118,12 @@ export async function startLineOf(
   entries: { entry: { id: number }, rider: Rider }[],
   at: Date,
   intents = new Map<number, StartIntent>(),
+  /** The fastest each entry went before `at` (see reachedBefore); none known, nothing judged on it. */
+  reached: Reached = new Map(),
 ) {
   const day = localDate(+at, event.timeZone)
   const ids = entries.map(e => e.entry.id)
-  const [briefing, declared, overrides] = await Promise.all([
+  const [briefing, declared, overrides, safety] = await Promise.all([
     latestBriefing(db, event.id, at),
     declaredSpeeds(db, ids),
     ids.length
@@ -66,6 +131,7 @@ export async function startLineOf(
           .where(and(inArray(tables.startOverrides.entryId, ids), eq(tables.startOverrides.day, day)))
           .orderBy(desc(tables.startOverrides.id))
       : [],
+    inspectedSafety(db, ids),
   ])
   const licence = event.profile.licence?.value ?? null
   const out = new Map<number, StartLine>()
@@ -85,6 +151,17 @@ export async function startLineOf(
         signedOn: briefing.riders.has(rider.id),
       },
     })
+    const inspected = safety.get(entry.id)
+    const grades = licence?.grades
+    const held = grades ? gradeIndex(grades, rider.licenceGrade) : -1
+    findings.push(...reachedFindings({
+      reached: reached.get(entry.id) ?? null,
+      grade: grades && held >= 0 ? grades[held]! : null,
+      tyreRatedKmh: inspected?.tyreRatedKmh ?? null,
+      parachutes: inspected?.parachutesFitted != null && inspected.steps
+        ? { fitted: inspected.parachutesFitted, steps: inspected.steps }
+        : null,
+    }))
     const override = overrides.find(o => o.entryId === entry.id) ?? null
     out.set(entry.id, {
       findings,
@@ -106,7 +183,10 @@ export async function refuseAtStartLine(
 ) {
   const [event] = await tx.select().from(tables.events).where(eq(tables.events.id, entry.eventId))
   const [rider] = await tx.select().from(tables.riders).where(eq(tables.riders.id, entry.riderId))
-  const line = (await startLineOf(tx, event!, [{ entry, rider: rider! }], at, new Map([[entry.id, intent]])))
+  // The speed the machine reached on its runs so far, from the live results of the day.
+  const eventDay = await loadEventDay(entry.eventId)
+  const reached = reachedBefore(eventDay, computeLive(eventDay), +at)
+  const line = (await startLineOf(tx, event!, [{ entry, rider: rider! }], at, new Map([[entry.id, intent]]), reached))
     .get(entry.id)!
   if (line.blocking.length) {
     throw conflict(`The start line stops this run: ${line.blocking.map(f => f.message).join('; ')}. `

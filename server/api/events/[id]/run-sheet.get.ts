@@ -7,7 +7,8 @@ export default defineEventHandler(async (event) => {
   const clearance = await clearanceOf(day.entries.map(e => e.entry.id))
   // The attempts as computed above (their windows and findings): not computed a second time.
   const placements = placementsOf(day, now, attempts)
-  const startLine = await startLineOf(useDb(), day.event, day.entries, new Date(now))
+  const startLine = await startLineOf(useDb(), day.event, day.entries, new Date(now), undefined,
+    reachedBefore(day, attempts, now))
   /** A run of the entry that left the line and has neither a time nor an abort yet. */
   const openRun = (entryId: number) => attempts.filter(a => a.entry.id === entryId)
     .flatMap(a => a.runs).find(r => r.status !== 'aborted' && !r.official)?.id ?? null
