@@ -629,7 +629,10 @@ export const statements = pgTable(
     authorId: integer('author_id')
       .notNull()
       .references(() => users.id),
+    /** The runs seen, in the official's own words (beside the runs ticked; empty where only ticked). */
     runsSeen: text('runs_seen').notNull(),
+    /** The runs of the attempt the official ticked as seen; empty on statements from before ticks were kept. */
+    runIdsSeen: integer('run_ids_seen').array().notNull().default(sql`'{}'::integer[]`),
     position: text('position').notNull(),
     conditions: text('conditions').notNull(),
     irregularities: text('irregularities').notNull(),

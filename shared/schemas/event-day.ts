@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { decimalsOf, fromDecimal } from '../rules/exact'
 import { PROFILE_IDS } from '../rules/profiles'
-import { isoDateTime, recordId } from './fields'
+import { decimalComma, isoDateTime, recordId } from './fields'
 import { TIME_OF_DAY, TIME_OF_DAY_ERROR } from '../rules/timing'
 import {
   AVERAGINGS,
@@ -17,7 +17,7 @@ import {
 /** An exact decimal, as a string or a number, with at most `maxDecimals` places and an optional floor. */
 export const decimalText = (maxDecimals: number, opts: { min?: number, max?: number } = {}) =>
   z
-    .union([z.string(), z.number()])
+    .preprocess(decimalComma, z.union([z.string(), z.number()]))
     .transform(String)
     .superRefine((s, ctx) => {
       let v
@@ -40,8 +40,9 @@ export const decimalText = (maxDecimals: number, opts: { min?: number, max?: num
 const id = recordId
 const label = z.string().trim().min(1, { error: 'is required' }).max(40)
 const day = z.iso.date({ error: 'must be a date, YYYY-MM-DD' })
-/** A time of day read at a trap: HH:MM:SS with a fraction, e.g. 10:15:02.123. */
-export const timeOfDay = z.string().trim().regex(TIME_OF_DAY, { error: TIME_OF_DAY_ERROR })
+/** A time of day read at a trap: HH:MM:SS with a fraction, e.g. 10:15:02.123 (or with a comma, 10:15:02,123). */
+export const timeOfDay = z.string().trim().transform(s => s.replace(/^(\d{1,2}:\d{2}:\d{2}),(\d+)$/, '$1.$2'))
+  .pipe(z.string().regex(TIME_OF_DAY, { error: TIME_OF_DAY_ERROR }))
 
 export const courseSchema = z.object({
   name: z.string().trim().min(2).max(80),
@@ -142,8 +143,8 @@ export const profileAdaptSchema = z.object({
     .min(1)
     .max(24 * 60)
     .optional(),
-  marginPercent: z.coerce.number().min(0).max(10).optional(),
-  tailWindLimitMs: z.coerce.number().min(0).max(20).nullable().optional(),
+  marginPercent: z.preprocess(decimalComma, z.coerce.number().min(0).max(10).optional()),
+  tailWindLimitMs: z.preprocess(decimalComma, z.coerce.number().min(0).max(20).nullable().optional()),
   witnessStatements: z.coerce.number().int().min(0).max(10).optional(),
   averaging: z.enum(AVERAGINGS).optional(),
   /** true or false, from JSON or from a form's "true"/"false". */
@@ -233,7 +234,7 @@ export const startRunSchema = z.object({
   start: z.enum(START_KINDS).optional(),
   startedAt: isoDateTime.optional(),
   /** The speed the run expects, km/h, for the licence grade's check; else the speed declared at inspection. */
-  expectedKmh: z.coerce.number().positive().max(2000).optional(),
+  expectedKmh: z.preprocess(decimalComma, z.coerce.number().positive().max(2000).optional()),
   /** A licence upgrade run into the next grade, where the profile grades licences. */
   licenceUpgrade: z.boolean().default(false),
 })

@@ -7,8 +7,15 @@ import { isTimeZone } from '../rules/zoned'
 export const numberOrRequired = (issue: { input?: unknown }) =>
   (issue.input === undefined || issue.input === null || issue.input === '' ? 'is required' : 'must be a number')
 
-/** A positive, finite amount given as a JSON number or an exact decimal string ("5.767"). */
-export const positiveDecimal = z.union([z.number(), z.string()]).superRefine((x, ctx) => {
+/**
+ * A number typed with a decimal comma ("14,50", as much of Europe writes it) read as with a point; anything else as
+ * it is (a comma with a point, or two commas, stays and is refused as not a number).
+ */
+export const decimalComma = (v: unknown) =>
+  (typeof v === 'string' && /^\s*[+-]?\d*,\d+\s*$/.test(v) ? v.replace(',', '.') : v)
+
+/** A positive, finite amount given as a JSON number or an exact decimal string ("5.767", or "5,767"). */
+export const positiveDecimal = z.preprocess(decimalComma, z.union([z.number(), z.string()])).superRefine((x, ctx) => {
   if (typeof x === 'string' && x.length > MAX_DECIMAL_CHARS) {
     ctx.addIssue({ code: 'custom', message: `must be at most ${MAX_DECIMAL_CHARS} characters` })
     return
@@ -17,7 +24,7 @@ export const positiveDecimal = z.union([z.number(), z.string()]).superRefine((x,
     if (fromInput(x).n <= 0n) ctx.addIssue({ code: 'custom', message: 'must be greater than zero' })
   }
   catch {
-    ctx.addIssue({ code: 'custom', message: 'must be a finite decimal number' })
+    ctx.addIssue({ code: 'custom', message: 'must be a number, such as 14.50' })
   }
 })
 
@@ -38,10 +45,10 @@ export const recordId = z.preprocess(
     .max(MAX_RECORD_ID, { error: 'is not the id of any record' }),
 )
 
-/** ISO-8601 date and time with Z or an offset, e.g. 2026-08-14T07:05:00Z. */
+/** ISO-8601 date and time with Z or an offset, e.g. 2026-08-14T07:05:00Z; said in plain words when it is not. */
 export const isoDateTime = z.iso.datetime({
   offset: true,
-  error: 'must be an ISO-8601 date and time with Z or an offset',
+  error: 'must be a date and time with its zone, such as 2026-08-14T07:05:00Z',
 })
 
 export const timeZoneName = z

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { CHECKLIST_IDS } from '../inspection/templates'
 import { signSheetSchema } from './event-day'
-import { numberOrRequired, recordId } from './fields'
+import { decimalComma, numberOrRequired, recordId } from './fields'
 import { decimalsOf, fromInput, MAX_DECIMAL_CHARS } from '../rules/exact'
 import { BUS_KINDS, DECISIONS, ITEM_RESULTS, STREAMLINING } from '../constants'
 
@@ -9,7 +9,8 @@ const id = recordId
 
 /** A measurement as typed: a decimal string or a JSON number, not negative, at most 6 decimals. */
 const measuredValue = z
-  .union([z.number(), z.string().trim().max(MAX_DECIMAL_CHARS)], { error: 'must be a number' })
+  .preprocess(decimalComma, z.union([z.number(), z.string().trim().max(MAX_DECIMAL_CHARS)],
+    { error: 'must be a number' }))
   .superRefine((x, ctx) => {
     try {
       if (fromInput(x).n < 0n) ctx.addIssue({ code: 'custom', message: 'must not be negative' })
@@ -103,12 +104,24 @@ export const drawing = z
 export const signRecordSchema = signSheetSchema.extend({ drawingPng: drawing })
 export type SignRecordInput = z.infer<typeof signRecordSchema>
 
+/** The runs ticked as seen, each once, in order (what is signed does not depend on the order of the ticks). */
+export const runIdsSeen = z.array(id).max(20, { error: 'at most 20 runs' }).default([])
+  .transform(ids => [...new Set(ids)].sort((a, b) => a - b))
+
+/**
+ * A witness statement: the runs seen as ticks of the attempt's runs (`runIdsSeen`) and, apart, in the official's own
+ * words (`runsSeen`, needed where nothing is ticked); never one written into the other.
+ */
 export const statementSchema = signRecordSchema.extend({
   attemptId: id,
-  runsSeen: z.string().trim().min(2, { error: 'say which runs you saw' }).max(500),
+  runIdsSeen: runIdsSeen,
+  runsSeen: z.string().trim().max(500).default(''),
   position: z.string().trim().min(2, { error: 'say where you watched from' }).max(300),
   conditions: z.string().trim().min(2, { error: 'describe the conditions' }).max(1000),
   irregularities: z.string().trim().max(2000).default(''),
+}).refine(x => x.runIdsSeen.length > 0 || x.runsSeen.length >= 2, {
+  error: 'tick the runs you saw, or say which',
+  path: ['runsSeen'],
 })
 export type StatementInput = z.infer<typeof statementSchema>
 
@@ -147,9 +160,9 @@ const sealList = (v: unknown) => (typeof v === 'string' ? v.split(/[\n,;]/).map(
  * was intact; what was seen; signed.
  */
 export const postRunCheckSchema = signSheetSchema.extend({
-  massKg: z.coerce.number({ error: numberOrRequired }).positive().max(100_000),
+  massKg: z.preprocess(decimalComma, z.coerce.number({ error: numberOrRequired }).positive().max(100_000)),
   capacityCm3: z.preprocess(
-    v => (v === '' || v === null ? undefined : v),
+    v => (v === '' || v === null ? undefined : decimalComma(v)),
     z.coerce.number({ error: 'must be a number' }).positive({ error: 'must be greater than zero' }).max(100_000)
       .refine(x => Math.abs(x * 100 - Math.round(x * 100)) < 1e-6, { error: 'must have at most 2 decimals' })
       .optional(),

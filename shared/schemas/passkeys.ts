@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { DECISIONS } from '../constants'
 import { recordId } from './fields'
+import { runIdsSeen } from './inspection'
 
 const base64url = z.string().regex(/^[A-Za-z0-9_-]*$/, { error: 'must be base64url' }).max(20_000)
 
@@ -36,6 +37,7 @@ export const passkeyRevocationSchema = z.object({
 /** What a statement will say, so that a passkey can sign it before it is written. */
 export const statementDraftSchema = z.object({
   attemptId: recordId,
+  runIdsSeen,
   runsSeen: z.string().trim().max(500),
   position: z.string().trim().max(300),
   conditions: z.string().trim().max(1000),

@@ -225,6 +225,26 @@ describe('witness statements', () => {
     expect(list.find((s: any) => s.id === created.body.id).withdrawnBy).toMatchObject({ id: withdrawn.body.id, reason: 'wrote the wrong attempt' })
   })
 
+  it('the runs seen are ticked from the attempt\'s own runs, kept apart from the official\'s own words', async () => {
+    const official = await invitedPerson('official')
+    const attempts = (await call('GET', `/api/events/${eventId}/live`, { cookie: official.cookie })).body
+    const [attempt, other] = attempts.filter((a: any) => a.runs.length >= 1)
+    const runIds = attempt.runs.map((r: any) => r.id)
+    const body = { attemptId: attempt.id, position: 'timing hut', conditions: 'calm', irregularities: '', password: official.password, typedName: official.name }
+    const post = (more: Record<string, unknown>) => call('POST', `/api/events/${eventId}/statements`, { cookie: official.cookie, body: { ...body, ...more } })
+    expect((await post({})).body.data.issues).toEqual([{ path: 'runsSeen', message: 'tick the runs you saw, or say which' }])
+    const foreign = await post({ runIdsSeen: [runIds[0], other.runs[0].id] })
+    expect(foreign.body.data.issues).toEqual([{ path: 'runIdsSeen', message: `#${other.runs[0].id} is not a run of this attempt` }])
+    // Ticked in any order, twice even: signed once each, in order; the words stay as typed, beside them.
+    const created = await post({ runIdsSeen: [...runIds].reverse().concat(runIds[0]), runsSeen: 'the second from the tower' })
+    expect(created.status, JSON.stringify(created.body)).toBe(201)
+    expect(created.body).toMatchObject({ runIdsSeen: [...runIds].sort((a: number, b: number) => a - b), runsSeen: 'the second from the tower' })
+    const list = (await call('GET', `/api/events/${eventId}/statements`, { cookie: cookie.official })).body
+    const report = (await call('GET', `/api/signatures/${list.find((s: any) => s.id === created.body.id).signatureId}`, { cookie: cookie.official })).body
+    expect(report).toMatchObject({ storedContentMatches: true, recordStillMatches: true })
+    expect(report.content).toMatchObject({ runIdsSeen: created.body.runIdsSeen, runsSeen: 'the second from the tower' })
+  })
+
   it('an official who also holds a role in the attempt\'s team cannot witness it', async () => {
     // Common practice: a witness is independent of the team whose attempt it witnesses.
     const official = await invitedPerson('official')

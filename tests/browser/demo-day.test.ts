@@ -61,6 +61,7 @@ it('runs the demo day from the first reading to the record book', async () => {
     await page.fill('#st-name', name!)
     await page.fill('#st-pass', demo.password)
     await page.click('button:has-text("Sign the statement")')
+    await page.click('[data-test="read-back-yes"]')
     await page.locator('article', { hasText: `${name}'s post on the course` }).waitFor()
   }
 

@@ -75,19 +75,31 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await expect.poll(() => card.locator('[data-test="entry-clearance"]').innerText()).toContain('Cleared to run')
 })
 
-it('an official signs a witness statement, and it is listed with its signature', async () => {
+it('an official ticks the runs seen, writes apart, reads the statement back, signs it, and finds it listed', async () => {
   // An official of this test's own: each demo official already has a statement on the demo pair.
   const official = await invitedPerson('official', demo.password, 'Ottilie Oxley')
   const page = await signIn(ctx, official.email, await demoEventPath('/statements'))
-  await page.fill('#st-runs', 'both runs of the pair')
+  // Words first, then ticks: a tick never writes over what was typed (and typing is never moved by a tick).
+  await page.fill('#st-runs', 'the return from the tower')
+  const ticks = page.locator('[data-test="runs-seen-ticks"] input[type="checkbox"]')
+  const runCount = await ticks.count()
+  for (let i = 0; i < runCount; i++) await ticks.nth(i).check()
+  expect(await page.locator('#st-runs').inputValue()).toBe('the return from the tower')
   await page.fill('#st-position', 'at the exit trap of the mile')
   await page.fill('#st-conditions', 'dry, light southerly wind')
   await page.fill('#st-name', 'Ottilie Oxley')
   await page.fill('#st-pass', demo.password)
-  await page.click('button:has-text("Sign the statement")')
+  // Enter in the password field asks; it does not sign.
+  await page.press('#st-pass', 'Enter')
+  const readBack = page.locator('[data-test="read-back-text"]')
+  await readBack.waitFor()
+  expect(await readBack.innerText()).toMatch(/^Sign this statement on attempt #\d+ .* as Ottilie Oxley\? Runs seen: run #\d+ \(\w+.*\); in your words “the return from the tower”\. Watched from: at the exit trap of the mile\. Conditions: dry, light southerly wind\. Irregularities: none\.$/)
+  expect(await page.locator('article', { hasText: 'at the exit trap of the mile' }).count()).toBe(0)
+  await page.click('[data-test="read-back-yes"]')
   const article = page.locator('article', { hasText: 'at the exit trap of the mile' })
   await article.waitFor()
   expect(await article.innerText()).toContain('Signed by Ottilie Oxley')
+  expect(await article.innerText()).toContain('· the return from the tower')
   await article.getByRole('link', { name: 'check the signature' }).click()
   await page.waitForURL('**/signatures/*')
   await expect.poll(() => page.locator('[data-test="stored-matches"]').innerText()).toContain('still matches its hash')

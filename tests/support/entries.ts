@@ -90,7 +90,13 @@ export const FIGURES = { busVoltageV: 400, busKind: 'dc', declaredSpeed: 290, di
 /**
  * Answers every item of the electric motorcycle checklist (or the one given): pass, or fail for the one named.
  */
-export async function answerAll(inspectionId: number, failing?: string, who: { scrutineer?: string } = {}, checklist = electricMotorcycle) {
+export async function answerAll(
+  inspectionId: number,
+  failing?: string,
+  who: { scrutineer?: string } = {},
+  checklist = electricMotorcycle,
+  overrides: Record<string, [number, string]> = {},
+) {
   const scrutineer = who.scrutineer ?? await login(demoEmail('scrutineer'))
   for (const i of allItems(checklist)) {
     const result = i.key === failing ? 'fail' : 'pass'
@@ -105,6 +111,7 @@ export async function answerAll(inspectionId: number, failing?: string, who: { s
       'parachute': [1, 'count'],
       'tyres-rated': [450, 'km/h'],
       'engine-capacity': [998, 'cm³'],
+      ...overrides,
     }
     const [value, unit] = measured[i.key] ?? []
     const r = await call('POST', `/api/inspections/${inspectionId}/answers`, {
@@ -127,6 +134,8 @@ export async function clearedEntry(
     scrutineerPassword?: string
     claims?: string[]
     entry?: { className?: string, division?: string, power?: 'electric' | 'combustion' }
+    /** Measurements other than the test figures, e.g. wheels rated for a machine that runs at 1000 km/h. */
+    measured?: Record<string, [number, string]>
   } = {},
 ) {
   const entryId = await newEntry(eventId, machineName, rider, who)
@@ -143,7 +152,7 @@ export async function clearedEntry(
   const figures = combustion ? { declaredSpeed: FIGURES.declaredSpeed, division } : { ...FIGURES, division }
   const patched = await call('PATCH', `/api/inspections/${id}`, { cookie: scrutineer, body: figures })
   expect(patched.status, JSON.stringify(patched.body)).toBe(200)
-  await answerAll(id, undefined, { scrutineer }, combustion ? combustionMotorcycle : electricMotorcycle)
+  await answerAll(id, undefined, { scrutineer }, combustion ? combustionMotorcycle : electricMotorcycle, who.measured)
   // The name typed is the scrutineer's name on file: a signature names the person who gives it.
   const { name } = (await call('GET', '/api/me', { cookie: scrutineer })).body.user as { name: string }
   const signed = await call('POST', `/api/inspections/${id}/signatures`, {

@@ -62,3 +62,25 @@ describe('error messages a person can see', () => {
     expect(fieldLabel('traps.2.label')).toBe('Traps, 3, label —')
   })
 })
+
+describe('decimals as people type them', () => {
+  // Much of Europe writes a decimal comma (ISO 80000-1 allows comma or point as the decimal sign): "14,50" is 14.50
+  // wherever a decimal is typed; a comma beside a point, or two commas, is not a number.
+  it('reads a decimal comma as a point in times, speeds, masses and trap times', () => {
+    const calc = calculator.calculatorRequestSchema.parse({ profile: 'intl-motorcycle', distanceM: '1000', recordKmh: '246,069', runs: [{ direction: 'out', startedAt: '2026-08-14T07:00:00Z', elapsedS: '14,63' }] })
+    expect(calc.runs[0]!.elapsedS).toBe('14.63')
+    expect(calc.recordKmh).toBe('246.069')
+    expect(eventDay.timeOfDay.parse('10:15:02,1234')).toBe('10:15:02.1234')
+    expect(eventDay.timeOfDay.safeParse('10,15:02').success).toBe(false)
+    expect(inspection.answerSchema.parse({ itemKey: 'bonding', result: 'pass', value: '0,05', unit: 'Ω' }).value).toBe('0.05')
+    expect(inspection.postRunCheckSchema.parse({ massKg: '181,5', capacityCm3: '998,25', typedName: 'A. Scrutineer', password: 'p' })).toMatchObject({ massKg: 181.5, capacityCm3: 998.25 })
+  })
+  it('refuses a comma beside a point, or two commas, in plain words', () => {
+    for (const bad of ['1.234,5', '1,234,5', ',']) {
+      const r = calculator.calculatorRunSchema.safeParse({ direction: 'out', startedAt: '2026-08-14T07:00:00Z', elapsedS: bad })
+      expect(r.error!.issues[0]!.message, bad).toBe('must be a number, such as 14.50')
+    }
+    const when = calculator.calculatorRunSchema.safeParse({ direction: 'out', startedAt: '14/08/2026 7:00', elapsedS: '5' })
+    expect(when.error!.issues[0]!.message).toBe('must be a date and time with its zone, such as 2026-08-14T07:05:00Z')
+  })
+})

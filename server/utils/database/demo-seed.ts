@@ -209,6 +209,7 @@ async function signDemoStatements({ people, event, attempt }: DemoFacts) {
   for (const [official, position] of positions) {
     const statement = {
       attemptId: attempt.id,
+      runIdsSeen: [],
       runsSeen: 'both runs of the pair (out 08:05, back 08:52 local)',
       position,
       conditions: 'dry surface, light wind from the south-south-west, clear sky',

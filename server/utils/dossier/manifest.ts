@@ -274,7 +274,7 @@ async function manifestStartLine(r: Readiness, issuedAt: Date) {
   // What the fastest official speed of the attempt says at the issue, after its last run: over the rider's grade, the
   // tyres' rating or the parachutes fitted (the same judgement the start line makes before each run).
   const line = (await startLineOf(useDb(), r.day.event, [r.entry], issuedAt, undefined,
-    reachedBefore(r.day, [r.live], +issuedAt))).get(r.entry.entry.id)!
+    reachedBefore(r.day, [r.live], Number.POSITIVE_INFINITY))).get(r.entry.entry.id)!
   const speedReached = line.findings.filter(f => f.code.startsWith('reached.')).map(f => f.message)
   const riderId = r.entry.rider.id
   const runs = r.day.runs.filter(x => x.attemptId === r.attemptId)
@@ -335,6 +335,7 @@ async function manifestStatements(eventId: number, attemptId: number) {
     method: s.method,
     signedAt: new Date(s.signedAt).toISOString(),
     sha256: s.sha256,
+    runIdsSeen: s.runIdsSeen,
     runsSeen: s.runsSeen,
     position: s.position,
     conditions: s.conditions,

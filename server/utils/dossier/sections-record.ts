@@ -97,10 +97,13 @@ function renderOneInspection(L: PdfLayout, i: Manifest['inspections'][number]) {
         : ({ pass: 'passed', fail: 'failed', na: 'not applicable' }[a.result]
           ?? a.result),
       a.enteredAs ?? '',
-      a.limitSource
-        ? `${a.withinLimit === false ? 'outside' : a.withinLimit ? 'within' : 'not judged'}`
-        + `${a.check ? `: ${a.check}` : ''} (${a.limitSource})`
-        : (a.note ?? ''),
+      // Not applicable: the scrutineer's reason, whatever limit the item has.
+      a.result === 'na'
+        ? (a.note ?? '')
+        : a.limitSource
+          ? `${a.withinLimit === false ? 'outside' : a.withinLimit ? 'within' : 'not judged'}`
+          + `${a.check ? `: ${a.check}` : ''} (${a.limitSource})`
+          : (a.note ?? ''),
     ]),
   )
   if (i.signature) {
@@ -144,8 +147,11 @@ function renderStatement(L: PdfLayout, s: Statement) {
   }
   const withdrawn = s.withdrawnBy ? ` (withdrawn by #${s.withdrawnBy})` : ''
   L.text(`Statement #${s.id} by ${s.typedName}${withdrawn}`, { bold: true, gap: 1 })
+  // The runs ticked (newer dossiers) and, apart, in the official's own words.
+  const ticked = ((s as { runIdsSeen?: number[] }).runIdsSeen ?? []).map(r => `#${r}`).join(', ')
+  const seen = [ticked && `run(s) ${ticked}`, s.runsSeen].filter(Boolean).join('; in their words: ')
   L.text(
-    `Runs seen: ${s.runsSeen}. Watched from: ${s.position}. Conditions: ${s.conditions}. `
+    `Runs seen: ${seen}. Watched from: ${s.position}. Conditions: ${s.conditions}. `
     + `Irregularities: ${s.irregularities || 'none'}.`,
     { indent: 10, gap: 1 },
   )

@@ -53,12 +53,15 @@ export type Reached = Map<number, { kmh: string, runId: number, upgrade: boolean
  * From the live results of the day: each entry's fastest official speed (time over a measured distance, as the
  * timing sheet gives it) on runs that left before `atMs`; none before its first timed run. A segment between two
  * traps is not used: a short one carries the clock's resolution, and the official speed is what the sheet signs.
+ * A run whose readings are in question (out of order, a speed or an acceleration no machine makes: a swapped channel,
+ * a mistyped time) gives no speed reached until the timekeeper corrects them.
  */
 export function reachedBefore(day: EventDay, attempts: ReturnType<typeof computeLive>, atMs: number): Reached {
   const out: Reached = new Map()
   for (const a of attempts) {
     for (const r of a.runs) {
       if (Date.parse(r.startedAt) >= atMs || !r.official) continue
+      if (r.findings.some(f => f.code.startsWith('reading.'))) continue
       const kmh = r.official.kmh
       const seen = out.get(a.entry.id)
       const upgrade = !!day.runs.find(x => x.id === r.id)?.licenceUpgrade

@@ -7,6 +7,8 @@ export const statementContent = (s: StatementRow, authorName: string) => ({
   statement: s.id,
   attempt: s.attemptId,
   author: authorName,
+  // Added later: present only where runs were ticked, so a statement signed before still hashes as signed.
+  ...(s.runIdsSeen.length ? { runIdsSeen: s.runIdsSeen } : {}),
   runsSeen: s.runsSeen,
   position: s.position,
   conditions: s.conditions,
@@ -27,9 +29,18 @@ export async function createStatement(
     .innerJoin(tables.entries, eq(tables.entries.id, tables.attempts.entryId))
     .where(and(eq(tables.attempts.id, input.attemptId), eq(tables.attempts.eventId, eventId)))
   if (!attempt) throw fieldInvalid('attemptId', 'is not an attempt of this event')
+  const { runIdsSeen } = input
+  if (runIdsSeen.length) {
+    const runs = await useDb().select({ id: tables.runs.id }).from(tables.runs)
+      .where(and(eq(tables.runs.attemptId, attempt.id), inArray(tables.runs.id, runIdsSeen)))
+    const other = runIdsSeen.filter(r => !runs.some(x => x.id === r))
+    const named = other.map(r => `#${r}`).join(', ')
+    if (other.length) throw fieldInvalid('runIdsSeen', `${named} is not a run of this attempt`)
+  }
   const proof = await signerProof(user.id, input)
   const body = {
     attemptId: input.attemptId,
+    runIdsSeen,
     runsSeen: input.runsSeen,
     position: input.position,
     conditions: input.conditions,
@@ -62,6 +73,7 @@ async function assertMayWitness(tx: Tx, eventId: number, attempt: { id: number, 
 async function signStatement(
   eventId: number,
   body: Pick<StatementRow, 'attemptId' | 'runsSeen' | 'position' | 'conditions' | 'irregularities'> & {
+    runIdsSeen?: number[]
     withdrawsId?: number
     reason?: string
   },

@@ -1,0 +1,1 @@
+ALTER TABLE "witness_statements" ADD COLUMN "run_ids_seen" integer[] DEFAULT '{}'::integer[] NOT NULL;
