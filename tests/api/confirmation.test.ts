@@ -18,6 +18,7 @@ const sign = (name: string) => ({ password: 'first-password-1', typedName: name 
 
 let event: TestEvent
 let attemptId = 0
+let outStartMs = 0
 let second = { cookie: '', name: '' }
 const confirm = (cookie: string, name: string, now?: Date) =>
   call('POST', `/api/attempts/${attemptId}/confirmations`, { cookie, now, body: sign(name) })
@@ -35,6 +36,7 @@ beforeAll(async () => {
   const out = await kilometreRun(place, entryId, 'out', t0, both)
   const back = await kilometreRun(place, entryId, 'back', t0 + 120_000, both)
   attemptId = out.attemptId
+  outStartMs = t0
   second = (await makeReady(event, attemptId, [out.id, back.id], entryId, { confirm: false })).second
 }, 120_000)
 
@@ -115,6 +117,12 @@ describe('the stewards\' confirmation of a result, after the protest period', { 
     expect(text).toContain(`Confirmed after the protest and appeal periods, which ended at ${(await readiness()).confirmation.afterClock}; 2 steward(s) sign under the profile.`)
     expect(text).toMatch(/Test official, \d{4}-\d\d-\d\d \d\d:\d\d(:\d\d)? UTC; SHA-256 [0-9a-f]{64}/)
     expect(text).toMatch(/Second official, \d{4}-\d\d-\d\d \d\d:\d\d(:\d\d)? UTC; SHA-256 [0-9a-f]{64}/)
+    // Every time with its zone: the run's start on the event's clock first (the platform's ICU time zone data,
+    // a reference independent of the product's own zone code), UTC beside it; the trap times say whose clock.
+    const local = new Date(outStartMs).toLocaleString('sv-SE', { timeZone: 'Europe/Paris', hourCycle: 'h23' })
+    const utc = new Date(outStartMs).toISOString().replace('T', ' ').slice(0, 19)
+    expect(text).toContain(`, out, started ${local} (Europe/Paris), ${utc} UTC`)
+    expect(text).toContain('Times of day on each system\'s clock: the event\'s local time (Europe/Paris) unless marked UTC.')
   })
 
   it('no longer counts once the timing sheet is reopened: the new publication opens a new period', async () => {

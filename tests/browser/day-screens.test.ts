@@ -118,7 +118,7 @@ describe('signing is a deliberate act', () => {
     const page = await as(event.cookie.timekeeper, `/events/${event.eventId}/run-sheet`, 'day', 1280)
     const heading = page.locator('h2', { hasText: 'Timing sheet of attempt' }).first()
     const attemptId = Number(/#(\d+)/.exec(await heading.innerText())![1])
-    expect(await page.locator('[data-test="sign-covers"]').first().innerText()).toMatch(/readings?\. Signing closes attempt/)
+    expect(await page.locator('[data-test="sign-covers"]').first().innerText()).toMatch(/readings?(, with \d+ cells? empty \([^)]+\))?\. Signing closes attempt/)
     await page.fill(`#sign-name-${attemptId}`, 'Someone Else')
     await page.locator(`#sign-name-${attemptId}-note`).waitFor()
     expect(await page.locator(`label[for="sign-name-${attemptId}"] + input + p`).innerText()).toContain('not the name on your account (Test timekeeper)')
@@ -127,7 +127,15 @@ describe('signing is a deliberate act', () => {
     await page.fill(`#sign-pass-${attemptId}`, 'first-password-1')
     await page.click('button:has-text("Sign the timing sheet")')
     const confirm = page.locator('[data-test="sign-confirm"]')
-    expect(await confirm.innerText()).toMatch(new RegExp(`Sign the timing sheet of attempt #${attemptId} \\(Pocket Sprite\\), \\d runs? and \\d+ readings?, as TEST timekeeper\\?`))
+    // The cells left empty are said, not only the readings counted: at each trap one system read on a run that was
+    // not aborted, every other system's cell without a reading (worked out here from the sheet as the API gives it).
+    const before = (await call('GET', `/api/events/${event.eventId}/run-sheet`, { cookie: event.cookie.timekeeper })).body
+    const runs = before.attempts.find((a: { id: number }) => a.id === attemptId).runs.filter((r: any) => r.status !== 'aborted')
+    const empty = runs.flatMap((r: any) => [...new Set(r.readings.map((x: any) => x.trapId))].flatMap(t =>
+      before.systems.filter((s: any) => !r.readings.some((x: any) => x.trapId === t && x.systemId === s.id))))
+    expect(empty.length).toBeGreaterThan(0) // the run typed above left cells of one system empty
+    const said = empty.length ? `, with ${empty.length} cells? empty \\(run #\\d+: Test \\w+ at [^)]+\\)` : ''
+    expect(await confirm.innerText()).toMatch(new RegExp(`Sign the timing sheet of attempt #${attemptId} \\(Pocket Sprite\\), \\d runs? and \\d+ readings?${said}, as TEST timekeeper\\?`))
     // Cancel signs nothing.
     await confirm.getByRole('button', { name: 'Cancel' }).click()
     const sheet = await call('GET', `/api/events/${event.eventId}/run-sheet`, { cookie: event.cookie.timekeeper })

@@ -118,6 +118,9 @@ it('runs the demo day from the first reading to the record book', async () => {
   await page.locator('input[id^="dn-"]').fill('Oswin Oakes')
   await page.locator('input[id^="dp-"]').fill(demo.password)
   await page.click('button:has-text("Sign the decision")')
+  // Read back before it is signed: what is decided, on which version, and that it is final.
+  expect(await page.locator('[data-test="read-back-text"]').innerText()).toMatch(/^Ratify version 1 of this claim \(dossier #\d+\) as Oswin Oakes\? Reasons: “Pair within the window; sheet signed; both systems agree; machine cleared; two statements\.”\. A ratified claim is final/)
+  await page.click('[data-test="read-back-yes"]')
   await expect.poll(() => page.locator('[data-test="dossier-v1"] [data-test="dossier-state"]').innerText()).toContain('Ratified')
 
   // The record book now holds the faster pair.

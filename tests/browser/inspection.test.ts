@@ -67,7 +67,7 @@ it('the scrutineer completes and signs an inspection, and the team sees its entr
   await page.mouse.down()
   await page.mouse.move(box.x + 120, box.y + 80, { steps: 5 })
   await page.mouse.up()
-  await page.click('button:has-text("Sign the inspection")')
+  await signInspection(page)
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
 
   const team = await signIn(ctx, 'team2@trapline.test', await demoEventPath('/entries'))
@@ -135,14 +135,14 @@ it('a measured value under its limit fails, whatever is ticked, and the machine 
     .toContain('50.0 Ω/V at 400 V DC is under the 100 Ω/V needed')
   await page.fill('#si-name', 'Selma Scrute')
   await page.fill('#si-pass', demo.password)
-  await page.click('button:has-text("Sign the inspection")')
+  await signInspection(page)
   // Not signed until the scrutineer says which division is seen: the class goes by it.
   await expect.poll(() => page.locator('[data-test="sign-division"]').innerText())
     .toContain('confirm the streamlining division you see: the class (Electric, partially streamlined) goes by it')
   await page.selectOption('#division-seen', 'partial')
   await saveFigures(page)
   await page.fill('#si-pass', demo.password)
-  await page.click('button:has-text("Sign the inspection")')
+  await signInspection(page)
   // Signed, and still not cleared: the measured value decided.
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('under the 100 Ω/V needed')
   expect(await page.locator('[data-test="clearance"]').innerText()).toContain('Not cleared: failed')
@@ -191,6 +191,7 @@ it('a scrutineer adds a passkey on the account page and signs an inspection with
   await page.waitForSelector('html[data-hydrated="true"]')
   await page.fill('#si-name', 'Pella Keyward')
   await page.click('button:has-text("Sign with a passkey")')
+  await page.click('[data-test="read-back-yes"]')
   await expect.poll(() => page.locator('[data-test="clearance"]').innerText()).toContain('Cleared to run')
   const view = (await call('GET', `/api/inspections/${started.body.id}`, { cookie: scrutineer.cookie })).body
   const report = (await call('GET', `/api/signatures/${view.signature.id}`, { cookie: scrutineer.cookie })).body
@@ -231,6 +232,13 @@ it('the capacity calculator fills the engine capacity from bore, stroke and cyli
   await row.getByRole('button', { name: 'Pass' }).click()
   await expect.poll(() => row.locator('[data-test="verdict"]').innerText()).toContain('785.4 cm³ recorded')
 })
+
+/** Presses "Sign the inspection", reads back what the signature covers, and signs. */
+async function signInspection(page: Page) {
+  await page.click('button:has-text("Sign the inspection")')
+  expect(await page.locator('[data-test="read-back-text"]').innerText()).toMatch(/^Sign inspection #\d+ \(Electric motorcycle\) as .+\? \d+ of \d+ items answered: \d+ passed, \d+ failed, \d+ not applicable/)
+  await page.click('[data-test="read-back-yes"]')
+}
 
 /** Saves the inspection's figures and waits for the server to take them. */
 async function saveFigures(page: Page) {

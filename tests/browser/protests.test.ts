@@ -79,6 +79,11 @@ it('is lodged by the team, heard and decided by the steward, and the decision sh
   await decide.getByLabel('Full name, typed').fill('Test official')
   await decide.getByLabel('Your password').fill('first-password-1')
   await decide.getByRole('button', { name: 'Sign the decision' }).click()
+  // The decision and its consequence are read back; nothing is signed before the second press.
+  const readBack = decide.locator('[data-test="read-back-text"]')
+  expect(await readBack.innerText()).toMatch(/^Decide protest #\d+ as Test official: dismissed, and nothing is made void\. Heard at \d{4}-\d\d-\d\d \d\d:\d\d \(.+\)\. Reasons: “Both timing systems recorded the pass within tolerance\.”\. A signed decision is final\.$/)
+  expect(await page.locator('[data-test="protest-state"]').first().innerText()).not.toContain('Dismissed')
+  await decide.locator('[data-test="read-back-yes"]').click()
   await expect.poll(() => page.locator('[data-test="protest-state"]').first().innerText())
     .toContain('✕ Dismissed by Test official')
 

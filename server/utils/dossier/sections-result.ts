@@ -80,13 +80,26 @@ export function renderCover(L: PdfLayout, m: Manifest, seal: SealFacts) {
 
 type Run = Manifest['runs'][number]
 
-function renderRunHeader(L: PdfLayout, run: Run) {
+/** An instant on the event's clock, its zone named: `2026-09-14 02:02:11 (America/Denver)`. */
+export function localStamp(iso: string, timeZone: string) {
+  const parts = new Intl.DateTimeFormat('sv-SE', {
+    timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+    hourCycle: 'h23',
+  }).format(new Date(iso))
+  return `${parts} (${timeZone})`
+}
+
+function renderRunHeader(L: PdfLayout, m: Manifest, run: Run) {
   const aborted = run.status === 'aborted' ? `, aborted: ${run.abortedReason}` : ''
   const counted = run.counted ? '' : ' (not counted)'
-  L.text(`Run #${run.id}, ${run.direction}, started ${utcStamp(run.startedAt)} UTC${aborted}${counted}`, {
-    bold: true,
-  })
+  // On the event's clock first, as the trap times below read, and in UTC beside it.
+  const started = `${localStamp(run.startedAt, m.event.timeZone)}, ${utcStamp(run.startedAt)} UTC`
+  L.text(`Run #${run.id}, ${run.direction}, started ${started}${aborted}${counted}`, { bold: true })
 }
+
+/** Whether a timing system's clock shows UTC (a dossier sealed before time bases were kept: the event's clock). */
+const showsUtc = (m: Manifest, system: string) =>
+  (m.timingSystems as { name: string, timeBase?: string }[]).find(s => s.name === system)?.timeBase === 'utc'
 
 function readingState(g: Run['readings'][number]) {
   if (!g.current) return 'superseded'
@@ -96,7 +109,10 @@ function readingState(g: Run['readings'][number]) {
 
 function renderRunComputation(L: PdfLayout, m: Manifest, run: Run) {
   const d = m.course.distance
-  renderRunHeader(L, run)
+  renderRunHeader(L, m, run)
+  L.text(`Times of day on each system's clock: the event's local time (${m.event.timeZone}) unless marked UTC.`, {
+    color: 'grey', indent: 10,
+  })
   L.table(
     [
       { title: 'Trap', width: 60 },
@@ -104,7 +120,7 @@ function renderRunComputation(L: PdfLayout, m: Manifest, run: Run) {
       { title: 'Time of day', width: 95, align: 'right' },
       { title: 'State', width: 230 },
     ],
-    run.readings.map(g => [g.trap ?? '', g.system, g.time, readingState(g)]),
+    run.readings.map(g => [g.trap ?? '', g.system, `${g.time}${showsUtc(m, g.system) ? ' UTC' : ''}`, readingState(g)]),
   )
   if (run.official) {
     const [from, to] = run.direction === 'out' ? [d.entry, d.exit] : [d.exit, d.entry]
