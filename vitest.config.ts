@@ -22,7 +22,7 @@ const E2E_ISOLATED = [
   'tests/api/officials.test.ts', 'tests/api/passkeys.test.ts', 'tests/api/payments.test.ts',
   'tests/api/post-run-check.test.ts', 'tests/api/protests.test.ts', 'tests/api/s3-store.test.ts',
   'tests/api/speed-reached.test.ts', 'tests/api/start-line.test.ts', 'tests/api/two-servers.test.ts',
-  'tests/browser/post-run-check.test.ts',
+  'tests/browser/post-run-check.test.ts', 'tests/browser/day-screens-roles.test.ts', 'tests/api/board.test.ts',
   'tests/browser/accessibility-field.test.ts', 'tests/browser/accessibility-staff.test.ts',
   'tests/browser/calculator.test.ts', 'tests/browser/payments.test.ts',
   'tests/browser/protests.test.ts',

@@ -1,0 +1,74 @@
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, expect, it } from 'vitest'
+import { electricMotorcycle } from '#shared/inspection/templates'
+import { call } from '../support/api'
+import { launchBrowser, open } from '../support/browser'
+import { answerAll, FIGURES, newEntry } from '../support/entries'
+import { newTestEvent, type TestEvent } from '../support/test-event'
+
+// What each role is shown on the day's screens, in the night theme at 390 px and the day theme at 1280 px: a role sees
+// only the buttons it may press; a label says what the act requires; a value outside its limit never reads "Passed".
+// Invented set-up.
+let ctx: Awaited<ReturnType<typeof launchBrowser>>
+let event: TestEvent
+let inspectionId: number
+beforeAll(async () => {
+  ctx = await launchBrowser()
+  event = await newTestEvent('intl-motorcycle', 'UTC')
+  const entryId = await newEntry(event.eventId, 'Leaky Sprite', {}, { team: event.cookie.team })
+  const started = await call('POST', `/api/events/${event.eventId}/inspections`, { cookie: event.cookie.scrutineer, body: { entryId, baseId: 'electric-motorcycle' } })
+  expect(started.status, JSON.stringify(started.body)).toBe(201)
+  inspectionId = started.body.id
+  await call('PATCH', `/api/inspections/${inspectionId}`, { cookie: event.cookie.scrutineer, body: FIGURES })
+  // Every item ticked "Pass"; the isolation measured at 20 kΩ on the 400 V DC bus: 50 Ω/V, under the 100 Ω/V needed
+  // (UN ECE Regulation 100, 5.1.3).
+  await answerAll(inspectionId, undefined, { scrutineer: event.cookie.scrutineer }, electricMotorcycle, { isolation: [20, 'kΩ'] })
+  const signed = await call('POST', `/api/inspections/${inspectionId}/signatures`, { cookie: event.cookie.scrutineer, body: { password: 'first-password-1', typedName: 'Test scrutineer' } })
+  expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+})
+afterAll(async () => {
+  await ctx?.close()
+})
+
+async function as(cookie: string, path: string, theme: 'day' | 'dark', width: number): Promise<Page> {
+  await ctx.browser.clearCookies()
+  await ctx.browser.addCookies([
+    ...cookie.split('; ').map((c) => {
+      const [name, ...value] = c.split('=')
+      return { name: name!, value: value.join('='), url: ctx.baseUrl }
+    }),
+    { name: 'trapline-theme', value: theme, url: ctx.baseUrl },
+  ])
+  const page = await open(ctx.browser, `${ctx.baseUrl}${path}`)
+  await page.setViewportSize({ width, height: 800 })
+  return page
+}
+
+it.each([['dark', 390], ['day', 1280]] as const)('in the %s theme at %i px, each role sees what it may do', async (theme, width) => {
+  // A value under its limit: the row says "Failed (measured)" under the red verdict, never "Passed".
+  let page = await as(event.cookie.scrutineer, `/inspections/${inspectionId}`, theme, width)
+  const isolation = page.locator('[data-test="item-isolation"]')
+  expect(await isolation.locator('[data-test="verdict"]').innerText()).toContain('50.0 Ω/V at 400 V DC is under the 100 Ω/V needed')
+  expect(await isolation.locator('[data-test="answer-result"]').innerText()).toContain('✕ Failed (measured)')
+  expect(await page.locator('[data-test="item-bonding"] [data-test="answer-result"]').innerText()).toContain('✓ Passed')
+  await page.close()
+
+  // The run sheet: an official sees the start line, not a "Start the run" the route would refuse; a timekeeper has it.
+  page = await as(event.cookie.official, `/events/${event.eventId}/run-sheet`, theme, width)
+  const start = page.locator('[data-test="start-run"]')
+  await start.waitFor()
+  expect(await start.getByRole('button', { name: 'Start the run' }).count()).toBe(0)
+  expect(await start.locator('[data-test="start-by-timekeeper"]').innerText()).toContain('A timekeeper starts the run')
+  await page.close()
+  page = await as(event.cookie.timekeeper, `/events/${event.eventId}/run-sheet`, theme, width)
+  expect(await page.locator('[data-test="start-run"]').getByRole('button', { name: 'Start the run' }).count()).toBe(1)
+  await page.close()
+
+  // A rider signing on in person on the organiser's device: the drawn mark is required, and the label says so.
+  page = await as(event.cookie.organiser, `/events/${event.eventId}/briefings`, theme, width)
+  const pads = page.locator('p.label', { hasText: 'Drawn signature' })
+  await pads.first().waitFor()
+  expect(await pads.allInnerTexts()).toContain('Drawn signature (required)')
+  expect(await pads.allInnerTexts()).not.toContain('Drawn signature (optional)')
+  await page.close()
+})
