@@ -148,6 +148,8 @@ describe('a protest lodged in time, across a change of day, heard, decided and a
     expect(text).toContain(`Protest #${p.id} by Test Team (timing), lodged`)
     expect(text).toContain(`Appeal #${appeal.body.id} against the decision on protest #${p.id}`)
     expect(text).toContain('Decision: dismissed, by Test official')
+    // The hearing's time on the event's clock with its zone named, UTC beside it.
+    expect(text).toMatch(/Heard \d{4}-\d\d-\d\d \d\d:\d\d:\d\d \(Etc\/GMT[-+]?\d*\), \d{4}-\d\d-\d\d \d\d:\d\d:\d\d UTC, present: /)
     expect(text).toContain('Reasons: Both systems recorded the pass.')
     expect(text).toContain('Start line and briefing')
     expect(text).toMatch(/Riders' briefing, held .* UTC: signed on by Test Rider in person on the organiser's device/)

@@ -7,7 +7,7 @@ import type { BusKind } from '#shared/constants'
 import { DIVISION_WORDS, type Division } from '#shared/rules/classes'
 import { signedWith, type PdfLayout } from './pdf-layout'
 import type { Manifest } from './manifest'
-import { utcStamp, type SealFacts } from './sections-result'
+import { localStamp, utcStamp, type SealFacts } from './sections-result'
 
 export function renderCourse(L: PdfLayout, m: Manifest) {
   const { course } = m
@@ -219,7 +219,7 @@ export function renderCorrections(L: PdfLayout, m: Manifest) {
       g.trap ?? '',
       g.system,
       `${g.time} replaces #${g.supersedes}`,
-      `${g.enteredBy}, ${utcStamp(g.enteredAt)}: ${g.reason}`,
+      `${g.enteredBy}, ${localStamp(g.enteredAt, m.event.timeZone)}: ${g.reason}`,
     ]),
   )
   if (corrections.length) {
@@ -341,7 +341,8 @@ function renderProtests(L: PdfLayout, m: Manifest) {
     L.text(`Grounds: ${p.grounds}${p.feeNote ? ` Fee: ${p.feeNote} (noted, not collected by Trapline).` : ''}`,
       { indent: 10, gap: 1 })
     L.text(p.outcome
-      ? `Heard ${p.heard ? utcStamp(p.heard) : ''} UTC, present: ${p.present}. ${p.hearing} `
+      ? `Heard ${p.heard ? `${localStamp(p.heard, m.event.timeZone)}, ${utcStamp(p.heard)} UTC` : ''}, `
+      + `present: ${p.present}. ${p.hearing} `
       + `Decision: ${p.outcome}, by ${p.decidedBy}, ${p.decided}. Reasons: ${p.reasons}`
       : 'Not yet decided.', { indent: 10 })
   }
