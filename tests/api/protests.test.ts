@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { call, demoEmail, demoEventId, invitedPerson, login, url, useTestServer } from '../support/api'
+import { call, demoEmail, demoEventId, invitedPerson, login, mailTo, url, useTestServer } from '../support/api'
 import { clearedEntry } from '../support/entries'
 import { pdfText } from '../support/pdf-tools'
 import { confirmByStewards, makeReady } from '../support/ready-attempt'
@@ -193,6 +193,9 @@ describe('an upheld protest\'s consequence', () => {
       cookie: rival.cookie, body: { attemptId, kind: 'entry', grounds: 'The machine ran with a fairing not inspected.', ...sign('Rival team') },
     })
     expect(protest.status, JSON.stringify(protest.body)).toBe(201)
+    // The team whose attempt it concerns is told, with the grounds (common practice: a party is heard).
+    const told = await mailTo(event.email.team, `A protest concerns your attempt #${attemptId}`)
+    expect(told.text).toContain('The machine ran with a fairing not inspected.')
     await call('POST', `/api/events/${event.eventId}/appointments`, {
       cookie: event.cookie.organiser, body: { function: 'steward', userId: await idOf(event.cookie.official) },
     })
@@ -211,6 +214,12 @@ describe('an upheld protest\'s consequence', () => {
     const upheld = await decide(protest.body.id, { outcome: 'upheld', voids: 'result' })
     expect(upheld.status, JSON.stringify(upheld.body)).toBe(201)
     expect(upheld.body).toMatchObject({ outcome: 'upheld', voids: 'result', voidRunId: null })
+    // Both parties are mailed the decision, its consequence and its reasons.
+    for (const to of [event.email.team, rival.email]) {
+      const decision = await mailTo(to, `Protest #${protest.body.id} decided: upheld`)
+      expect(decision.text).toContain('The attempt\'s result is void.')
+      expect(decision.text).toContain('Reasons: The fairing was fitted after the inspection.')
+    }
 
     const live = async () => (await call('GET', `/api/events/${event.eventId}/live`, { cookie: event.cookie.team })).body
       .find((a: { id: number }) => a.id === attemptId)

@@ -42,6 +42,13 @@ const stewardEmails = async (eventId: number) => (await useDb().select({ email: 
   .where(and(eq(tables.appointments.eventId, eventId), eq(tables.appointments.function, 'steward'),
     isNull(tables.appointments.endedAt)))).map(r => r.email)
 
+/** The people of these teams at the event, to be told of a protest that concerns them and of its decision. */
+const teamEmails = async (eventId: number, teamIds: number[]) => [...new Set((await useDb()
+  .select({ email: tables.users.email })
+  .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
+  .where(and(eq(tables.memberships.eventId, eventId), eq(tables.memberships.role, 'team'),
+    inArray(tables.memberships.teamId, teamIds.length ? teamIds : [0])))).map(r => r.email))]
+
 async function insertSigned(values: typeof tables.protests.$inferInsert, input: ProtestInput | AppealInput,
   user: { id: number }, proof: SignerProof, guard: (tx: Tx) => Promise<void> = async () => {}, signedAt?: Date) {
   return useDb().transaction(async (tx) => {
@@ -86,11 +93,16 @@ export async function lodgeProtest(eventId: number, input: ProtestInput, user: {
     eventId, attemptId: attempt.id, kind: input.kind, grounds: input.grounds, teamId, lodgedBy: user.id,
     lodgedAt: now, publishedAt: published, deadline, feeNote: rule.fee,
   }, input, user, proof, undefined, seededAt)
-  await queueMail((await stewardEmails(eventId)).map(to => ({
-    to,
-    subject: `Protest lodged: attempt #${attempt.id} (${event.name})`,
-    text: `${PROTEST_KIND_LABELS[input.kind]}, lodged ${clockTime(+now, event.timeZone)}.\n\n${input.grounds}\n`,
-  })), { wait: false })
+  const text = `${PROTEST_KIND_LABELS[input.kind]}, lodged ${clockTime(+now, event.timeZone)}.\n\n${input.grounds}\n`
+  // The stewards who hear it, and the team whose attempt it concerns (when that is another team; not for the demo's
+  // seeded past).
+  const protested = entry.teamId === teamId || seededAt ? [] : await teamEmails(eventId, [entry.teamId])
+  const subject = `Protest lodged: attempt #${attempt.id} (${event.name})`
+  await queueMail([
+    ...(await stewardEmails(eventId)).map(to => ({ to, subject, text })),
+    ...protested.map(to => ({ to, subject: `A protest concerns your attempt #${attempt.id} (${event.name})`,
+      text: `${text}\nThe stewards hear it; their decision is mailed to you.\n` })),
+  ], { wait: false })
   return row
 }
 
@@ -172,7 +184,26 @@ export async function decideProtest(protestId: number, input: ProtestDecisionInp
     const [row] = await tx.update(tables.protests).set({ ...decision, decisionSignatureId: signature.id })
       .where(and(eq(tables.protests.id, p.id), isNull(tables.protests.decidedAt))).returning()
     return row!
+  }).then(async (row) => {
+    // The demo's seeded decisions (`at`) are its past: nobody is mailed them.
+    if (!at) await mailDecision(row, await teamOfAttemptIn(useDb(), row.attemptId))
+    return row
   })
+}
+
+/** The decision, mailed to the team that lodged it and the team whose attempt it concerns. */
+async function mailDecision(p: typeof tables.protests.$inferSelect, attemptTeamId: number) {
+  const [event] = await useDb().select({ name: tables.events.name, timeZone: tables.events.timeZone })
+    .from(tables.events).where(eq(tables.events.id, p.eventId))
+  const what = p.appealOf ? `Appeal #${p.id} on protest #${p.appealOf}` : `Protest #${p.id}`
+  const consequence = p.voids === 'result'
+    ? 'The attempt\'s result is void.'
+    : p.voids === 'run' ? `Run #${p.voidRunId} is void.` : 'Nothing is made void.'
+  const text = `${what} on attempt #${p.attemptId}: ${p.outcome}, ${clockTime(+p.decidedAt!, event!.timeZone)}. `
+    + `${consequence}\n\nReasons: ${p.reasons}\n`
+  await queueMail((await teamEmails(p.eventId, [p.teamId, attemptTeamId])).map(to => ({
+    to, subject: `${what} decided: ${p.outcome} (${event!.name})`, text,
+  })), { wait: false })
 }
 
 /** Protests and appeals on these attempts (or the whole event), oldest first, with names and clock times. */
