@@ -40,3 +40,15 @@ describe('a profile copied to adapt', () => {
     expect(profiles['intl-motorcycle'].gradientMaxPercent.value).toBe(1)
   })
 })
+
+describe('a payment\'s state in words', () => {
+  // One wording on every page (a decline is not a cancellation): the provider's states pending, paid, failed
+  // (declined), cancelled (the page left), and the fee's own unpaid and refunded.
+  it('names each state once, a declined card as declined, and says nothing was charged where nothing was', async () => {
+    const { PAYMENT_STATE_WORDS } = await import('#shared/utils/payment-words')
+    expect(Object.keys(PAYMENT_STATE_WORDS).sort()).toEqual(['cancelled', 'failed', 'paid', 'pending', 'refunded', 'unpaid'])
+    expect(PAYMENT_STATE_WORDS.failed).toBe('✕ declined: nothing was charged')
+    expect(PAYMENT_STATE_WORDS.cancelled).toContain('nothing was charged')
+    expect(PAYMENT_STATE_WORDS.cancelled).not.toContain('declined')
+  })
+})
