@@ -3,7 +3,8 @@ import { afterAll, beforeAll, expect, it } from 'vitest'
 import { electricMotorcycle } from '#shared/inspection/templates'
 import { call } from '../support/api'
 import { launchBrowser, open } from '../support/browser'
-import { answerAll, FIGURES, newEntry } from '../support/entries'
+import { answerAll, clearedEntry, FIGURES, newEntry } from '../support/entries'
+import { kilometreRun } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 
 // What each role is shown on the day's screens, in the night theme at 390 px and the day theme at 1280 px: a role sees
@@ -25,7 +26,13 @@ beforeAll(async () => {
   await answerAll(inspectionId, undefined, { scrutineer: event.cookie.scrutineer }, electricMotorcycle, { isolation: [20, 'kΩ'] })
   const signed = await call('POST', `/api/inspections/${inspectionId}/signatures`, { cookie: event.cookie.scrutineer, body: { password: 'first-password-1', typedName: 'Test scrutineer' } })
   expect(signed.status, JSON.stringify(signed.body)).toBe(201)
+  // Runs on two days: one two days ago (the event began then), one today.
+  const dated = await clearedEntry(event.eventId, 'Dated Sprite', {}, { team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1' })
+  const both = { primary: [0, 9] as [number, number], backup: [0, 9] as [number, number] }
+  await kilometreRun({ ...event, timekeeper: event.cookie.timekeeper }, dated, 'out', twoDaysAgo, both)
+  await kilometreRun({ ...event, timekeeper: event.cookie.timekeeper }, dated, 'back', Math.ceil(Date.now() / 1000) * 1000 + 1000, both)
 })
+const twoDaysAgo = Math.floor((Date.now() - 48 * 3600_000) / 1000) * 1000
 afterAll(async () => {
   await ctx?.close()
 })
@@ -62,6 +69,9 @@ it.each([['dark', 390], ['day', 1280]] as const)('in the %s theme at %i px, each
   await page.close()
   page = await as(event.cookie.timekeeper, `/events/${event.eventId}/run-sheet`, theme, width)
   expect(await page.locator('[data-test="start-run"]').getByRole('button', { name: 'Start the run' }).count()).toBe(1)
+  // The runs are listed by day on the event's clock (UTC here): today's under "Today", the older under their date.
+  const day = (ms: number) => new Date(ms).toISOString().slice(0, 10)
+  expect((await page.locator('[data-test="runs-day"]').allTextContents()).map(t => t.trim())).toEqual([`Today, ${day(Date.now())}`, day(twoDaysAgo)])
   await page.close()
 
   // A rider signing on in person on the organiser's device: the drawn mark is required, and the label says so.
