@@ -54,3 +54,13 @@ it('shows a ratified claim as ratified, and a decided claim only once it is', as
   expect(decided.status, JSON.stringify(decided.body)).toBe(201)
   expect(await recordLine()).toMatchObject({ distances: [{ label: 'Flying kilometre', ratified: true, valid: true }] })
 })
+
+it('readiness says the pair is within its window as a rule, not as a figure beside the speed', async () => {
+  // A readiness line "404.494 km/h, 120 min from the start…" read as a measurement: the rule is now named as such.
+  const { attemptId } = await readyPair(event, 'Window Words Sprite')
+  const pair = (await call('GET', `/api/attempts/${attemptId}/readiness`, { cookie: event.cookie.team })).body.items
+    .find((i: { key: string }) => i.key === 'pair')
+  // 8.9 s over 1000 m: 3600 / 8.9 = 404.494 km/h, truncated (readyPair); the international motorcycle window (2 h).
+  expect(pair).toMatchObject({ met: true, detail: '404.494 km/h; the pair is within its time window (the rule: 120 min '
+    + 'from the start of the first run to the finish of the second run)' })
+})

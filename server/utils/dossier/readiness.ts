@@ -132,8 +132,10 @@ function recordItems(file: AttemptFile): ReadinessItem[] {
       label: 'A complete pair of runs under the profile',
       fix: `${at}/live`,
       met: !!live.result && counted.length === 2,
+      // The window is the profile's rule, said as a rule ("within …"), never beside the figure as if measured.
       detail: live.result
-        ? `${live.result.kmh} km/h, ${live.window?.rule}`
+        ? `${live.result.kmh} km/h; the pair is ${live.window?.ok === false ? 'outside' : 'within'} its time window `
+        + `(the rule: ${live.window?.rule})`
         : `${counted.length} complete run(s) so far`,
     },
     {
