@@ -27,12 +27,13 @@ beforeAll(async () => {
   const signed = await call('POST', `/api/inspections/${inspectionId}/signatures`, { cookie: event.cookie.scrutineer, body: { password: 'first-password-1', typedName: 'Test scrutineer' } })
   expect(signed.status, JSON.stringify(signed.body)).toBe(201)
   // Runs on two days: one two days ago (the event began then), one today.
-  const dated = await clearedEntry(event.eventId, 'Dated Sprite', {}, { team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1' })
+  dated = await clearedEntry(event.eventId, 'Dated Sprite', {}, { team: event.cookie.team, scrutineer: event.cookie.scrutineer, scrutineerPassword: 'first-password-1' })
   const both = { primary: [0, 9] as [number, number], backup: [0, 9] as [number, number] }
   await kilometreRun({ ...event, timekeeper: event.cookie.timekeeper }, dated, 'out', twoDaysAgo, both)
   await kilometreRun({ ...event, timekeeper: event.cookie.timekeeper }, dated, 'back', Math.ceil(Date.now() / 1000) * 1000 + 1000, both)
 })
 const twoDaysAgo = Math.floor((Date.now() - 48 * 3600_000) / 1000) * 1000
+let dated: number
 afterAll(async () => {
   await ctx?.close()
 })
@@ -80,5 +81,25 @@ it.each([['dark', 390], ['day', 1280]] as const)('in the %s theme at %i px, each
   await pads.first().waitFor()
   expect(await pads.allInnerTexts()).toContain('Drawn signature (required)')
   expect(await pads.allInnerTexts()).not.toContain('Drawn signature (optional)')
+  await page.close()
+})
+
+it('reads an abort back before it is made, at 390 px at night; Cancel aborts nothing', async () => {
+  const started = await call('POST', `/api/events/${event.eventId}/runs`, { cookie: event.cookie.timekeeper, body: { entryId: dated, direction: 'out' } })
+  expect(started.status, JSON.stringify(started.body)).toBe(201)
+  const page = await as(event.cookie.timekeeper, `/events/${event.eventId}/run-sheet`, 'dark', 390)
+  await page.locator(`[data-test="run-${started.body.id}"]`).click()
+  await page.fill('#abort-reason', 'rider waved off at the line')
+  await page.press('#abort-reason', 'Enter')
+  const readBack = page.locator('[data-test="abort-run"] [data-test="read-back-text"]')
+  expect(await readBack.innerText()).toBe(`Abort run #${started.body.id} (Dated Sprite, out)? Reason: “rider waved off at the line”. `
+    + 'An aborted run is never timed, and the abort is not undone.')
+  const status = async () => (await call('GET', `/api/events/${event.eventId}/run-sheet`, { cookie: event.cookie.timekeeper })).body
+    .attempts.flatMap((a: { runs: { id: number, status: string }[] }) => a.runs).find((r: { id: number }) => r.id === started.body.id).status
+  await page.locator('[data-test="abort-run"]').getByRole('button', { name: 'Cancel' }).click()
+  expect(await status()).not.toBe('aborted')
+  await page.press('#abort-reason', 'Enter')
+  await page.locator('[data-test="abort-run"] [data-test="read-back-yes"]').click()
+  await expect.poll(status).toBe('aborted')
   await page.close()
 })
