@@ -1,8 +1,7 @@
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { electricMotorcycle } from '#shared/inspection/templates'
 import { call } from '../support/api'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, openAs } from '../support/browser'
 import { answerAll, clearedEntry, FIGURES, newEntry } from '../support/entries'
 import { kilometreRun } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
@@ -38,19 +37,7 @@ afterAll(async () => {
   await ctx?.close()
 })
 
-async function as(cookie: string, path: string, theme: 'day' | 'dark', width: number): Promise<Page> {
-  await ctx.browser.clearCookies()
-  await ctx.browser.addCookies([
-    ...cookie.split('; ').map((c) => {
-      const [name, ...value] = c.split('=')
-      return { name: name!, value: value.join('='), url: ctx.baseUrl }
-    }),
-    { name: 'trapline-theme', value: theme, url: ctx.baseUrl },
-  ])
-  const page = await open(ctx.browser, `${ctx.baseUrl}${path}`)
-  await page.setViewportSize({ width, height: 800 })
-  return page
-}
+const as = (cookie: string, path: string, theme: 'day' | 'dark', width: number) => openAs(ctx, cookie, path, theme, width)
 
 it.each([['dark', 390], ['day', 1280]] as const)('in the %s theme at %i px, each role sees what it may do', async (theme, width) => {
   // A value under its limit: the row says "Failed (measured)" under the red verdict, never "Passed".

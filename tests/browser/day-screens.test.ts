@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { call, demoEventId, login } from '../support/api'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, open, openAs } from '../support/browser'
 import { clearedEntry } from '../support/entries'
 import { newTestEvent, type TestEvent } from '../support/test-event'
 
@@ -22,19 +22,7 @@ afterAll(async () => {
 })
 
 /** A page as a person of the test event (their session cookie), in a theme, at a width. */
-async function as(cookie: string, path: string, theme: 'day' | 'dark', width = 390) {
-  await ctx.browser.clearCookies()
-  await ctx.browser.addCookies([
-    ...cookie.split('; ').map((c) => {
-      const [name, ...value] = c.split('=')
-      return { name: name!, value: value.join('='), url: ctx.baseUrl }
-    }),
-    { name: 'trapline-theme', value: theme, url: ctx.baseUrl },
-  ])
-  const page = await open(ctx.browser, `${ctx.baseUrl}${path}`)
-  await page.setViewportSize({ width, height: 800 })
-  return page
-}
+const as = (cookie: string, path: string, theme: 'day' | 'dark', width = 390) => openAs(ctx, cookie, path, theme, width)
 
 /** No sideways scrolling: the document is no wider than the viewport (WCAG 2.1 SC 1.4.10, reflow at 320 CSS px). */
 const fitsWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)
@@ -141,7 +129,7 @@ describe('signing is a deliberate act', () => {
     const sheet = await call('GET', `/api/events/${event.eventId}/run-sheet`, { cookie: event.cookie.timekeeper })
     expect(sheet.body.attempts.find((a: { id: number }) => a.id === attemptId).sheet.locked).toBe(false)
     await page.click('button:has-text("Sign the timing sheet")')
-    await page.click('[data-test="sign-confirm-yes"]')
+    await page.click('[data-test="sign-confirm"] [data-test="read-back-yes"]')
     await page.locator('text=Signed by TEST timekeeper').first().waitFor()
     await page.close()
   })
@@ -245,7 +233,7 @@ describe('inspection entry keeps what is typed', () => {
     const page = await as(event.cookie.scrutineer, `/events/${event.eventId}/inspections`, 'dark', 1280)
     await page.locator(`[data-test="entry-${entryId}"] button:has-text("Re-inspect")`).click()
     expect(await page.locator('[data-test="confirm-reinspect"]').innerText()).toContain('stays as it was signed')
-    await page.click('[data-test="confirm-reinspect-yes"]')
+    await page.click('[data-test="confirm-reinspect"] [data-test="read-back-yes"]')
     await page.waitForURL('**/inspections/*')
     await page.waitForSelector('html[data-hydrated="true"]')
     const inspectionId = Number(/inspections\/(\d+)/.exec(page.url())![1])

@@ -44,7 +44,7 @@ it('runs the demo day from the first reading to the record book', async () => {
   // Signing asks first, naming what is signed: the attempt, its two runs and their sixteen readings (both systems).
   expect(await page.locator('[data-test="sign-confirm"]').innerText())
     .toMatch(new RegExp(`attempt #${attemptId} \\(Larkspur Fennwick streamliner\\), 2 runs and 16 readings, as Tobias Tick`))
-  await page.click('[data-test="sign-confirm-yes"]')
+  await page.click('[data-test="sign-confirm"] [data-test="read-back-yes"]')
   await page.locator('text=Signed by Tobias Tick').first().waitFor()
 
   // Inspection: the streamliner was cleared by a signed inspection this morning.

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { call } from '../support/api'
-import { launchBrowser, open } from '../support/browser'
+import { launchBrowser, openAs } from '../support/browser'
 import { clearedEntry } from '../support/entries'
 import { kilometreRun } from '../support/runs'
 import { newTestEvent, type TestEvent } from '../support/test-event'
@@ -34,16 +34,7 @@ afterAll(async () => {
 })
 
 it('reads the check back before it is signed, and a seal found broken keeps the dossier back', async () => {
-  await ctx.browser.clearCookies()
-  await ctx.browser.addCookies([
-    ...event.cookie.scrutineer.split('; ').map((c) => {
-      const [name, ...value] = c.split('=')
-      return { name: name!, value: value.join('='), url: ctx.baseUrl }
-    }),
-    { name: 'trapline-theme', value: 'dark', url: ctx.baseUrl },
-  ])
-  const page = await open(ctx.browser, `${ctx.baseUrl}/attempts/${attemptId}/dossier`)
-  await page.setViewportSize({ width: 390, height: 800 })
+  const page = await openAs(ctx, event.cookie.scrutineer, `/attempts/${attemptId}/dossier`, 'dark', 390)
   const form = page.locator('[data-test="post-run-check"]')
   await form.locator('#prc-mass').fill('181,0')
   await form.locator('#prc-seals').fill('S-11\nS-12')

@@ -54,3 +54,27 @@ export async function signIn(ctx: { browser: BrowserContext, baseUrl: string }, 
   }
   return page
 }
+
+/**
+ * Opens `path` as the person whose session cookie is given (a test event's people sign in through the API), in the
+ * day or night theme, at a width (390 px: a phone; 1280 px: a laptop).
+ */
+export async function openAs(
+  ctx: { browser: BrowserContext, baseUrl: string },
+  cookie: string,
+  path: string,
+  theme: 'day' | 'dark',
+  width: number,
+) {
+  await ctx.browser.clearCookies()
+  await ctx.browser.addCookies([
+    ...cookie.split('; ').map((c) => {
+      const [name, ...value] = c.split('=')
+      return { name: name!, value: value.join('='), url: ctx.baseUrl }
+    }),
+    { name: 'trapline-theme', value: theme, url: ctx.baseUrl },
+  ])
+  const page = await open(ctx.browser, `${ctx.baseUrl}${path}`)
+  await page.setViewportSize({ width, height: 800 })
+  return page
+}

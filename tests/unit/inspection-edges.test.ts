@@ -183,6 +183,10 @@ describe('not applicable by what the machine is', () => {
     expect(notApplicableRefusal(item('canopy-exit'), 'full')).toBeNull()
     expect(notApplicableRefusal(item('canopy-exit'), null)).toBeNull()
     expect(notApplicableRefusal(item('tyres-rated'), 'none')).toBe('this item cannot be marked not applicable')
+    // An item a profile lets go on two divisions names both.
+    const two = { ...item('parachute'), notApplicableOn: ['none', 'partial'] as ('none' | 'partial')[] }
+    expect(notApplicableRefusal(two, 'full'))
+      .toBe('is not applicable only where the machine is unstreamlined or partially streamlined; this one is fully streamlined')
   })
   it('lists at signing the items marked not applicable that the division seen no longer allows', () => {
     const answers = [

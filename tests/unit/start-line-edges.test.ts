@@ -145,4 +145,10 @@ describe('the speed reached, before the next run', () => {
     expect(reachedFindings({ ...none, reached: at('281.6352') })).toEqual([])
     expect(reachedFindings({ ...none, reached: at('281.6353') }).map(f => f.code)).toEqual(['reached.parachutes'])
   })
+  it('holds nothing against an unlimited grade, or where no parachute was asked (not applicable)', () => {
+    // The club scheme's top grade has no ceiling (from memory of dry-lake club rulebooks); an unstreamlined machine's
+    // parachute item is not applicable, so there is no count to hold the speed against.
+    const unlimited = { label: 'unlimited', maxKmh: null }
+    expect(reachedFindings({ ...base, grade: unlimited, tyreRatedKmh: null, parachutes: null, reached: at('999.999') })).toEqual([])
+  })
 })
